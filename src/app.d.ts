@@ -1,0 +1,16 @@
+import type { SessionUser, SessionInfo } from '$lib/server/auth';
+
+declare global {
+	namespace App {
+		interface Locals {
+			user: SessionUser | null;
+			session: SessionInfo | null;
+		}
+		interface Error {
+			message: string;
+			code?: string;
+		}
+	}
+}
+
+export {};
