@@ -1,0 +1,313 @@
+/**
+ * Invented demo data for the firm "Copperleaf Water & Stone": a three-column bubbling feature on a
+ * manifold with a valve per column, a gravel-filled basin, three lights, a pebble topping with an
+ * alternate, and an optional low wall. Prices and pump curves are made up for the demo.
+ */
+import type { Catalog, CatalogItem, Design, ItemUnit } from './schema';
+
+const columnBranch = (id: string, outletId: string, lengthFt: number, staticLiftFt: number) => ({
+	id,
+	outletId,
+	pipe: { material: 'pvc-sch40' as const, size: '3/4' as const },
+	lengthFt,
+	staticLiftFt,
+	fittings: [
+		{ kind: 'tee-branch' as const, count: 1 },
+		{ kind: 'elbow-90' as const, count: 2 }
+	],
+	valve: 'ball-valve' as const
+});
+
+export function demoDesign(): Design {
+	return {
+		name: 'Three basalt columns over a gravel basin',
+		outlets: [
+			{ id: 'col-low', name: 'Low column', kind: 'bubbler', bubbleHeightIn: 3, boreIn: 0.824 },
+			{ id: 'col-mid', name: 'Middle column', kind: 'bubbler', bubbleHeightIn: 3, boreIn: 0.824 },
+			{ id: 'col-tall', name: 'Tall column', kind: 'bubbler', bubbleHeightIn: 4, boreIn: 0.824 }
+		],
+		supply: {
+			pipe: { material: 'pvc-sch40', size: '1-1/2' },
+			lengthFt: 6,
+			fittings: [{ kind: 'elbow-90', count: 2 }]
+		},
+		branches: [
+			columnBranch('b-low', 'col-low', 8, 2.5),
+			columnBranch('b-mid', 'col-mid', 10, 3.5),
+			columnBranch('b-tall', 'col-tall', 12, 4.5)
+		],
+		basin: {
+			size: { shape: 'rectangle', lengthFt: 6, widthFt: 4, depthFt: 2 },
+			// About a third of a bed of washed round gravel is voids (from memory).
+			fill: { kind: 'gravel', voidFraction: 0.35, sku: 'AGG-GRAVEL-WASHED' },
+			pumpMinLevelIn: 6,
+			freeboardIn: 2,
+			sku: 'BASIN-LINER-KIT'
+		},
+		stones: [
+			{
+				id: 'st-low',
+				name: 'Low basalt column',
+				size: { shape: 'column-hex', acrossFlatsIn: 12, heightIn: 24 },
+				rock: 'basalt',
+				wetted: true,
+				sku: 'STONE-BASALT-COL'
+			},
+			{
+				id: 'st-mid',
+				name: 'Middle basalt column',
+				size: { shape: 'column-hex', acrossFlatsIn: 12, heightIn: 36 },
+				rock: 'basalt',
+				wetted: true,
+				sku: 'STONE-BASALT-COL'
+			},
+			{
+				id: 'st-tall',
+				name: 'Tall basalt column',
+				size: { shape: 'column-hex', acrossFlatsIn: 12, heightIn: 48 },
+				rock: 'basalt',
+				wetted: true,
+				sku: 'STONE-BASALT-COL'
+			},
+			{
+				id: 'st-accent',
+				name: 'Granite accent boulders',
+				size: { shape: 'boulder', lengthIn: 14, widthIn: 10, heightIn: 8 },
+				rock: 'granite',
+				count: 4,
+				sku: 'STONE-GRANITE-ACCENT'
+			}
+		],
+		aggregates: [
+			{
+				id: 'top-pebble',
+				name: 'River pebble topping',
+				areas: [{ shape: 'rectangle', lengthFt: 8, widthFt: 6 }],
+				depthIn: 2,
+				sku: 'AGG-PEBBLE-RIVER',
+				optionId: 'topping-pebble'
+			},
+			{
+				id: 'top-slate',
+				name: 'Slate chip topping',
+				areas: [{ shape: 'rectangle', lengthFt: 8, widthFt: 6 }],
+				depthIn: 2,
+				sku: 'AGG-SLATE-CHIP',
+				optionId: 'topping-slate'
+			}
+		],
+		walls: [
+			{
+				id: 'seat-wall',
+				name: 'Low retaining wall',
+				purpose: 'retaining',
+				lengthFt: 16,
+				exposedHeightIn: 18,
+				unit: { lengthIn: 16, heightIn: 6, depthIn: 12 },
+				unitSku: 'WALL-UNIT-16',
+				capSku: 'WALL-CAP-16',
+				capLengthIn: 16,
+				padSku: 'AGG-BASE-ROAD',
+				drainSku: 'AGG-DRAIN-CLEAN',
+				optionId: 'low-wall'
+			}
+		],
+		lighting: {
+			fixtures: [
+				{ id: 'fx-up-1', name: 'Column uplight', va: 5, sku: 'LIGHT-UPLIGHT' },
+				{ id: 'fx-up-2', name: 'Column uplight', va: 5, sku: 'LIGHT-UPLIGHT' },
+				{ id: 'fx-path', name: 'Path light', va: 4, sku: 'LIGHT-PATH' }
+			],
+			transformers: [
+				{
+					id: 'tx-1',
+					name: '150 VA transformer',
+					ratingVA: 150,
+					tapsV: [12, 13, 14, 15],
+					sku: 'LIGHT-TX-150'
+				}
+			],
+			runs: [
+				{
+					id: 'run-1',
+					transformerId: 'tx-1',
+					tapV: 12,
+					gauge: '12',
+					cableSku: 'CABLE-12-2',
+					fixtures: [
+						{ fixtureId: 'fx-up-1', distanceFt: 30 },
+						{ fixtureId: 'fx-up-2', distanceFt: 36 },
+						{ fixtureId: 'fx-path', distanceFt: 55 }
+					]
+				}
+			]
+		},
+		extraLines: [{ sku: 'SVC-CORE-DRILL', quantity: 3 }],
+		extraLabor: [],
+		options: [{ id: 'low-wall', name: 'Low retaining wall behind the feature', selected: false }],
+		alternates: [
+			{
+				id: 'topping',
+				name: 'Topping',
+				choices: [
+					{ id: 'topping-pebble', name: 'River pebble' },
+					{ id: 'topping-slate', name: 'Slate chips' }
+				],
+				selectedChoiceId: 'topping-pebble'
+			}
+		]
+	};
+}
+
+const item = (
+	sku: string,
+	name: string,
+	category: CatalogItem['category'],
+	unit: ItemUnit,
+	unitCost: number,
+	unitPrice: number,
+	extra: object = {}
+) => ({ sku, name, category, unit, unitCost, unitPrice, ...extra });
+
+export function demoCatalog(): Catalog {
+	return {
+		items: [
+			item('PIPE-S40-075', '3/4 in Schedule 40 PVC pipe', 'pipe', 'ft', 45, 95, {
+				pipe: { material: 'pvc-sch40', size: '3/4' }
+			}),
+			item('PIPE-S40-100', '1 in Schedule 40 PVC pipe', 'pipe', 'ft', 65, 135, {
+				pipe: { material: 'pvc-sch40', size: '1' }
+			}),
+			item('PIPE-S40-150', '1-1/2 in Schedule 40 PVC pipe', 'pipe', 'ft', 110, 225, {
+				pipe: { material: 'pvc-sch40', size: '1-1/2' }
+			}),
+			item('FIT-ELL-075', '3/4 in 90° elbow', 'fitting', 'each', 60, 150, {
+				fitting: { kind: 'elbow-90', size: '3/4' }
+			}),
+			item('FIT-ELL-150', '1-1/2 in 90° elbow', 'fitting', 'each', 180, 400, {
+				fitting: { kind: 'elbow-90', size: '1-1/2' }
+			}),
+			item('FIT-TEE-075', 'Manifold port, 3/4 in', 'fitting', 'each', 250, 600, {
+				fitting: { kind: 'tee-branch', size: '3/4' }
+			}),
+			item('VALVE-BALL-075', '3/4 in ball valve', 'valve', 'each', 650, 1500, {
+				fitting: { kind: 'ball-valve', size: '3/4' }
+			}),
+			item(
+				'BASIN-LINER-KIT',
+				'Basin liner and underlayment kit, 6 × 4 × 2 ft',
+				'basin',
+				'each',
+				18000,
+				34000
+			),
+			item(
+				'AGG-GRAVEL-WASHED',
+				'Washed round gravel, 3/4–1-1/2 in',
+				'aggregate',
+				'ton',
+				4200,
+				8500,
+				{ bulkDensityLbFt3: 100 }
+			),
+			item('AGG-PEBBLE-RIVER', 'River pebble, 1–2 in', 'aggregate', 'ton', 9000, 17500, {
+				bulkDensityLbFt3: 95
+			}),
+			item('AGG-SLATE-CHIP', 'Slate chips, 0.5 ft³ bag', 'aggregate', 'bag', 700, 1450, {
+				bagVolumeFt3: 0.5
+			}),
+			item('AGG-BASE-ROAD', 'Compactable road base', 'aggregate', 'ton', 2800, 6000, {
+				bulkDensityLbFt3: 110
+			}),
+			item('AGG-DRAIN-CLEAN', 'Clean crushed drainage stone', 'aggregate', 'yd3', 5200, 9800),
+			item('STONE-BASALT-COL', 'Basalt column, drilled', 'stone', 'ton', 60000, 110000),
+			item('STONE-GRANITE-ACCENT', 'Granite accent boulder', 'stone', 'each', 3500, 7500),
+			item('WALL-UNIT-16', 'Segmental wall unit 16 × 6 × 12 in', 'wall', 'each', 450, 950),
+			item('WALL-CAP-16', 'Wall cap 16 in', 'wall', 'each', 600, 1300),
+			item('LIGHT-UPLIGHT', 'LED uplight, brass', 'lighting', 'each', 5500, 12500),
+			item('LIGHT-PATH', 'LED path light', 'lighting', 'each', 6000, 13500),
+			item(
+				'LIGHT-TX-150',
+				'Low-voltage transformer 150 VA, multi-tap',
+				'lighting',
+				'each',
+				16000,
+				32000
+			),
+			item('CABLE-12-2', 'Direct-burial cable 12/2', 'electrical', 'ft', 55, 120),
+			item('SVC-CORE-DRILL', 'Core drilling through a column', 'other', 'each', 4000, 9000)
+		],
+		pumps: [
+			{
+				id: 'pump-s900',
+				name: 'Submersible pump S-900',
+				curve: [
+					{ flowGph: 0, headFt: 12 },
+					{ flowGph: 300, headFt: 10.2 },
+					{ flowGph: 600, headFt: 7.4 },
+					{ flowGph: 900, headFt: 3.6 },
+					{ flowGph: 1050, headFt: 0 }
+				],
+				watts: 85,
+				priceCents: 24000,
+				costCents: 13000
+			},
+			{
+				id: 'pump-s1600',
+				name: 'Submersible pump S-1600',
+				curve: [
+					{ flowGph: 0, headFt: 16 },
+					{ flowGph: 500, headFt: 13.8 },
+					{ flowGph: 1000, headFt: 10 },
+					{ flowGph: 1600, headFt: 4.5 },
+					{ flowGph: 1850, headFt: 0 }
+				],
+				watts: 140,
+				priceCents: 36000,
+				costCents: 20000
+			},
+			{
+				id: 'pump-s2600',
+				name: 'Submersible pump S-2600',
+				curve: [
+					{ flowGph: 0, headFt: 21 },
+					{ flowGph: 800, headFt: 18 },
+					{ flowGph: 1600, headFt: 13 },
+					{ flowGph: 2600, headFt: 5.5 },
+					{ flowGph: 3000, headFt: 0 }
+				],
+				watts: 230,
+				priceCents: 52000,
+				costCents: 29000
+			},
+			{
+				id: 'pump-s4000',
+				name: 'Submersible pump S-4000',
+				curve: [
+					{ flowGph: 0, headFt: 26 },
+					{ flowGph: 1200, headFt: 22 },
+					{ flowGph: 2400, headFt: 16 },
+					{ flowGph: 4000, headFt: 6 },
+					{ flowGph: 4600, headFt: 0 }
+				],
+				watts: 360,
+				priceCents: 78000,
+				costCents: 44000
+			}
+		],
+		laborRates: [
+			{ id: 'installer', name: 'Installer', costPerHourCents: 3800, pricePerHourCents: 8500 }
+		],
+		settings: {
+			markupPercent: 10,
+			taxRatePercent: 7.25,
+			taxAppliesTo: 'materials',
+			depositPercent: 30,
+			electricityCentsPerKwh: 14,
+			evaporationInPerDay: 0.25,
+			dailyRunHours: 12,
+			seasonMonths: 7,
+			labor: { rateId: 'installer' }
+		}
+	};
+}

@@ -1,0 +1,234 @@
+/** Turns the part results into price-list lines, grouped by bucket (base, option, alternate). */
+import type { AggregateResult } from './aggregate';
+import type { BasinBudget } from './basin';
+import type { HydraulicsResult, PipeRun } from './hydraulics';
+import { BASE_BUCKET } from './labor';
+import type { LightingResult } from './lighting';
+import type { FittingKind, NominalSize, PipeMaterial } from './pipes';
+import {
+	priceLine,
+	quantityInUnit,
+	roundCents,
+	type PricedLine,
+	type TakeoffLine
+} from './pricing';
+import type { CatalogItem, ParsedCatalog, ParsedDesign, PumpModel } from './schema';
+import type { StonesResult } from './stones';
+import type { WallResult } from './walls';
+
+export interface TakeoffParts {
+	design: ParsedDesign;
+	hydraulics?: HydraulicsResult;
+	pump?: PumpModel;
+	basin?: BasinBudget;
+	stones: StonesResult;
+	aggregates: readonly AggregateResult[];
+	walls: readonly WallResult[];
+	lighting?: LightingResult;
+}
+
+interface PathedLine extends TakeoffLine {
+	path: string;
+}
+
+const bucketOf = (optionId?: string) => optionId ?? BASE_BUCKET;
+
+function pipeLines(
+	runs: { run: PipeRun; fittings: { kind: FittingKind; count: number }[]; label: string }[],
+	catalog: ParsedCatalog
+): { lines: PathedLine[]; warnings: string[] } {
+	const lines: PathedLine[] = [];
+	const warnings = new Set<string>();
+	const findPipe = (material: PipeMaterial, size: NominalSize) =>
+		catalog.items.find((i) => i.pipe?.material === material && i.pipe.size === size);
+	const findFitting = (kind: FittingKind, size: NominalSize) =>
+		catalog.items.find((i) => i.fitting?.kind === kind && i.fitting.size === size);
+	for (const { run, fittings, label } of runs) {
+		const pipe = findPipe(run.material, run.size);
+		if (pipe) {
+			lines.push({
+				bucket: BASE_BUCKET,
+				sku: pipe.sku,
+				description: label,
+				measure: { lengthM: run.lengthM },
+				path: label
+			});
+		} else {
+			warnings.add(`No price-list item for ${run.size} in ${run.material} pipe: not priced`);
+		}
+		for (const f of fittings.filter((x) => x.count > 0 && !['entrance', 'exit'].includes(x.kind))) {
+			const item = findFitting(f.kind, run.size);
+			if (item) {
+				lines.push({
+					bucket: BASE_BUCKET,
+					sku: item.sku,
+					description: label,
+					measure: { count: f.count },
+					path: label
+				});
+			} else {
+				warnings.add(`No price-list item for a ${run.size} in ${f.kind}: not priced`);
+			}
+		}
+	}
+	return { lines, warnings: [...warnings] };
+}
+
+function waterRuns(parts: TakeoffParts) {
+	const { design, hydraulics } = parts;
+	if (!hydraulics) return [];
+	const runs = hydraulics.branches.map((b, i) => {
+		const branch = design.branches[i];
+		const valve = branch.valve === 'none' ? [] : [{ kind: branch.valve, count: 1 }];
+		return {
+			run: b as PipeRun,
+			fittings: [...branch.fittings, ...valve],
+			label: `Branch to ${b.outletName}`
+		};
+	});
+	if (hydraulics.supply && design.supply) {
+		runs.push({
+			run: hydraulics.supply,
+			fittings: design.supply.fittings,
+			label: 'Supply to manifold'
+		});
+	}
+	return runs;
+}
+
+function partLines(parts: TakeoffParts): PathedLine[] {
+	const { design, basin, stones, aggregates, walls, lighting } = parts;
+	const lines: PathedLine[] = [];
+	const add = (
+		path: string,
+		bucket: string,
+		sku: string | undefined,
+		description: string,
+		measure: TakeoffLine['measure']
+	) => {
+		if (sku) lines.push({ path, bucket, sku, description, measure });
+	};
+	if (design.basin && basin) {
+		add('design.basin.sku', BASE_BUCKET, design.basin.sku, 'Basin', {
+			count: 1,
+			volumeM3: basin.grossVolumeM3
+		});
+		if (design.basin.fill.kind === 'gravel') {
+			add('design.basin.fill.sku', BASE_BUCKET, design.basin.fill.sku, 'Basin fill', {
+				volumeM3: basin.grossVolumeM3
+			});
+		}
+	}
+	stones.stones.forEach((s, i) => {
+		add(`design.stones.${i}.sku`, bucketOf(s.optionId), design.stones[i].sku, s.name, {
+			count: s.count,
+			massKg: s.totalWeightKg,
+			volumeM3: s.volumeM3 * s.count
+		});
+	});
+	aggregates.forEach((a, i) => {
+		add(`design.aggregates.${i}.sku`, bucketOf(a.optionId), a.sku, a.name, {
+			volumeM3: a.volumeM3,
+			areaM2: a.areaM2,
+			massKg: a.massKg
+		});
+	});
+	walls.forEach((w, i) => {
+		const input = design.walls[i];
+		const bucket = bucketOf(w.optionId);
+		add(`design.walls.${i}.unitSku`, bucket, input.unitSku, `${w.name} units`, { count: w.units });
+		add(`design.walls.${i}.capSku`, bucket, input.capSku, `${w.name} caps`, { count: w.caps });
+		add(`design.walls.${i}.padSku`, bucket, input.padSku, `${w.name} levelling pad`, {
+			volumeM3: w.padVolumeM3
+		});
+		add(`design.walls.${i}.drainSku`, bucket, input.drainSku, `${w.name} drainage stone`, {
+			volumeM3: w.drainVolumeM3
+		});
+	});
+	if (design.lighting && lighting) {
+		const bucket = bucketOf(design.lighting.optionId);
+		const placed = new Map<string, number>();
+		lighting.runs.forEach((r) =>
+			r.fixtures.forEach((f) => placed.set(f.fixtureId, (placed.get(f.fixtureId) ?? 0) + 1))
+		);
+		design.lighting.fixtures.forEach((f, i) => {
+			add(`design.lighting.fixtures.${i}.sku`, bucket, f.sku, f.name, {
+				count: placed.get(f.id) ?? 0
+			});
+		});
+		design.lighting.transformers.forEach((t, i) => {
+			add(`design.lighting.transformers.${i}.sku`, bucket, t.sku, t.name, { count: 1 });
+		});
+		lighting.runs.forEach((r, i) => {
+			add(
+				`design.lighting.runs.${i}.cableSku`,
+				bucket,
+				design.lighting!.runs[i].cableSku,
+				`Cable, run ${r.id}`,
+				{ lengthM: r.cableLengthM }
+			);
+		});
+	}
+	design.extraLines.forEach((l, i) => {
+		add(`design.extraLines.${i}.sku`, bucketOf(l.optionId), l.sku, 'Added line', {
+			direct: l.quantity
+		});
+	});
+	return lines;
+}
+
+export interface TakeoffResult {
+	lines: PricedLine[];
+	errors: { path: string; message: string }[];
+	warnings: string[];
+}
+
+function pumpLine(pump: PumpModel): PricedLine {
+	return {
+		bucket: BASE_BUCKET,
+		sku: `pump:${pump.id}`,
+		name: pump.name,
+		description: 'Pump',
+		unit: 'each',
+		quantity: 1,
+		unitPriceCents: pump.priceCents,
+		extendedCents: pump.priceCents,
+		costCents: roundCents(pump.costCents ?? 0),
+		taxable: true
+	};
+}
+
+/** Sums lines of one SKU within one bucket before rounding up to the purchase increment. */
+export function buildTakeoff(parts: TakeoffParts, catalog: ParsedCatalog): TakeoffResult {
+	const water = pipeLines(waterRuns(parts), catalog);
+	const all = [...water.lines, ...partLines(parts)];
+	const items = new Map<string, CatalogItem>(catalog.items.map((i) => [i.sku, i]));
+	const grouped = new Map<
+		string,
+		{ line: PathedLine; item: CatalogItem; quantity: number; descriptions: Set<string> }
+	>();
+	const errors: TakeoffResult['errors'] = [];
+	for (const line of all) {
+		const item = items.get(line.sku)!;
+		const quantity = quantityInUnit(line.measure, item);
+		if (quantity === undefined) {
+			errors.push({
+				path: line.path,
+				message: `"${item.sku}" is sold by ${item.unit}, which cannot price this part (add a bulk density, bag or load size, or pick another item)`
+			});
+			continue;
+		}
+		const key = `${line.bucket}\u0000${line.sku}`;
+		const group = grouped.get(key) ?? { line, item, quantity: 0, descriptions: new Set<string>() };
+		group.quantity += quantity;
+		group.descriptions.add(line.description);
+		grouped.set(key, group);
+	}
+	const lines = [...grouped.values()]
+		.filter((g) => g.quantity > 0)
+		.map((g) =>
+			priceLine({ ...g.line, description: [...g.descriptions].join('; ') }, g.item, g.quantity)
+		);
+	if (parts.pump) lines.unshift(pumpLine(parts.pump));
+	return { lines, errors, warnings: water.warnings };
+}
