@@ -361,8 +361,10 @@ export function dusk(glows: Glow[]): string {
 
 /** Wrap a scene into a full SVG document, optionally zoomed on a point. */
 export function svg(body: string, zoom?: { x: number; y: number; k: number }, extraDefs = ''): string {
+	// Keep the zoomed window inside the drawing, so no edge of the canvas shows.
+	const clamp = (v: number, half: number, max: number) => Math.min(max - half, Math.max(half, v));
 	const t = zoom
-		? `translate(${f(W / 2 - zoom.x * zoom.k)},${f(H / 2 - zoom.y * zoom.k)}) scale(${zoom.k})`
+		? `translate(${f(W / 2 - clamp(zoom.x, W / 2 / zoom.k, W) * zoom.k)},${f(H / 2 - clamp(zoom.y, H / 2 / zoom.k, H) * zoom.k)}) scale(${zoom.k})`
 		: '';
 	return `<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}" viewBox="0 0 ${W} ${H}">${defs(
 		`<linearGradient id="wallLight" x1="0" y1="0" x2="1" y2="1"><stop offset="0" stop-color="#fff" stop-opacity=".25"/><stop offset="1" stop-color="#000" stop-opacity=".2"/></linearGradient>

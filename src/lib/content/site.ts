@@ -83,3 +83,17 @@ export const nav: NavItem[] = [
 export function startHref(ref?: string): string {
 	return ref ? `/start?ref=${encodeURIComponent(ref)}` : '/start';
 }
+
+/** Paths no crawler should visit: the office, the API and every private homeowner link. */
+export const privatePaths = [
+	'/office',
+	'/api',
+	'/estimate',
+	'/visit',
+	'/change-order',
+	'/invoice',
+	'/pay',
+	'/sign-in',
+	'/reset',
+	'/invite'
+];
