@@ -267,9 +267,10 @@ export const settingsSchema = z.object({
 	aggregateWastePercent: percent.default(10),
 	lift: z
 		.object({
-			horizontalIn: positive.default(10),
-			originHeightIn: nonNegative.default(30),
-			travelIn: nonNegative.default(10),
+			// NIOSH 94-110 ideal geometry: hands 25 cm out, starting at 75 cm, moving 25 cm or less.
+			horizontalCm: positive.default(25),
+			originHeightCm: nonNegative.default(75),
+			travelCm: nonNegative.default(25),
 			asymmetryDeg: nonNegative.default(0),
 			frequencyMultiplier: z.number().min(0).max(1).default(1),
 			couplingMultiplier: z.number().min(0).max(1).default(1)

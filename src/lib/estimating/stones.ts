@@ -104,12 +104,11 @@ export function asymmetricMultiplier(degrees: number): number {
 
 /** NIOSH recommended weight limit for one person, kg, from the lift geometry in the settings. */
 export function recommendedWeightLimitKg(lift: Settings['lift']): number {
-	const cm = (inchesValue: number) => inches(inchesValue) * 100;
 	return (
 		NIOSH_LOAD_CONSTANT_KG *
-		horizontalMultiplier(cm(lift.horizontalIn)) *
-		verticalMultiplier(cm(lift.originHeightIn)) *
-		distanceMultiplier(cm(lift.travelIn)) *
+		horizontalMultiplier(lift.horizontalCm) *
+		verticalMultiplier(lift.originHeightCm) *
+		distanceMultiplier(lift.travelCm) *
 		asymmetricMultiplier(lift.asymmetryDeg) *
 		lift.frequencyMultiplier *
 		lift.couplingMultiplier

@@ -1,0 +1,175 @@
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { shoelaceArea } from './aggregate';
+import { settingsSchema, type Stone } from './schema';
+import {
+	NIOSH_LOAD_CONSTANT_KG,
+	NIOSH_LOAD_CONSTANT_LB,
+	ROCK_TYPES,
+	analyseStones,
+	asymmetricMultiplier,
+	distanceMultiplier,
+	handlingPlan,
+	horizontalMultiplier,
+	recommendedWeightLimitKg,
+	rockDensityKgM3,
+	stoneGeometry,
+	verticalMultiplier
+} from './stones';
+import { KILOGRAMS_PER_POUND, fromSI, inches } from './units';
+
+const settings = settingsSchema.parse({});
+
+describe('rock densities (A. Alden, "Densities of Common Rock Types", About.com Geology)', () => {
+	it('basalt 2.8–3.0 g/cm³ and granite 2.6–2.7 g/cm³', () => {
+		expect(rockDensityKgM3('basalt')).toBeGreaterThanOrEqual(2800);
+		expect(rockDensityKgM3('basalt')).toBeLessThanOrEqual(3000);
+		expect(rockDensityKgM3('granite')).toBeGreaterThanOrEqual(2600);
+		expect(rockDensityKgM3('granite')).toBeLessThanOrEqual(2700);
+	});
+
+	it('every rock in the table falls between coal and peridotite (1.1 to 3.4 g/cm³ in the same table)', () => {
+		for (const rock of ROCK_TYPES) {
+			expect(rockDensityKgM3(rock)).toBeGreaterThan(1100);
+			expect(rockDensityKgM3(rock)).toBeLessThan(3400);
+		}
+	});
+});
+
+describe('stone geometry', () => {
+	it('hexagonal column area (√3/2)F² agrees with the shoelace area of its six corners', () => {
+		const f = 12;
+		const r = f / Math.sqrt(3);
+		const corners = Array.from(
+			{ length: 6 },
+			(_, i) =>
+				[r * Math.cos((i * Math.PI) / 3), r * Math.sin((i * Math.PI) / 3)] as [number, number]
+		);
+		const g = stoneGeometry({ shape: 'column-hex', acrossFlatsIn: f, heightIn: 10 });
+		expect(g.topM2).toBeCloseTo(shoelaceArea(corners) * inches(1) ** 2, 12);
+	});
+
+	it('a boulder is an ellipsoid: V = (4/3)πabc; for a sphere the surface is 4πr²', () => {
+		const sphere = stoneGeometry({ shape: 'boulder', lengthIn: 20, widthIn: 20, heightIn: 20 });
+		const r = inches(10);
+		expect(sphere.volumeM3).toBeCloseTo((4 / 3) * Math.PI * r ** 3, 12);
+		expect(sphere.surfaceM2).toBeCloseTo(4 * Math.PI * r ** 2, 12);
+	});
+
+	it('a 12 in cube of granite (2.65 g/cm³) weighs 75.0 kg = 165.4 lb', () => {
+		const stone: Stone = {
+			id: 'c',
+			name: 'Cube',
+			size: { shape: 'column-square', sideIn: 12, heightIn: 12 },
+			rock: 'granite',
+			count: 1,
+			wetted: false
+		};
+		const result = analyseStones([stone], settings).stones[0];
+		expect(result.weightKg).toBeCloseTo(2650 * 0.3048 ** 3, 6);
+		expect(result.weightKg / KILOGRAMS_PER_POUND).toBeCloseTo(165.4, 1);
+	});
+
+	it('slabs and rectangular columns are boxes', () => {
+		const slab = stoneGeometry({ shape: 'slab', lengthIn: 36, widthIn: 24, thicknessIn: 2 });
+		expect(fromSI(slab.volumeM3, 'volume', 'in3')).toBeCloseTo(1728, 6);
+		const rect = stoneGeometry({ shape: 'column-rect', lengthIn: 10, widthIn: 8, heightIn: 30 });
+		expect(fromSI(rect.volumeM3, 'volume', 'in3')).toBeCloseTo(2400, 6);
+	});
+});
+
+describe('NIOSH Revised Lifting Equation (NIOSH publication 94-110)', () => {
+	it('load constant 23 kg, and 51 lb in the US form (23 kg ≈ 50.7 lb)', () => {
+		expect(NIOSH_LOAD_CONSTANT_KG).toBe(23);
+		expect(NIOSH_LOAD_CONSTANT_LB).toBe(51);
+		expect(NIOSH_LOAD_CONSTANT_KG / KILOGRAMS_PER_POUND).toBeCloseTo(NIOSH_LOAD_CONSTANT_LB, 0);
+	});
+
+	it('HM = 25/H (cm): 1 at 25 cm, 0.5 at 50 cm, 0 beyond 63 cm', () => {
+		expect(horizontalMultiplier(25)).toBe(1);
+		expect(horizontalMultiplier(50)).toBeCloseTo(0.5, 12);
+		expect(horizontalMultiplier(64)).toBe(0);
+	});
+
+	it('VM = 1 − 0.003|V − 75|: 1 at knuckle height 75 cm, 0.775 from the floor', () => {
+		expect(verticalMultiplier(75)).toBe(1);
+		expect(verticalMultiplier(0)).toBeCloseTo(0.775, 12);
+	});
+
+	it('DM = 0.82 + 4.5/D: 1 at 25 cm, 0.865 at 100 cm; AM = 1 − 0.0032A: 0.712 at 90°', () => {
+		expect(distanceMultiplier(25)).toBeCloseTo(1, 12);
+		expect(distanceMultiplier(100)).toBeCloseTo(0.865, 12);
+		expect(asymmetricMultiplier(90)).toBeCloseTo(0.712, 12);
+	});
+
+	it('the US form, 51 lb × 10/H (in), agrees within 3% with the metric form at H = 20 in', () => {
+		const lift = { ...settings.lift, horizontalCm: 20 * 2.54 };
+		const usFormLb = 51 * (10 / 20);
+		const metricLb = recommendedWeightLimitKg(lift) / KILOGRAMS_PER_POUND;
+		expect(Math.abs(metricLb - usFormLb) / usFormLb).toBeLessThan(0.03);
+	});
+
+	it('under ideal conditions one person may lift the load constant; a poor lift much less', () => {
+		expect(recommendedWeightLimitKg(settings.lift)).toBe(23);
+		const poor = { ...settings.lift, horizontalCm: 50, originHeightCm: 0, travelCm: 100 };
+		expect(recommendedWeightLimitKg(poor)).toBeCloseTo(23 * 0.5 * 0.775 * 0.865, 12);
+	});
+});
+
+describe('handling plan', () => {
+	it('one person, then a team sized at two-thirds efficiency, then machines', () => {
+		expect(handlingPlan(20, settings)).toEqual({ method: 'one-person', people: 1 });
+		expect(handlingPlan(40, settings)).toEqual({ method: 'team-lift', people: 3 });
+		expect(handlingPlan(150, settings).method).toBe('cart');
+		expect(handlingPlan(300, settings).method).toBe('hoist');
+		expect(handlingPlan(600, settings).method).toBe('compact-loader');
+		expect(handlingPlan(800, settings).method).toBe('larger-machine');
+	});
+
+	it('property: a heavier stone never needs fewer people (fast-check, over weights and settings)', () => {
+		fc.assert(
+			fc.property(
+				fc.double({ min: 0, max: 2000, noNaN: true }),
+				fc.double({ min: 0, max: 2000, noNaN: true }),
+				fc.integer({ min: 2, max: 8 }),
+				fc.double({ min: 20, max: 400, noNaN: true }),
+				fc.double({ min: 10, max: 80, noNaN: true }),
+				(a, b, maxTeamSize, teamLiftLimitLb, horizontalCm) => {
+					const s = {
+						...settings,
+						maxTeamSize,
+						teamLiftLimitLb,
+						lift: { ...settings.lift, horizontalCm }
+					};
+					const [light, heavy] = a <= b ? [a, b] : [b, a];
+					expect(handlingPlan(heavy, s).people).toBeGreaterThanOrEqual(
+						handlingPlan(light, s).people
+					);
+				}
+			)
+		);
+	});
+
+	it('the crew is the heaviest stone’s, and stones past the loader get a warning', () => {
+		const big: Stone = {
+			id: 'b',
+			name: 'Big boulder',
+			size: { shape: 'boulder', lengthIn: 48, widthIn: 36, heightIn: 30 },
+			rock: 'granite',
+			count: 1,
+			wetted: false
+		};
+		const small: Stone = {
+			id: 's',
+			name: 'Pebble',
+			size: { shape: 'boulder', lengthIn: 4, widthIn: 3, heightIn: 3 },
+			rock: 'granite',
+			count: 2,
+			wetted: false
+		};
+		const r = analyseStones([small, big], settings);
+		expect(r.crewNeeded).toBe(r.stones[1].handling.people);
+		expect(r.warnings[0]).toMatch(/Big boulder/);
+		expect(r.totalWeightKg).toBeCloseTo(r.stones[0].weightKg * 2 + r.stones[1].weightKg, 9);
+	});
+});

@@ -1,0 +1,80 @@
+import { describe, expect, it } from 'vitest';
+import { settingsSchema, type Wall } from './schema';
+import { buriedCourses, wallTakeoff } from './walls';
+import { fromSI, toInches } from './units';
+
+const settings = settingsSchema.parse({});
+
+const wall = (overrides: Partial<Wall> = {}): Wall => ({
+	id: 'w',
+	name: 'Wall',
+	purpose: 'retaining',
+	lengthFt: 40,
+	exposedHeightIn: 18,
+	unit: { lengthIn: 16, heightIn: 6, depthIn: 12 },
+	unitSku: 'U',
+	capSku: 'C',
+	capLengthIn: 16,
+	surcharge: false,
+	...overrides
+});
+
+describe('courses and units (common practice, no source: bury 6 in or H/8, at least one course)', () => {
+	it('an 18 in wall of 6 in units buries one course and stands four courses high', () => {
+		expect(buriedCourses(18, 6)).toBe(1);
+		const r = wallTakeoff(wall(), settings);
+		expect(r.courses).toBe(4);
+		expect(r.unitsPerCourse).toBe(30);
+		// 4 × 30 = 120 units, plus 5% waste = 126.
+		expect(r.units).toBe(126);
+		expect(r.caps).toBe(30);
+	});
+
+	it('a 64 in wall buries 8 in, two 6 in courses', () => {
+		expect(buriedCourses(64, 6)).toBe(2);
+	});
+
+	it('a seat wall buries nothing and needs no drainage stone', () => {
+		const r = wallTakeoff(wall({ purpose: 'seat' }), settings);
+		expect(r.buriedCourses).toBe(0);
+		expect(r.drainVolumeM3).toBe(0);
+	});
+});
+
+describe('base and drainage', () => {
+	it('levelling pad: 40 ft × (12 + 12 in) × 6 in = 40 ft³', () => {
+		expect(fromSI(wallTakeoff(wall(), settings).padVolumeM3, 'volume', 'ft3')).toBeCloseTo(40, 9);
+	});
+
+	it('drainage stone: 12 in deep behind the full built height, 40 ft × 1 ft × 2 ft = 80 ft³', () => {
+		expect(fromSI(wallTakeoff(wall(), settings).drainVolumeM3, 'volume', 'ft3')).toBeCloseTo(80, 9);
+	});
+});
+
+describe('permit and engineering thresholds', () => {
+	it('IRC R105.2: over 4 ft from the bottom of the footing needs a permit', () => {
+		// 42 in exposed: 1 buried course + 7 courses = 48 in of units + 6 in pad = 54 in.
+		const r = wallTakeoff(wall({ exposedHeightIn: 42 }), settings);
+		expect(toInches(r.heightFromFootingM)).toBeCloseTo(54, 9);
+		expect(r.needsPermit).toBe(true);
+		expect(r.needsEngineering).toBe(false);
+	});
+
+	it('IRC R404.4: over 48 in of unbalanced fill needs an engineered design', () => {
+		expect(wallTakeoff(wall({ exposedHeightIn: 48 }), settings).needsEngineering).toBe(false);
+		expect(wallTakeoff(wall({ exposedHeightIn: 50 }), settings).needsEngineering).toBe(true);
+	});
+
+	it('IRC R404.4: over 24 in with a surcharge needs a design; R105.2: a surcharge needs a permit', () => {
+		const r = wallTakeoff(wall({ exposedHeightIn: 30, surcharge: true }), settings);
+		expect(r.needsEngineering).toBe(true);
+		expect(r.needsPermit).toBe(true);
+	});
+
+	it('a low wall needs neither, and a seat wall is not a retaining wall', () => {
+		const low = wallTakeoff(wall(), settings);
+		expect(low.needsPermit || low.needsEngineering).toBe(false);
+		const seat = wallTakeoff(wall({ purpose: 'seat', exposedHeightIn: 60 }), settings);
+		expect(seat.needsPermit || seat.needsEngineering).toBe(false);
+	});
+});
