@@ -61,7 +61,7 @@ describe('daily loss and top-ups', () => {
 
 	it('days between top-ups = reserve / daily loss, and a warning under the minimum', () => {
 		const b = budget(rect({ fill: { kind: 'gravel', voidFraction: 0.35 } }), {
-			flowM3s: gph(3000)
+			flowM3s: gph(6000)
 		});
 		expect(b.daysBetweenTopUps!).toBeCloseTo(b.usableReserveM3 / b.dailyLossM3, 12);
 		expect(b.daysBetweenTopUps!).toBeLessThan(3);
