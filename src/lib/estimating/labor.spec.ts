@@ -1,0 +1,129 @@
+import { describe, expect, it } from 'vitest';
+import { laborSummary, laborTasks, type LaborParts } from './labor';
+import { settingsSchema } from './schema';
+import type { StoneResult } from './stones';
+import { toSI } from './units';
+
+const settings = settingsSchema.parse({});
+
+const stone = (
+	name: string,
+	method: StoneResult['handling']['method'],
+	people: number,
+	count = 1,
+	optionId?: string
+): StoneResult => ({
+	id: name,
+	name,
+	count,
+	rock: 'basalt',
+	densityKgM3: 2900,
+	volumeM3: 0.01,
+	weightKg: 29,
+	totalWeightKg: 29 * count,
+	surfaceM2: 0.3,
+	topM2: 0.05,
+	wetted: false,
+	handling: { method, people },
+	optionId
+});
+
+const parts = (overrides: Partial<LaborParts> = {}): LaborParts => ({
+	hasBasin: true,
+	outletCount: 3,
+	stones: [],
+	aggregates: [],
+	walls: [],
+	extra: [],
+	...overrides
+});
+
+describe('task hours from the settings', () => {
+	it('basin, outlets plumbed, and stones by handling method', () => {
+		const tasks = laborTasks(
+			parts({ stones: [stone('Column', 'hoist', 4), stone('Accent', 'team-lift', 2, 4)] }),
+			settings
+		);
+		const hours = Object.fromEntries(tasks.map((t) => [t.task, t.hours]));
+		expect(hours['Dig and set basin']).toBe(settings.labor.basinHours);
+		expect(hours['Plumb outlets']).toBe(3 * settings.labor.outletHours);
+		expect(hours['Set Column (hoist)']).toBe(settings.labor.stoneHours.hoist);
+		expect(hours['Set Accent (team-lift)']).toBe(4 * settings.labor.stoneHours['team-lift']);
+	});
+
+	it('topping by square foot and walls by unit, each in its own bucket', () => {
+		const tasks = laborTasks(
+			parts({
+				hasBasin: false,
+				outletCount: 0,
+				aggregates: [
+					{
+						id: 'a',
+						name: 'Pebble',
+						sku: 'P',
+						areaM2: toSI(100, 'area', 'ft2'),
+						depthM: 0.05,
+						netVolumeM3: 0.5,
+						wastePercent: 0,
+						volumeM3: 0.5,
+						optionId: 'alt-a'
+					}
+				],
+				walls: [
+					{
+						id: 'w',
+						name: 'Wall',
+						purpose: 'seat',
+						buriedCourses: 0,
+						courses: 3,
+						unitsPerCourse: 10,
+						units: 30,
+						caps: 10,
+						heightFromFootingM: 0.5,
+						exposedHeightM: 0.4,
+						padVolumeM3: 0.1,
+						drainVolumeM3: 0,
+						needsPermit: false,
+						needsEngineering: false,
+						optionId: 'wall'
+					}
+				]
+			}),
+			settings
+		);
+		expect(tasks).toEqual([
+			{
+				bucket: 'alt-a',
+				task: 'Spread Pebble',
+				hours: expect.closeTo(100 * settings.labor.toppingHoursPerFt2, 9)
+			},
+			{
+				bucket: 'wall',
+				task: 'Build Wall',
+				hours: expect.closeTo(30 * settings.labor.wallHoursPerUnit, 9)
+			}
+		]);
+	});
+});
+
+describe('crew and days', () => {
+	it('crew is the larger of the base crew and the heaviest stone’s; days round up to half days', () => {
+		const tasks = laborTasks(parts({ stones: [stone('Column', 'hoist', 4)] }), settings);
+		const summary = laborSummary(tasks, new Set(['base']), 4, settings);
+		expect(summary.crewSize).toBe(4);
+		// 6 + 4.5 + 2 = 12.5 h over 4 people × 8 h = 0.39 day → half a day.
+		expect(summary.totalHours).toBeCloseTo(12.5, 9);
+		expect(summary.installDays).toBe(0.5);
+	});
+
+	it('excluded options add no hours', () => {
+		const tasks = laborTasks(parts({ stones: [stone('Extra', 'cart', 4, 10, 'opt')] }), settings);
+		const without = laborSummary(tasks, new Set(['base']), 0, settings);
+		const withOption = laborSummary(tasks, new Set(['base', 'opt']), 0, settings);
+		expect(withOption.totalHours - without.totalHours).toBeCloseTo(
+			10 * settings.labor.stoneHours.cart,
+			9
+		);
+		expect(without.crewSize).toBe(settings.labor.baseCrewSize);
+	});
+});
