@@ -98,5 +98,5 @@ export function basinBudget(inputs: BasinInputs): BasinBudget {
 		daysBetweenTopUps: dailyLossM3 > 0 ? usableReserveM3 / dailyLossM3 : null,
 		openWaterDepthM: basin.fill.kind === 'open' ? runningDepthM : 0
 	};
-	return { ...budget, warnings: budgetWarnings(budget, settings) };
+	return Object.assign(budget, { warnings: budgetWarnings(budget, settings) });
 }

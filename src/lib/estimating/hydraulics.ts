@@ -182,8 +182,7 @@ function branchResult(
 	const outletHeadM = demand.outletHeadM + exitLoss;
 	const tooSmall = exceeds(run, limits);
 	const advice = tooSmall ? sizeAdvice(run, limits, units) : undefined;
-	return {
-		...run,
+	return Object.assign(run, {
 		branchId: branch.id,
 		outletId: demand.id,
 		outletName: demand.name,
@@ -197,7 +196,7 @@ function branchResult(
 		tooSmall,
 		advice: advice?.advice,
 		suggestedSize: advice?.suggested
-	};
+	});
 }
 
 function withThrottling(branches: BranchResult[]): BranchResult[] {
@@ -205,16 +204,13 @@ function withThrottling(branches: BranchResult[]): BranchResult[] {
 		(worst, b) => (!worst || b.headM > worst.headM ? b : worst),
 		undefined
 	);
-	return branches.map((b) => {
-		const throttleHeadM = hardest ? hardest.headM - b.headM : 0;
+	for (const b of branches) {
 		const hv = velocityHead(b.velocityMs);
-		return {
-			...b,
-			hardest: b === hardest,
-			throttleHeadM,
-			throttleK: hv > 0 ? throttleHeadM / hv : 0
-		};
-	});
+		b.hardest = b === hardest;
+		b.throttleHeadM = hardest ? hardest.headM - b.headM : 0;
+		b.throttleK = hv > 0 ? b.throttleHeadM / hv : 0;
+	}
+	return branches;
 }
 
 function systemCoefficients(

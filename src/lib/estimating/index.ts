@@ -81,19 +81,19 @@ function parse(design: unknown, catalog: unknown) {
 	return cross.length ? { errors: cross } : { design: d.data, catalog: c.data, errors: [] };
 }
 
-/** Finds the first number that is not finite, with its path, so none ever reaches a caller. */
-function firstNonFinite(value: unknown, path: string): string | undefined {
-	if (typeof value === 'number') return Number.isFinite(value) ? undefined : path;
-	if (Array.isArray(value)) {
-		for (let i = 0; i < value.length; i++) {
-			const found = firstNonFinite(value[i], `${path}.${i}`);
-			if (found) return found;
-		}
-	} else if (value && typeof value === 'object') {
-		for (const [key, inner] of Object.entries(value)) {
-			const found = firstNonFinite(inner, `${path}.${key}`);
-			if (found) return found;
-		}
+/** The path to the first number that is not finite, so none ever reaches a caller. */
+function firstNonFinite(value: unknown, path: string[] = []): string | undefined {
+	if (typeof value === 'number') return Number.isFinite(value) ? undefined : path.join('.');
+	if (value === null || typeof value !== 'object') return undefined;
+	const record = value as Record<string, unknown>;
+	for (const key in record) {
+		const inner = record[key];
+		if (typeof inner === 'number' && Number.isFinite(inner)) continue;
+		if (inner === null || (typeof inner !== 'number' && typeof inner !== 'object')) continue;
+		path.push(key);
+		const found = firstNonFinite(inner, path);
+		path.pop();
+		if (found) return found;
 	}
 	return undefined;
 }
@@ -116,7 +116,7 @@ function water(design: ParsedDesign, catalog: ParsedCatalog, units: UnitSystem) 
 		settings,
 		design.pumpModelId
 	);
-	return { ...hydraulics, pump };
+	return Object.assign(hydraulics, { pump });
 }
 
 type PartResults = Omit<EstimateSuccess, 'quantities' | 'ok' | 'cautions'>;
@@ -227,7 +227,11 @@ function compute(design: ParsedDesign, catalog: ParsedCatalog, units: UnitSystem
 		warnings
 	};
 	const cautions = cautionsFor(cautionFacts(partial, design, settings.openWaterDepthIn));
-	return { ok: true, ...partial, quantities: quantities(partial, units), cautions };
+	return Object.assign(partial, {
+		ok: true as const,
+		quantities: quantities(partial, units),
+		cautions
+	});
 }
 
 export function estimate(
@@ -240,7 +244,7 @@ export function estimate(
 		const parsed = parse(design, catalog);
 		if (!parsed.design || !parsed.catalog) return { ok: false, errors: parsed.errors };
 		const result = compute(parsed.design, parsed.catalog, units);
-		const bad = result.ok ? firstNonFinite(result, 'result') : undefined;
+		const bad = result.ok ? firstNonFinite(result, ['result']) : undefined;
 		if (bad)
 			return {
 				ok: false,

@@ -84,10 +84,20 @@ export function fixtureVoltages(
 	let volts = tapV;
 	let position = 0;
 	return sorted.map((fixture) => {
-		volts -= voltageDrop(remainingVA / nominalV, fixture.distanceM - position, gauge);
+		// The linear model would go below zero on a hopelessly overloaded run; stop at 0 V.
+		volts = Math.max(
+			0,
+			volts - voltageDrop(remainingVA / nominalV, fixture.distanceM - position, gauge)
+		);
 		position = fixture.distanceM;
 		remainingVA -= fixture.va;
-		return { ...fixture, volts };
+		return {
+			fixtureId: fixture.fixtureId,
+			name: fixture.name,
+			distanceM: fixture.distanceM,
+			va: fixture.va,
+			volts
+		};
 	});
 }
 

@@ -55,32 +55,28 @@ export function bubblerFlowM3s(bubbleHeightM: number, boreDiameterM: number): nu
 }
 
 export function outletDemand(outlet: OutletInput): OutletDemand {
-	const base = { id: outlet.id, name: outlet.name, kind: outlet.kind };
+	const demand = (flowM3s: number, outletHeadM: number, losesPipeVelocityHead: boolean) => ({
+		id: outlet.id,
+		name: outlet.name,
+		kind: outlet.kind,
+		flowM3s,
+		outletHeadM,
+		losesPipeVelocityHead
+	});
 	if (outlet.kind === 'bubbler') {
 		const heightM = inches(outlet.bubbleHeightIn);
-		return {
-			...base,
-			flowM3s: bubblerFlowM3s(heightM, inches(outlet.boreIn)),
-			outletHeadM: heightM,
-			losesPipeVelocityHead: false
-		};
+		return demand(bubblerFlowM3s(heightM, inches(outlet.boreIn)), heightM, false);
 	}
 	if (outlet.kind === 'spout') {
 		const flowM3s = gph(outlet.flowGph);
 		const jetVelocity = flowM3s / boreArea(inches(outlet.nozzleIn));
-		return {
-			...base,
-			flowM3s,
-			outletHeadM: velocityHead(jetVelocity),
-			losesPipeVelocityHead: false
-		};
+		return demand(flowM3s, velocityHead(jetVelocity), false);
 	}
 	const headM = inches(SPILLWAY_HEAD_IN[outlet.sheet]);
-	return {
-		...base,
-		flowM3s: gph(SPILLWAY_GPH_PER_INCH[outlet.sheet] * outlet.widthIn),
-		outletHeadM: headM,
-		losesPipeVelocityHead: true,
-		francisFlowM3s: francisWeirFlowM3s(inches(outlet.widthIn), headM)
-	};
+	return Object.assign(
+		demand(gph(SPILLWAY_GPH_PER_INCH[outlet.sheet] * outlet.widthIn), headM, true),
+		{
+			francisFlowM3s: francisWeirFlowM3s(inches(outlet.widthIn), headM)
+		}
+	);
 }

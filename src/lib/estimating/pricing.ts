@@ -218,19 +218,26 @@ export function priceSummary(
 			settings
 		);
 	const base = totalsFor(BASE_BUCKET);
-	const options = design.options.map((o) => ({ ...o, totals: totalsFor(o.id) }));
+	const options = design.options.map((o) => ({
+		id: o.id,
+		name: o.name,
+		selected: o.selected,
+		totals: totalsFor(o.id)
+	}));
 	const alternates = design.alternates.map((group) => {
 		const priced = group.choices.map((c) => ({
-			...c,
+			id: c.id,
+			name: c.name,
 			selected: c.id === group.selectedChoiceId,
-			totals: totalsFor(c.id)
+			totals: totalsFor(c.id),
+			deltaCents: 0
 		}));
 		const chosen = priced.find((c) => c.selected)?.totals.totalCents ?? 0;
 		return {
 			id: group.id,
 			name: group.name,
 			selectedChoiceId: group.selectedChoiceId,
-			choices: priced.map((c) => ({ ...c, deltaCents: c.totals.totalCents - chosen }))
+			choices: priced.map((c) => Object.assign(c, { deltaCents: c.totals.totalCents - chosen }))
 		};
 	});
 	const included = [

@@ -151,7 +151,7 @@ export function handlingPlan(weightKg: number, settings: Settings): HandlingPlan
 			? Math.min(lb(settings.teamLiftLimitLb), settings.maxTeamSize * perPerson * efficiency)
 			: 0;
 	if (perPerson > 0 && weightKg <= perPerson) return { method: 'one-person', people: 1 };
-	if (weightKg <= teamCapacity) {
+	if (perPerson > 0 && weightKg <= teamCapacity) {
 		return { method: 'team-lift', people: teamPeople(weightKg, perPerson, efficiency) };
 	}
 	const largestTeam = teamCapacity > 0 ? teamPeople(teamCapacity, perPerson, efficiency) : 2;

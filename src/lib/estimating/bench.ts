@@ -1,0 +1,99 @@
+/**
+ * Benchmark (not a test): median time of a full estimate for the three-outlet demo and for a
+ * twelve-outlet design with lighting and a wall. Goal: under 1 ms for twelve outlets.
+ * Run: npx tsx src/lib/estimating/bench.ts
+ */
+import { demoCatalog, demoDesign, estimate, type Design } from './index';
+
+export function twelveOutletDesign(): Design {
+	const base = demoDesign();
+	const outlets = Array.from({ length: 12 }, (_, i) => ({
+		id: `col-${i}`,
+		name: `Column ${i + 1}`,
+		kind: 'bubbler' as const,
+		bubbleHeightIn: 2 + (i % 3),
+		boreIn: 0.824
+	}));
+	const branches = outlets.map((o, i) => ({
+		id: `b-${i}`,
+		outletId: o.id,
+		pipe: { material: 'pvc-sch40' as const, size: i % 4 === 0 ? ('1' as const) : ('3/4' as const) },
+		lengthFt: 8 + i,
+		staticLiftFt: 2 + (i % 4),
+		fittings: [
+			{ kind: 'tee-branch' as const, count: 1 },
+			{ kind: 'elbow-90' as const, count: 2 }
+		],
+		valve: 'ball-valve' as const
+	}));
+	const fixtures = Array.from({ length: 10 }, (_, i) => ({
+		id: `fx-${i}`,
+		name: `Light ${i + 1}`,
+		va: 4 + (i % 3)
+	}));
+	return {
+		...base,
+		outlets,
+		branches,
+		supply: {
+			pipe: { material: 'pvc-sch40', size: '2' },
+			lengthFt: 10,
+			fittings: [{ kind: 'elbow-90', count: 2 }]
+		},
+		stones: outlets.map((o, i) => ({
+			id: `st-${i}`,
+			name: `Column stone ${i + 1}`,
+			size: { shape: 'column-hex' as const, acrossFlatsIn: 10, heightIn: 24 + 6 * (i % 4) },
+			rock: 'basalt' as const,
+			wetted: true,
+			sku: 'STONE-BASALT-COL'
+		})),
+		lighting: {
+			fixtures,
+			transformers: [
+				{ id: 'tx-1', name: '300 VA transformer', ratingVA: 300, tapsV: [12, 13, 14, 15] }
+			],
+			runs: [0, 1].map((r) => ({
+				id: `run-${r}`,
+				transformerId: 'tx-1',
+				tapV: 13,
+				gauge: '12' as const,
+				fixtures: fixtures
+					.slice(r * 5, r * 5 + 5)
+					.map((f, i) => ({ fixtureId: f.id, distanceFt: 20 + 12 * i }))
+			}))
+		},
+		walls: base.walls!.map((w) => ({ ...w, optionId: undefined, lengthFt: 30 })),
+		options: []
+	};
+}
+
+function medianMs(run: () => void, iterations: number): number {
+	for (let i = 0; i < 200; i++) run();
+	const times: number[] = [];
+	for (let i = 0; i < iterations; i++) {
+		const start = performance.now();
+		run();
+		times.push(performance.now() - start);
+	}
+	times.sort((a, b) => a - b);
+	return times[Math.floor(times.length / 2)];
+}
+
+function bench(label: string, design: Design) {
+	const catalog = demoCatalog();
+	const check = estimate(design, catalog);
+	if (!check.ok) throw new Error(`${label}: ${JSON.stringify(check.errors)}`);
+	const ms = medianMs(() => estimate(design, catalog), 2000);
+	console.log(`${label}: median ${ms.toFixed(3)} ms per full estimate`);
+	return ms;
+}
+
+const isMain = typeof process !== 'undefined' && process.argv[1]?.endsWith('bench.ts');
+if (isMain) {
+	bench('3 outlets (demo)', demoDesign());
+	const twelve = bench('12 outlets, lighting and a wall', twelveOutletDesign());
+	console.log(
+		twelve < 1 ? 'Goal met: under 1 ms for twelve outlets' : 'Goal missed: 1 ms for twelve outlets'
+	);
+}
