@@ -38,10 +38,12 @@ export interface BasinBudget {
 export function basinPlan(basin: Basin): { areaM2: number; depthM: number } {
 	const size = basin.size;
 	const depthM = feet(size.depthFt);
-	if (size.shape === 'rectangle')
+	if (size.shape === 'rectangle') {
 		return { areaM2: feet(size.lengthFt) * feet(size.widthFt), depthM };
-	if (size.shape === 'circle')
+	}
+	if (size.shape === 'circle') {
 		return { areaM2: (Math.PI / 4) * feet(size.diameterFt) ** 2, depthM };
+	}
 	return { areaM2: toSI(size.gallons, 'volume', 'gal') / depthM, depthM };
 }
 

@@ -245,11 +245,12 @@ export function estimate(
 		if (!parsed.design || !parsed.catalog) return { ok: false, errors: parsed.errors };
 		const result = compute(parsed.design, parsed.catalog, units);
 		const bad = result.ok ? firstNonFinite(result, ['result']) : undefined;
-		if (bad)
+		if (bad) {
 			return {
 				ok: false,
 				errors: [{ path: bad, message: 'This value could not be computed from the inputs' }]
 			};
+		}
 		return result;
 	} catch (error) {
 		// A last guard so the builder never sees an exception; validation should make this unreachable.

@@ -45,8 +45,9 @@ function lightingTasks(lighting: LaborParts['lighting'], hours: Settings['labor'
 export function laborTasks(parts: LaborParts, settings: Settings): LaborTask[] {
 	const hours = settings.labor;
 	const tasks: LaborTask[] = [];
-	if (parts.hasBasin)
+	if (parts.hasBasin) {
 		tasks.push({ bucket: BASE_BUCKET, task: 'Dig and set basin', hours: hours.basinHours });
+	}
 	if (parts.outletCount > 0) {
 		tasks.push({
 			bucket: BASE_BUCKET,

@@ -175,8 +175,9 @@ describe('options, alternates, deposit', () => {
 						rate,
 						{ ...settings, markupPercent, taxRatePercent }
 					);
-					for (const v of Object.values(t))
+					for (const v of Object.values(t)) {
 						if (v !== t.laborHours) expect(Number.isInteger(v)).toBe(true);
+					}
 					expect(t.totalCents).toBe(t.materialsCents + t.laborCents + t.markupCents + t.taxCents);
 				}
 			)

@@ -78,8 +78,9 @@ describe('monotone interpolation (Fritsch–Carlson, SIAM J. Numer. Anal. 17(2),
 					const qMax = curve.points.at(-1)!.flowM3s;
 					const flows = ts.map((t) => t * qMax).sort((a, b) => a - b);
 					const heads = flows.map((q) => headAt(curve, q));
-					for (let i = 1; i < heads.length; i++)
+					for (let i = 1; i < heads.length; i++) {
 						expect(heads[i]).toBeLessThanOrEqual(heads[i - 1] + 1e-12);
+					}
 					for (const h of heads) {
 						expect(h).toBeLessThanOrEqual(curve.points[0].headM + 1e-12);
 						expect(h).toBeGreaterThanOrEqual(0);
@@ -178,8 +179,9 @@ describe('operating point', () => {
 					expect(Number.isFinite(op.flowM3s) && Number.isFinite(op.headM)).toBe(true);
 					expect(op.flowM3s).toBeGreaterThanOrEqual(0);
 					expect(toGph(op.flowM3s)).toBeLessThanOrEqual(2000 + 1e-6);
-					if (op.status === 'ok')
+					if (op.status === 'ok') {
 						expect(Math.abs(headAt(curve, op.flowM3s) - op.headM)).toBeLessThan(1e-6);
+					}
 				}
 			)
 		);
