@@ -120,6 +120,9 @@ describe('handling plan', () => {
 	it('one person, then a team sized at two-thirds efficiency, then machines', () => {
 		expect(handlingPlan(20, settings)).toEqual({ method: 'one-person', people: 1 });
 		expect(handlingPlan(40, settings)).toEqual({ method: 'team-lift', people: 3 });
+		// Each member counts for 23 × 2/3 = 15.3 kg: 30 kg takes two, 33 kg already three.
+		expect(handlingPlan(30, settings).people).toBe(2);
+		expect(handlingPlan(33, settings).people).toBe(3);
 		expect(handlingPlan(150, settings).method).toBe('cart');
 		expect(handlingPlan(300, settings).method).toBe('hoist');
 		expect(handlingPlan(600, settings).method).toBe('compact-loader');

@@ -30,8 +30,9 @@ describe('courses and units (common practice, no source: bury 6 in or H/8, at le
 		expect(r.caps).toBe(30);
 	});
 
-	it('a 64 in wall buries 8 in, two 6 in courses', () => {
+	it('a 64 in wall buries 8 in, two 6 in courses; a 12 in wall of 4 in units buries the 6 in minimum, two courses', () => {
 		expect(buriedCourses(64, 6)).toBe(2);
+		expect(buriedCourses(12, 4)).toBe(2);
 	});
 
 	it('a seat wall buries nothing and needs no drainage stone', () => {
