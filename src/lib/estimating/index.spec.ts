@@ -163,6 +163,15 @@ describe('bad designs give field-level errors, never NaN, Infinity or an excepti
 		expect(nothing.ok ? [] : nothing.errors.map((e) => e.path)).toEqual(['design', 'catalog']);
 	});
 
+	it('absurdly large numbers are refused before they can overflow', () => {
+		const design = demoDesign();
+		design.branches![0].lengthFt = 1e300;
+		expect(errorsOf(design)).toContainEqual({
+			path: 'design.branches.0.lengthFt',
+			message: 'Must be at most 1,000,000'
+		});
+	});
+
 	it('unknown SKUs, taps, fixtures, options and labor rates', () => {
 		const design = demoDesign();
 		design.stones![0].sku = 'NOPE';

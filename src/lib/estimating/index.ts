@@ -138,7 +138,12 @@ function quantities(result: PartResults, units: UnitSystem) {
 		add('stone-weight', 'Stone, total weight', 'mass', result.stones.totalWeightKg);
 		add('heaviest-stone', 'Heaviest stone', 'mass', result.stones.heaviestKg);
 	}
-	result.aggregates.forEach((a) => add(`aggregate-${a.id}`, a.name, 'bulkVolume', a.volumeM3));
+	result.aggregates.forEach((a) => {
+		add(`aggregate-${a.id}`, a.name, 'bulkVolume', a.volumeM3);
+		if (a.massKg !== undefined) {
+			add(`aggregate-${a.id}-weight`, `${a.name}, weight`, 'bulkMass', a.massKg);
+		}
+	});
 	result.walls.forEach((w) => {
 		add(`wall-${w.id}-pad`, `${w.name}, levelling pad`, 'bulkVolume', w.padVolumeM3);
 		add(`wall-${w.id}-drain`, `${w.name}, drainage stone`, 'bulkVolume', w.drainVolumeM3);

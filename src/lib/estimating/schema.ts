@@ -6,10 +6,17 @@ import { GAUGES } from './lighting';
 
 const id = z.string().min(1, 'Required');
 const name = z.string().min(1, 'Required');
-const positive = z.number().positive('Must be greater than zero');
-const nonNegative = z.number().nonnegative('Must not be negative');
+// An upper bound far past any garden keeps every formula finite.
+const LARGEST = 1e6;
+const tooLarge = `Must be at most ${LARGEST.toLocaleString('en-US')}`;
+const positive = z.number().positive('Must be greater than zero').max(LARGEST, tooLarge);
+const nonNegative = z.number().nonnegative('Must not be negative').max(LARGEST, tooLarge);
 const count = z.number().int('Must be a whole number').nonnegative('Must not be negative');
-const cents = z.number().int('Must be whole cents').nonnegative('Must not be negative');
+const cents = z
+	.number()
+	.int('Must be whole cents')
+	.nonnegative('Must not be negative')
+	.max(1e11, 'Must be at most $1,000,000,000');
 const percent = z.number().nonnegative('Must not be negative').max(100, 'At most 100%');
 const optionId = z.string().min(1).optional();
 
@@ -109,7 +116,8 @@ const stoneSchema = z.object({
 	optionId
 });
 
-const point = z.tuple([z.number(), z.number()]);
+const coordinate = z.number().min(-LARGEST, tooLarge).max(LARGEST, tooLarge);
+const point = z.tuple([coordinate, coordinate]);
 export const areaSchema = z.discriminatedUnion('shape', [
 	z.object({ shape: z.literal('rectangle'), lengthFt: positive, widthFt: positive }),
 	z.object({ shape: z.literal('circle'), diameterFt: positive }),
