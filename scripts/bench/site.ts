@@ -15,7 +15,10 @@ import { fileURLToPath } from 'node:url';
 import * as chromeLauncher from 'chrome-launcher';
 import lighthouse from 'lighthouse';
 
-const base = (process.argv[2] ?? process.env.BASE_URL ?? 'http://127.0.0.1:3300').replace(/\/$/, '');
+const base = (process.argv[2] ?? process.env.BASE_URL ?? 'http://127.0.0.1:3300').replace(
+	/\/$/,
+	''
+);
 const pages = [
 	{ name: 'home', path: '/' },
 	{ name: 'work index', path: '/work' },
@@ -65,12 +68,25 @@ try {
 		if (!result) throw new Error(`Lighthouse returned nothing for ${url}`);
 		const lhr = result.lhr;
 		const score = (id: string) => Math.round((lhr.categories[id]?.score ?? 0) * 100);
-		const items = (lhr.audits['resource-summary']?.details as { items?: { resourceType: string; transferSize: number }[] })?.items ?? [];
-		const size = (type: string) => (items.find((i) => i.resourceType === type)?.transferSize ?? 0) / 1024;
+		const items =
+			(
+				lhr.audits['resource-summary']?.details as {
+					items?: { resourceType: string; transferSize: number }[];
+				}
+			)?.items ?? [];
+		const size = (type: string) =>
+			(items.find((i) => i.resourceType === type)?.transferSize ?? 0) / 1024;
 		const failing = Object.values(lhr.categories)
 			.flatMap((c) => c.auditRefs)
 			.map((ref) => lhr.audits[ref.id])
-			.filter((a) => a && a.score !== null && a.score < 0.9 && a.scoreDisplayMode !== 'informative' && a.scoreDisplayMode !== 'notApplicable')
+			.filter(
+				(a) =>
+					a &&
+					a.score !== null &&
+					a.score < 0.9 &&
+					a.scoreDisplayMode !== 'informative' &&
+					a.scoreDisplayMode !== 'notApplicable'
+			)
 			.map((a) => a.id);
 		rows.push({
 			page: p.name,
@@ -90,13 +106,23 @@ try {
 	chrome.kill();
 }
 
-console.table(
-	rows.map(({ failing: _f, url: _u, ...r }) => r)
-);
-for (const r of rows) if (r.failing.length) console.log(`${r.page}: audits below 0.9: ${r.failing.join(', ')}`);
+console.table(rows.map(({ failing: _f, url: _u, ...r }) => r));
+for (const r of rows) {
+	if (r.failing.length) console.log(`${r.page}: audits below 0.9: ${r.failing.join(', ')}`);
+}
 mkdirSync(dirname(out), { recursive: true });
 writeFileSync(
 	out,
-	JSON.stringify({ lighthouse: '12.2.3', settings: 'mobile (default throttling)', base, at: new Date().toISOString(), pages: rows }, null, 2) + '\n'
+	JSON.stringify(
+		{
+			lighthouse: '12.2.3',
+			settings: 'mobile (default throttling)',
+			base,
+			at: new Date().toISOString(),
+			pages: rows
+		},
+		null,
+		2
+	) + '\n'
 );
 console.log(`written ${out}`);

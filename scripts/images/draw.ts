@@ -104,7 +104,11 @@ export function ground(horizon: number, near = '#5e7a3c', far = '#8aa05c'): stri
 }
 
 /** Distant trees along the horizon. */
-export function treeLine(r: Rand, horizon: number, colors = ['#4d6440', '#3f5636', '#5b7348']): string {
+export function treeLine(
+	r: Rand,
+	horizon: number,
+	colors = ['#4d6440', '#3f5636', '#5b7348']
+): string {
 	let s = '';
 	for (let x = -60; x < W + 60; x += between(r, 50, 110)) {
 		const h = between(r, 120, 260);
@@ -126,7 +130,12 @@ export function fence(r: Rand, top: number, bottom: number, color = '#8a6d52'): 
 }
 
 /** A clipped hedge. */
-export function hedge(r: Rand, top: number, bottom: number, colors = ['#3e5a33', '#4a6a3a', '#36502e']): string {
+export function hedge(
+	r: Rand,
+	top: number,
+	bottom: number,
+	colors = ['#3e5a33', '#4a6a3a', '#36502e']
+): string {
 	let s = `<rect y="${top + 30}" width="${W}" height="${bottom - top - 30}" fill="${colors[0]}"/>`;
 	for (let i = 0; i < 160; i++) {
 		const x = between(r, -20, W + 20);
@@ -152,7 +161,14 @@ export interface StoneOpts {
 }
 
 /** A stone with shading, a contact shadow and optional speckle. */
-export function stone(r: Rand, cx: number, cy: number, rx: number, ry: number, o: StoneOpts): string {
+export function stone(
+	r: Rand,
+	cx: number,
+	cy: number,
+	rx: number,
+	ry: number,
+	o: StoneOpts
+): string {
 	const d = blobPath(r, cx, cy, rx, ry, o.jitter ?? 0.12, 9, o.flat ?? 0.35);
 	let s = `<ellipse cx="${f(cx + rx * 0.1)}" cy="${f(cy + ry * 0.62)}" rx="${f(rx * 1.15)}" ry="${f(ry * 0.32)}" fill="url(#shadow)"/>`;
 	s += `<path d="${d}" fill="${o.color}"/>`;
@@ -271,7 +287,14 @@ export function shrub(r: Rand, cx: number, cy: number, size: number, colors: str
 }
 
 /** Ornamental grass: a fan of curved blades. */
-export function grass(r: Rand, cx: number, cy: number, h: number, color = '#9aa35a', tip = '#d2c68a'): string {
+export function grass(
+	r: Rand,
+	cx: number,
+	cy: number,
+	h: number,
+	color = '#9aa35a',
+	tip = '#d2c68a'
+): string {
 	let s = `<ellipse cx="${f(cx)}" cy="${f(cy)}" rx="${f(h * 0.35)}" ry="${f(h * 0.07)}" fill="url(#shadow)"/>`;
 	for (let i = 0; i < 22; i++) {
 		const a = between(r, -1.1, 1.1);
@@ -360,7 +383,11 @@ export function dusk(glows: Glow[]): string {
 }
 
 /** Wrap a scene into a full SVG document, optionally zoomed on a point. */
-export function svg(body: string, zoom?: { x: number; y: number; k: number }, extraDefs = ''): string {
+export function svg(
+	body: string,
+	zoom?: { x: number; y: number; k: number },
+	extraDefs = ''
+): string {
 	// Keep the zoomed window inside the drawing, so no edge of the canvas shows.
 	const clamp = (v: number, half: number, max: number) => Math.min(max - half, Math.max(half, v));
 	const t = zoom

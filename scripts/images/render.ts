@@ -87,13 +87,21 @@ async function main() {
 		const scene = scenes[slug];
 		if (!scene) throw new Error(`No scene drawn for ${slug}`);
 		for (const shot of shots) {
-			const bytes = await jpeg(svg(scene.draw(shot.time), shot.zoom), join(workDir, slug, shot.file));
+			const bytes = await jpeg(
+				svg(scene.draw(shot.time), shot.zoom),
+				join(workDir, slug, shot.file)
+			);
 			total += bytes;
 			console.log(`${slug}/${shot.file}  ${(bytes / 1024).toFixed(0)} KB`);
 		}
 	}
 	// The share image for pages without their own: a 1200×630 crop of one scene.
-	total += await jpeg(svg(scenes['granite-boulder-trio'].draw('dusk')), join(staticDir, 'og-image.jpg'), 1200, 630);
+	total += await jpeg(
+		svg(scenes['granite-boulder-trio'].draw('dusk')),
+		join(staticDir, 'og-image.jpg'),
+		1200,
+		630
+	);
 
 	// Favicon set from one drawn mark.
 	const mark = faviconSvg();

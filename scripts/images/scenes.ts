@@ -7,7 +7,6 @@ import {
 	H,
 	between,
 	blobPath,
-	blockWall,
 	bubbler,
 	dusk,
 	fence,
@@ -101,7 +100,9 @@ export const scenes: Record<string, Scene> = {
 			}
 			s += grass(r, 300, 830, 200) + grass(r, 1330, 820, 230);
 			s += perennial(r, 160, 700, 80, '#e0b84f') + shrub(r, 1480, 690, 100, greens);
-			s += stone(r, 420, 900, 60, 30, { color: '#8a847a' }) + stone(r, 1210, 920, 70, 32, { color: '#8a847a' });
+			s +=
+				stone(r, 420, 900, 60, 30, { color: '#8a847a' }) +
+				stone(r, 1210, 920, 70, 32, { color: '#8a847a' });
 			s += fixture(660, 900) + fixture(950, 910) + fixture(1180, 860);
 			const glows = boulders.map(([x, y, rx]) => ({ x, y: y - 20, r: rx * 1.5 }));
 			return withDusk(time, s, glows, beam(660, 880, 200, 260) + beam(950, 890, 220, 300));
@@ -112,7 +113,10 @@ export const scenes: Record<string, Scene> = {
 		draw(time) {
 			const r = rng(37);
 			const hz = 300;
-			let s = sky(time, hz) + treeLine(r, hz - 20, ['#3f5636', '#4d6440', '#34492d']) + ground(hz - 10, '#6a8546', '#86a05c');
+			let s =
+				sky(time, hz) +
+				treeLine(r, hz - 20, ['#3f5636', '#4d6440', '#34492d']) +
+				ground(hz - 10, '#6a8546', '#86a05c');
 			s += `<path d="M0,${hz} C500,${hz + 40} 900,${hz + 160} ${W},${hz + 420} L${W},${H} L0,${H} Z" fill="#6f8a48"/>`;
 			s += `<path d="M0,${hz + 120} C600,${hz + 200} 1100,${hz + 420} ${W},${hz + 640} L${W},${H} L0,${H} Z" fill="#5d7a3e"/>`;
 			const path: [number, number][] = [
@@ -140,11 +144,21 @@ export const scenes: Record<string, Scene> = {
 				const [x, y] = path[i];
 				const w = wd(i / (path.length - 1)) + 50;
 				const k = 0.5 + i * 0.12;
-				s += stone(r, x - w, y + 10, 60 * k, 40 * k, { color: pick(r, ['#8f877a', '#a0978a', '#7d766b']) });
-				s += stone(r, x + w, y + 20, 70 * k, 44 * k, { color: pick(r, ['#8f877a', '#a0978a', '#7d766b']) });
+				s += stone(r, x - w, y + 10, 60 * k, 40 * k, {
+					color: pick(r, ['#8f877a', '#a0978a', '#7d766b'])
+				});
+				s += stone(r, x + w, y + 20, 70 * k, 44 * k, {
+					color: pick(r, ['#8f877a', '#a0978a', '#7d766b'])
+				});
 			}
-			s += shrub(r, 180, 520, 90, greens) + grass(r, 1000, 560, 200) + perennial(r, 420, 700, 90, '#c65b4a');
-			s += grass(r, 300, 960, 260) + perennial(r, 1450, 720, 80, '#e0b84f') + shrub(r, 700, 930, 110, greens);
+			s +=
+				shrub(r, 180, 520, 90, greens) +
+				grass(r, 1000, 560, 200) +
+				perennial(r, 420, 700, 90, '#c65b4a');
+			s +=
+				grass(r, 300, 960, 260) +
+				perennial(r, 1450, 720, 80, '#e0b84f') +
+				shrub(r, 700, 930, 110, greens);
 			return withDusk(time, s, [{ x: 900, y: 740, r: 260 }], '');
 		}
 	},
@@ -153,7 +167,10 @@ export const scenes: Record<string, Scene> = {
 		draw(time) {
 			const r = rng(41);
 			const hz = 380;
-			let s = sky(time, hz) + treeLine(r, hz, ['#3a5233', '#4a6340', '#2f4429', '#566f45']) + ground(hz - 10, '#58743a', '#7f9653');
+			let s =
+				sky(time, hz) +
+				treeLine(r, hz, ['#3a5233', '#4a6340', '#2f4429', '#566f45']) +
+				ground(hz - 10, '#58743a', '#7f9653');
 			s += `<path d="${blobPath(r, 800, 720, 640, 230, 0.08, 12, 0.1)}" fill="#6d665d"/>`;
 			s += `<path d="${blobPath(r, 800, 720, 590, 200, 0.06, 12, 0.1)}" fill="url(#waterV)"/>`;
 			s += `<path d="${blobPath(r, 800, 700, 500, 140, 0.06, 12, 0.1)}" fill="#2b5660" opacity=".35"/>`;
@@ -171,10 +188,14 @@ export const scenes: Record<string, Scene> = {
 			// pebble beach on the left
 			s += gravel(r, 330, 790, 200, 80, river, 360, 11, '#847c6f');
 			// reeds and marginal planting
-			for (let i = 0; i < 5; i++) s += grass(r, 1180 + i * 60, 560 + i * 8, 180, '#5f7d3c', '#7e6a3c');
+			for (let i = 0; i < 5; i++) {
+				s += grass(r, 1180 + i * 60, 560 + i * 8, 180, '#5f7d3c', '#7e6a3c');
+			}
 			s += shrub(r, 190, 560, 120, greens) + perennial(r, 1480, 760, 90, '#9c6fb4');
 			s += perennial(r, 1350, 940, 100, '#e0b84f') + grass(r, 520, 980, 200);
-			s += stone(r, 600, 940, 90, 40, { color: '#857d70' }) + stone(r, 1060, 960, 120, 46, { color: '#7a7367' });
+			s +=
+				stone(r, 600, 940, 90, 40, { color: '#857d70' }) +
+				stone(r, 1060, 960, 120, 46, { color: '#7a7367' });
 			// a log for frogs and birds
 			s += `<rect x="420" y="600" width="220" height="34" rx="16" fill="#6b5440" transform="rotate(-8 530 617)"/>`;
 			return withDusk(time, s, [{ x: 800, y: 700, r: 200 }], '');
@@ -195,8 +216,12 @@ export const scenes: Record<string, Scene> = {
 			s += `<rect x="440" y="100" width="720" height="${hz - 100}" fill="url(#wallLight)"/>`;
 			s += `<rect x="0" y="${hz}" width="${W}" height="${H - hz}" fill="#b9ad98"/>`;
 			// paving joints
-			for (let x = -200; x < W + 200; x += 180) s += `<line x1="${x}" y1="${hz}" x2="${x + (x - 800) * 0.6}" y2="${H}" stroke="#8f8470" stroke-width="3"/>`;
-			for (let y = hz + 60; y < H; y += 90) s += `<line x1="0" y1="${y}" x2="${W}" y2="${y}" stroke="#8f8470" stroke-width="3"/>`;
+			for (let x = -200; x < W + 200; x += 180) {
+				s += `<line x1="${x}" y1="${hz}" x2="${x + (x - 800) * 0.6}" y2="${H}" stroke="#8f8470" stroke-width="3"/>`;
+			}
+			for (let y = hz + 60; y < H; y += 90) {
+				s += `<line x1="0" y1="${y}" x2="${W}" y2="${y}" stroke="#8f8470" stroke-width="3"/>`;
+			}
 			// trough basin
 			s += `<rect x="520" y="620" width="560" height="190" rx="10" fill="#7d766b"/>`;
 			s += `<rect x="540" y="630" width="520" height="40" rx="8" fill="url(#waterV)"/>`;
@@ -225,7 +250,11 @@ export const scenes: Record<string, Scene> = {
 		draw(time) {
 			const r = rng(67);
 			const hz = 400;
-			let s = sky(time, hz) + treeLine(r, hz - 40) + hedge(r, hz - 120, hz + 40, ['#34502d', '#40603a', '#2f4829']) + ground(hz + 30, '#627f40', '#88a05a');
+			let s =
+				sky(time, hz) +
+				treeLine(r, hz - 40) +
+				hedge(r, hz - 120, hz + 40, ['#34502d', '#40603a', '#2f4829']) +
+				ground(hz + 30, '#627f40', '#88a05a');
 			// terrace of flagstones in perspective
 			s += `<path d="M100,${H} L420,560 L1180,560 L1500,${H} Z" fill="#6e665a"/>`;
 			for (let row = 0; row < 9; row++) {
@@ -249,21 +278,34 @@ export const scenes: Record<string, Scene> = {
 				const y = 500 + i * 34;
 				s += `<path d="M260,${y} Q800,${y - 130} 1340,${y}" stroke="#6f675a" stroke-width="3" fill="none"/>`;
 			}
-			for (let x = 300; x < 1320; x += 70) s += `<line x1="${x}" y1="${470 + Math.abs(x - 800) * 0.25 - 80}" x2="${x}" y2="${560 + Math.abs(x - 800) * 0.25 - 70}" stroke="#6f675a" stroke-width="2" opacity=".6"/>`;
+			for (let x = 300; x < 1320; x += 70) {
+				s += `<line x1="${x}" y1="${470 + Math.abs(x - 800) * 0.25 - 80}" x2="${x}" y2="${560 + Math.abs(x - 800) * 0.25 - 70}" stroke="#6f675a" stroke-width="2" opacity=".6"/>`;
+			}
 			s += `<path d="M240,505 Q800,365 1360,505 L1360,478 Q800,338 240,478 Z" fill="#cfc5b1"/>`;
 			s += `<path d="M260,600 Q800,470 1340,600 L1340,500 Q800,370 260,500 Z" fill="url(#wallShade)" opacity=".45"/>`;
 			// chairs and a planter
 			s += `<rect x="640" y="690" width="120" height="80" rx="10" fill="#41525a"/><rect x="630" y="640" width="140" height="60" rx="10" fill="#4e626b"/>`;
 			s += `<rect x="880" y="700" width="120" height="80" rx="10" fill="#41525a"/><rect x="870" y="650" width="140" height="60" rx="10" fill="#4e626b"/>`;
-			s += perennial(r, 140, 780, 100, '#d8a24a') + grass(r, 1470, 800, 240) + shrub(r, 1500, 560, 90, greens);
+			s +=
+				perennial(r, 140, 780, 100, '#d8a24a') +
+				grass(r, 1470, 800, 240) +
+				shrub(r, 1500, 560, 90, greens);
 			const capLights = [360, 560, 800, 1040, 1240];
-			const glows = capLights.map((x) => ({ x, y: 560 - (260 - Math.abs(x - 800) * 0.25) * 0.35, r: 130 }));
-			for (const g of glows) s += `<rect x="${g.x - 14}" y="${g.y - 40}" width="28" height="8" rx="3" fill="#2d2a26"/>`;
+			const glows = capLights.map((x) => ({
+				x,
+				y: 560 - (260 - Math.abs(x - 800) * 0.25) * 0.35,
+				r: 130
+			}));
+			for (const g of glows) {
+				s += `<rect x="${g.x - 14}" y="${g.y - 40}" width="28" height="8" rx="3" fill="#2d2a26"/>`;
+			}
 			return withDusk(
 				time,
 				s,
 				[...glows, { x: 800, y: 800, r: 360 }],
-				glows.map((g) => `<ellipse cx="${g.x}" cy="${g.y - 20}" rx="60" ry="26" fill="url(#glow)"/>`).join('')
+				glows
+					.map((g) => `<ellipse cx="${g.x}" cy="${g.y - 20}" rx="60" ry="26" fill="url(#glow)"/>`)
+					.join('')
 			);
 		}
 	},
@@ -272,7 +314,11 @@ export const scenes: Record<string, Scene> = {
 		draw(time) {
 			const r = rng(79);
 			const hz = 360;
-			let s = sky(time, hz) + treeLine(r, hz - 20) + fence(r, hz - 150, hz + 40, '#7a6a58') + ground(hz + 30, '#56703a', '#7d9552');
+			let s =
+				sky(time, hz) +
+				treeLine(r, hz - 20) +
+				fence(r, hz - 150, hz + 40, '#7a6a58') +
+				ground(hz + 30, '#56703a', '#7d9552');
 			const pts: [number, number][] = [
 				[760, 420],
 				[720, 520],
@@ -287,7 +333,8 @@ export const scenes: Record<string, Scene> = {
 				const t = i / 25;
 				const seg = Math.min(pts.length - 2, Math.floor(t * (pts.length - 1)));
 				const u = t * (pts.length - 1) - seg;
-				const x = pts[seg][0] + (pts[seg + 1][0] - pts[seg][0]) * u + between(r, -1, 1) * (30 + t * 120);
+				const x =
+					pts[seg][0] + (pts[seg + 1][0] - pts[seg][0]) * u + between(r, -1, 1) * (30 + t * 120);
 				const y = pts[seg][1] + (pts[seg + 1][1] - pts[seg][1]) * u;
 				const w = 30 + t * 120;
 				s += `<path d="${blobPath(r, x, y, w, w * 0.38, 0.22, 7, 0.05)}" fill="${pick(r, ['#b3a58b', '#a1937a', '#c2b59b', '#9c8f77'])}"/>`;
@@ -307,7 +354,9 @@ export const scenes: Record<string, Scene> = {
 				const k = 0.5 + i * 0.18;
 				s += perennial(r, 520 - i * 60, y, 60 * k, pick(r, blooms));
 				s += perennial(r, 1080 + i * 60, y + 20, 60 * k, pick(r, blooms));
-				if (i % 2) s += grass(r, 330 - i * 30, y + 30, 120 * k) + grass(r, 1300 + i * 30, y + 30, 120 * k);
+				if (i % 2) {
+					s += grass(r, 330 - i * 30, y + 30, 120 * k) + grass(r, 1300 + i * 30, y + 30, 120 * k);
+				}
 			}
 			return withDusk(time, s, [{ x: 800, y: 700, r: 200 }], '');
 		}
@@ -318,8 +367,12 @@ export const scenes: Record<string, Scene> = {
 			const r = rng(97);
 			const hz = 520;
 			let s = houseWall(0, hz, '#c9c2b4');
-			for (let y = 20; y < hz; y += 28) s += `<line x1="0" y1="${y}" x2="520" y2="${y}" stroke="#a79f90" stroke-width="2"/>`;
-			s += `<rect x="520" y="0" width="${W - 520}" height="${hz}" fill="#c9dde3"/>` + treeLine(r, hz, ['#4d6440', '#3f5636']).replace(/<path/g, '<path clip-path="url(#right)"');
+			for (let y = 20; y < hz; y += 28) {
+				s += `<line x1="0" y1="${y}" x2="520" y2="${y}" stroke="#a79f90" stroke-width="2"/>`;
+			}
+			s +=
+				`<rect x="520" y="0" width="${W - 520}" height="${hz}" fill="#c9dde3"/>` +
+				treeLine(r, hz, ['#4d6440', '#3f5636']).replace(/<path/g, '<path clip-path="url(#right)"');
 			s += `<clipPath id="right"><rect x="520" y="0" width="${W}" height="${hz}"/></clipPath>`;
 			s += `<rect x="505" y="0" width="30" height="${hz}" fill="#b3ab9c"/>`;
 			s += ground(hz, '#5a763b', '#829a55');
@@ -340,13 +393,23 @@ export const scenes: Record<string, Scene> = {
 			for (let i = 0; i < path.length; i++) {
 				const [x, y] = path[i];
 				const w = wd(i / (path.length - 1));
-				if (i % 2 === 0) s += stone(r, x - w * 0.9, y + 10, 50 + i * 10, 30 + i * 6, { color: pick(r, ['#8f877a', '#a0978a', '#7d766b']) });
-				else s += stone(r, x + w * 0.9, y + 20, 60 + i * 10, 34 + i * 6, { color: pick(r, ['#8f877a', '#a0978a', '#7d766b']) });
+				if (i % 2 === 0) {
+					s += stone(r, x - w * 0.9, y + 10, 50 + i * 10, 30 + i * 6, {
+						color: pick(r, ['#8f877a', '#a0978a', '#7d766b'])
+					});
+				} else {
+					s += stone(r, x + w * 0.9, y + 20, 60 + i * 10, 34 + i * 6, {
+						color: pick(r, ['#8f877a', '#a0978a', '#7d766b'])
+					});
+				}
 			}
 			// a flat bridge stone
 			s += `<path d="${blobPath(r, 900, 780, 160, 40, 0.08, 9, 0.05)}" fill="#b3a58b"/><path d="${blobPath(r, 900, 780, 160, 40, 0.08, 9, 0.05)}" fill="url(#shade)"/>`;
 			s += grass(r, 640, 820, 200) + grass(r, 1220, 760, 220) + grass(r, 1480, 1030, 220);
-			s += perennial(r, 240, 760, 100, '#d9b44a') + shrub(r, 1080, 620, 100, greens) + perennial(r, 700, 1000, 110, '#c65b4a');
+			s +=
+				perennial(r, 240, 760, 100, '#d9b44a') +
+				shrub(r, 1080, 620, 100, greens) +
+				perennial(r, 700, 1000, 110, '#c65b4a');
 			return withDusk(time, s, [{ x: 900, y: 780, r: 220 }], '');
 		}
 	},
@@ -355,8 +418,22 @@ export const scenes: Record<string, Scene> = {
 		draw(time) {
 			const r = rng(131);
 			const hz = 440;
-			let s = sky(time, hz) + treeLine(r, hz - 60, ['#34492d', '#3f5636', '#2d4027']) + hedge(r, hz - 120, hz + 30, ['#2f4a2a', '#3a5733', '#2a4226']) + ground(hz + 20, '#55703a', '#7a9150');
-			s += gravel(r, 800, 840, 520, 170, ['#3e4347', '#4c5257', '#5a6064', '#34393c'], 1000, 11, '#2f3437');
+			let s =
+				sky(time, hz) +
+				treeLine(r, hz - 60, ['#34492d', '#3f5636', '#2d4027']) +
+				hedge(r, hz - 120, hz + 30, ['#2f4a2a', '#3a5733', '#2a4226']) +
+				ground(hz + 20, '#55703a', '#7a9150');
+			s += gravel(
+				r,
+				800,
+				840,
+				520,
+				170,
+				['#3e4347', '#4c5257', '#5a6064', '#34393c'],
+				1000,
+				11,
+				'#2f3437'
+			);
 			const cols: [number, number, number][] = [
 				[620, 330, 70],
 				[800, 250, 80],
@@ -372,7 +449,11 @@ export const scenes: Record<string, Scene> = {
 				s += `<path d="M${x + w * 0.9},${top + 30} L${x + w * 0.9},820" stroke="#8fb7bd" stroke-width="8" stroke-opacity=".35"/>`;
 				s += bubbler(x, top + 20, 24, 14);
 			}
-			s += grass(r, 320, 860, 240, '#8f9a55') + grass(r, 1290, 860, 260, '#8f9a55') + shrub(r, 160, 720, 100, greens) + perennial(r, 1470, 740, 80, '#e8e1d0');
+			s +=
+				grass(r, 320, 860, 240, '#8f9a55') +
+				grass(r, 1290, 860, 260, '#8f9a55') +
+				shrub(r, 160, 720, 100, greens) +
+				perennial(r, 1470, 740, 80, '#e8e1d0');
 			s += fixture(720, 950) + fixture(900, 960);
 			const glows = cols.map(([x, h]) => ({ x, y: 820 - h / 2 - 100, r: 160 }));
 			return withDusk(time, s, glows, beam(720, 930, 240, 460) + beam(900, 940, 220, 420));

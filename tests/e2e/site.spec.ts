@@ -37,17 +37,25 @@ test.describe('public site', () => {
 		await page.goto('/');
 		await expect(page.getByRole('heading', { level: 1 })).toBeVisible();
 
-		await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Our work' }).click();
+		await page
+			.getByRole('navigation', { name: 'Main' })
+			.getByRole('link', { name: 'Our work' })
+			.click();
 		await expect(page).toHaveURL(/\/work$/);
 		await expect(page.getByRole('heading', { level: 1, name: 'Our work' })).toBeVisible();
 
-		await page.getByRole('navigation', { name: 'Kinds of project' }).getByRole('link', { name: /^Ponds/ }).click();
+		await page
+			.getByRole('navigation', { name: 'Kinds of project' })
+			.getByRole('link', { name: /^Ponds/ })
+			.click();
 		await expect(page).toHaveURL(/\/work\/type\/ponds$/);
 		await expect(page.getByRole('heading', { level: 1, name: 'Ponds' })).toBeVisible();
 
 		await page.getByRole('link', { name: 'A pond for wildlife' }).click();
 		await expect(page).toHaveURL(/\/work\/wildlife-pond$/);
-		await expect(page.getByRole('heading', { level: 1, name: 'A pond for wildlife' })).toBeVisible();
+		await expect(
+			page.getByRole('heading', { level: 1, name: 'A pond for wildlife' })
+		).toBeVisible();
 		await expect(page.getByRole('heading', { name: 'What we built' })).toBeVisible();
 
 		const start = page.getByRole('link', { name: 'Start a project like this' }).first();
@@ -62,7 +70,9 @@ test.describe('public site', () => {
 		expect(seen.foreign).toEqual([]);
 	});
 
-	test('the skip link is the first stop for the keyboard and lands on the content', async ({ page }) => {
+	test('the skip link is the first stop for the keyboard and lands on the content', async ({
+		page
+	}) => {
 		await page.goto('/work');
 		await page.keyboard.press('Tab');
 		const skip = page.getByRole('link', { name: 'Skip to main content' });
@@ -100,7 +110,9 @@ test.describe('public site', () => {
 				.analyze();
 			for (const v of results.violations) {
 				if (v.impact === 'serious' || v.impact === 'critical') {
-					problems.push(`${path}: ${v.id} (${v.impact}) ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
+					problems.push(
+						`${path}: ${v.id} (${v.impact}) ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`
+					);
 				}
 			}
 			const overflow = await page.evaluate(

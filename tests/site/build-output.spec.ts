@@ -49,7 +49,9 @@ function jsonLd(html: string): Record<string, unknown>[] {
 
 /** Every string value in a JSON-LD tree that is a URL, except the @context vocabulary. */
 function urlsIn(value: unknown, key = ''): string[] {
-	if (typeof value === 'string') return key !== '@context' && /^[a-z]+:\/\//i.test(value) ? [value] : [];
+	if (typeof value === 'string') {
+		return key !== '@context' && /^[a-z]+:\/\//i.test(value) ? [value] : [];
+	}
 	if (Array.isArray(value)) return value.flatMap((v) => urlsIn(v));
 	if (value && typeof value === 'object') {
 		return Object.entries(value).flatMap(([k, v]) => urlsIn(v, k));
@@ -64,7 +66,9 @@ function attributeUrls(html: string): string[] {
 	for (const m of html.matchAll(/\ssrcset="([^"]*)"/g)) {
 		out.push(...m[1].split(',').map((s) => s.trim().split(/\s+/)[0]));
 	}
-	for (const m of html.matchAll(/<meta (?:property|name)="(?:og:[a-z:]+|twitter:[a-z:]+)" content="([^"]*)"/g)) {
+	for (const m of html.matchAll(
+		/<meta (?:property|name)="(?:og:[a-z:]+|twitter:[a-z:]+)" content="([^"]*)"/g
+	)) {
 		if (/^[a-z]+:\/\//i.test(m[1])) out.push(m[1]);
 	}
 	return out.filter(Boolean);
@@ -115,7 +119,9 @@ describe('prerendered public site', () => {
 		for (const [path, html] of pages) {
 			expect(html, path).toMatch(/<title>[^<]{5,}<\/title>/);
 			expect(html, path).toMatch(/<meta name="description" content="[^"]{40,}"/);
-			expect(html, path).toContain(`<link rel="canonical" href="${origin}${path === '/' ? '/' : path}"`);
+			expect(html, path).toContain(
+				`<link rel="canonical" href="${origin}${path === '/' ? '/' : path}"`
+			);
 			expect(html, path).toMatch(/<meta property="og:image" content="[^"]+"/);
 			expect(html, path).toMatch(/<meta name="twitter:card" content="summary_large_image"/);
 			expect(html, path).toMatch(/<html lang="en"/);
@@ -143,7 +149,9 @@ describe('prerendered public site', () => {
 			}
 			const images = work!.image as { contentUrl: string }[];
 			expect(images.length).toBeGreaterThan(0);
-			for (const img of images) expect(fileExists(pathOf(img.contentUrl).path), img.contentUrl).toBe(true);
+			for (const img of images) {
+				expect(fileExists(pathOf(img.contentUrl).path), img.contentUrl).toBe(true);
+			}
 		}
 	});
 
@@ -170,7 +178,9 @@ describe('prerendered public site', () => {
 
 	it('keeps stylesheets and the manifest on this host too', () => {
 		const css = walk(join(client, '_app')).filter((f) => f.endsWith('.css'));
-		for (const f of css) expect(readFileSync(f, 'utf8'), f).not.toMatch(/url\(\s*["']?(https?:)?\/\//);
+		for (const f of css) {
+			expect(readFileSync(f, 'utf8'), f).not.toMatch(/url\(\s*["']?(https?:)?\/\//);
+		}
 		const manifest = JSON.parse(readFileSync(join(client, 'site.webmanifest'), 'utf8'));
 		for (const icon of manifest.icons) expect(fileExists(icon.src), icon.src).toBe(true);
 	});

@@ -70,13 +70,23 @@ describe('project front matter', () => {
 		['missing-title', edit('title:', null), 'title', /required/],
 		['unknown-type', edit('types:', 'types: [fountains, hot-tubs]'), 'types.1', /fountains/],
 		['missing-image', edit('  file: cover.jpg', '  file: nowhere.jpg'), 'cover.file', /not found/],
-		['gallery-image', edit('  - file: detail.jpg', '  - file: gone.jpg'), 'gallery.0.file', /gone\.jpg/],
+		[
+			'gallery-image',
+			edit('  - file: detail.jpg', '  - file: gone.jpg'),
+			'gallery.0.file',
+			/gone\.jpg/
+		],
 		['street-address', edit('town:', 'town: 42 Elm Street'), 'town', /street address/],
 		['bad-season', edit('season:', 'season: monsoon'), 'season', /spring|summer/],
 		['year-as-text', edit('year:', 'year: last year'), 'year', /number/],
 		['fact-typo', edit('  pumpGph:', '  pumpGPH: 900'), 'facts.pumpGPH', /unknown field/],
 		['negative-fact', edit('  outlets:', '  outlets: -2'), 'facts.outlets', /0|negative/i],
-		['unknown-service', edit('services:', 'services: [hot-tub-repair]'), 'services.0', /unknown service/],
+		[
+			'unknown-service',
+			edit('services:', 'services: [hot-tub-repair]'),
+			'services.0',
+			/unknown service/
+		],
 		['short-alt', edit('  alt: A drilled', '  alt: rock'), 'cover.alt', /describe/],
 		['wrong-slug', good, 'slug', /must match the file name/]
 	];

@@ -13,7 +13,10 @@ const slug = z
 const imageRef = z.strictObject({
 	file: z
 		.string()
-		.regex(/^[a-z0-9][a-z0-9-]*\.(jpg|jpeg|png|webp|avif)$/, 'must be a file name such as cover.jpg'),
+		.regex(
+			/^[a-z0-9][a-z0-9-]*\.(jpg|jpeg|png|webp|avif)$/,
+			'must be a file name such as cover.jpg'
+		),
 	alt: z.string().trim().min(8, 'describe the picture in a few words (8 characters or more)'),
 	caption: z.string().trim().min(1).optional()
 });

@@ -36,7 +36,8 @@ export const firm = {
 		{ days: 'Monday to Friday', open: '7:30', close: '17:00', schema: 'Mo-Fr 07:30-17:00' },
 		{ days: 'Saturday (April to October)', open: '8:00', close: '12:00', schema: 'Sa 08:00-12:00' }
 	],
-	hoursNote: 'Mountain Time. Crews are on site most days; the office calls back within one working day.',
+	hoursNote:
+		'Mountain Time. Crews are on site most days; the office calls back within one working day.',
 	serviceArea: [
 		'Linden Ford',
 		'Alder Flats',

@@ -4,7 +4,6 @@ import { absolute, privatePaths } from '$lib/content/site';
 // carry the absolute URL the robots.txt standard asks for.
 export const prerender = true;
 
-
 export const GET = () =>
 	new Response(
 		[
