@@ -164,7 +164,7 @@ function cautionFacts(result: PartResults, design: ParsedDesign, openWaterDepthI
 	};
 }
 
-function compute(design: ParsedDesign, catalog: ParsedCatalog, units: UnitSystem): EstimateResult {
+function analyseParts(design: ParsedDesign, catalog: ParsedCatalog, units: UnitSystem) {
 	const settings = catalog.settings;
 	const waterResult = water(design, catalog, units);
 	const stones = analyseStones(design.stones, settings);
@@ -179,58 +179,66 @@ function compute(design: ParsedDesign, catalog: ParsedCatalog, units: UnitSystem
 				settings
 			})
 		: undefined;
-	const aggregates = design.aggregates.map((a) =>
-		aggregateResult(a, items.get(a.sku), settings.aggregateWastePercent)
-	);
-	const walls = design.walls.map((w) => wallTakeoff(w, settings));
-	const lighting = design.lighting ? analyseLighting(design.lighting, settings) : undefined;
-	const pump = catalog.pumps.find((p) => p.id === waterResult?.pump.chosenId);
-	const takeoff = buildTakeoff(
-		{ design, hydraulics: waterResult, pump, basin, stones, aggregates, walls, lighting },
-		catalog
-	);
-	if (takeoff.errors.length) return { ok: false, errors: takeoff.errors };
+	return {
+		water: waterResult,
+		basin,
+		stones,
+		aggregates: design.aggregates.map((a) =>
+			aggregateResult(a, items.get(a.sku), settings.aggregateWastePercent)
+		),
+		walls: design.walls.map((w) => wallTakeoff(w, settings)),
+		lighting: design.lighting ? analyseLighting(design.lighting, settings) : undefined
+	};
+}
+
+type Parts = ReturnType<typeof analyseParts>;
+
+function labor(design: ParsedDesign, parts: Parts, settings: ParsedCatalog['settings']) {
 	const included = includedBuckets(design);
 	const tasks = laborTasks(
 		{
 			hasBasin: Boolean(design.basin),
 			outletCount: design.outlets.length,
-			stones: stones.stones,
-			aggregates,
-			walls,
-			lighting: lighting && { result: lighting, optionId: design.lighting?.optionId },
+			stones: parts.stones.stones,
+			aggregates: parts.aggregates,
+			walls: parts.walls,
+			lighting: parts.lighting && { result: parts.lighting, optionId: design.lighting?.optionId },
 			extra: design.extraLabor
 		},
 		settings
 	);
-	const stoneCrew = Math.max(
-		0,
-		...stones.stones.filter((s) => included.has(s.optionId ?? 'base')).map((s) => s.handling.people)
-	);
-	const pricing = priceSummary(design, takeoff.lines, tasks, pickLaborRate(catalog), settings);
-	const warnings = [
-		...(waterResult?.warnings ?? []),
-		...(waterResult?.pump.warnings ?? []),
-		...(basin?.warnings ?? []),
-		...stones.warnings,
-		...(lighting?.warnings ?? []),
-		...takeoff.warnings,
-		...(catalog.laborRates.length === 0 && tasks.length
-			? ['No labor rate in the price list: labor is not priced']
-			: [])
+	const includedStones = parts.stones.stones.filter((s) => included.has(s.optionId ?? 'base'));
+	const stoneCrew = Math.max(0, ...includedStones.map((s) => s.handling.people));
+	return { tasks, summary: laborSummary(tasks, included, stoneCrew, settings) };
+}
+
+function collectWarnings(parts: Parts, takeoffWarnings: string[], unpricedLabor: boolean) {
+	return [
+		...(parts.water?.warnings ?? []),
+		...(parts.water?.pump.warnings ?? []),
+		...(parts.basin?.warnings ?? []),
+		...parts.stones.warnings,
+		...(parts.lighting?.warnings ?? []),
+		...takeoffWarnings,
+		...(unpricedLabor ? ['No labor rate in the price list: labor is not priced'] : [])
 	];
-	const partial = {
+}
+
+function compute(design: ParsedDesign, catalog: ParsedCatalog, units: UnitSystem): EstimateResult {
+	const settings = catalog.settings;
+	const parts = analyseParts(design, catalog, units);
+	const pump = catalog.pumps.find((p) => p.id === parts.water?.pump.chosenId);
+	const takeoff = buildTakeoff({ design, hydraulics: parts.water, pump, ...parts }, catalog);
+	if (takeoff.errors.length) return { ok: false, errors: takeoff.errors };
+	const work = labor(design, parts, settings);
+	const pricing = priceSummary(design, takeoff.lines, work.tasks, pickLaborRate(catalog), settings);
+	const unpricedLabor = catalog.laborRates.length === 0 && work.tasks.length > 0;
+	const partial = Object.assign(parts, {
 		units,
-		water: waterResult,
-		basin,
-		stones,
-		aggregates,
-		walls,
-		lighting,
-		labor: { tasks, summary: laborSummary(tasks, included, stoneCrew, settings) },
+		labor: work,
 		pricing,
-		warnings
-	};
+		warnings: collectWarnings(parts, takeoff.warnings, unpricedLabor)
+	});
 	const cautions = cautionsFor(cautionFacts(partial, design, settings.openWaterDepthIn));
 	return Object.assign(partial, {
 		ok: true as const,

@@ -96,29 +96,28 @@ function waterRuns(parts: TakeoffParts) {
 	return runs;
 }
 
-function partLines(parts: TakeoffParts): PathedLine[] {
-	const { design, basin, stones, aggregates, walls, lighting } = parts;
-	const lines: PathedLine[] = [];
-	const add = (
-		path: string,
-		bucket: string,
-		sku: string | undefined,
-		description: string,
-		measure: TakeoffLine['measure']
-	) => {
-		if (sku) lines.push({ path, bucket, sku, description, measure });
-	};
-	if (design.basin && basin) {
-		add('design.basin.sku', BASE_BUCKET, design.basin.sku, 'Basin', {
-			count: 1,
+type Add = (
+	path: string,
+	bucket: string,
+	sku: string | undefined,
+	description: string,
+	measure: TakeoffLine['measure']
+) => void;
+
+function basinLines({ design, basin }: TakeoffParts, add: Add) {
+	if (!design.basin || !basin) return;
+	add('design.basin.sku', BASE_BUCKET, design.basin.sku, 'Basin', {
+		count: 1,
+		volumeM3: basin.grossVolumeM3
+	});
+	if (design.basin.fill.kind === 'gravel') {
+		add('design.basin.fill.sku', BASE_BUCKET, design.basin.fill.sku, 'Basin fill', {
 			volumeM3: basin.grossVolumeM3
 		});
-		if (design.basin.fill.kind === 'gravel') {
-			add('design.basin.fill.sku', BASE_BUCKET, design.basin.fill.sku, 'Basin fill', {
-				volumeM3: basin.grossVolumeM3
-			});
-		}
 	}
+}
+
+function stoneAndAggregateLines({ design, stones, aggregates }: TakeoffParts, add: Add) {
 	stones.stones.forEach((s, i) => {
 		add(`design.stones.${i}.sku`, bucketOf(s.optionId), design.stones[i].sku, s.name, {
 			count: s.count,
@@ -133,43 +132,63 @@ function partLines(parts: TakeoffParts): PathedLine[] {
 			massKg: a.massKg
 		});
 	});
+}
+
+function wallLines({ design, walls }: TakeoffParts, add: Add) {
 	walls.forEach((w, i) => {
 		const input = design.walls[i];
 		const bucket = bucketOf(w.optionId);
-		add(`design.walls.${i}.unitSku`, bucket, input.unitSku, `${w.name} units`, { count: w.units });
-		add(`design.walls.${i}.capSku`, bucket, input.capSku, `${w.name} caps`, { count: w.caps });
-		add(`design.walls.${i}.padSku`, bucket, input.padSku, `${w.name} levelling pad`, {
+		const path = `design.walls.${i}`;
+		add(`${path}.unitSku`, bucket, input.unitSku, `${w.name} units`, { count: w.units });
+		add(`${path}.capSku`, bucket, input.capSku, `${w.name} caps`, { count: w.caps });
+		add(`${path}.padSku`, bucket, input.padSku, `${w.name} levelling pad`, {
 			volumeM3: w.padVolumeM3
 		});
-		add(`design.walls.${i}.drainSku`, bucket, input.drainSku, `${w.name} drainage stone`, {
+		add(`${path}.drainSku`, bucket, input.drainSku, `${w.name} drainage stone`, {
 			volumeM3: w.drainVolumeM3
 		});
 	});
-	if (design.lighting && lighting) {
-		const bucket = bucketOf(design.lighting.optionId);
-		const placed = new Map<string, number>();
-		lighting.runs.forEach((r) =>
-			r.fixtures.forEach((f) => placed.set(f.fixtureId, (placed.get(f.fixtureId) ?? 0) + 1))
-		);
-		design.lighting.fixtures.forEach((f, i) => {
-			add(`design.lighting.fixtures.${i}.sku`, bucket, f.sku, f.name, {
-				count: placed.get(f.id) ?? 0
-			});
-		});
-		design.lighting.transformers.forEach((t, i) => {
-			add(`design.lighting.transformers.${i}.sku`, bucket, t.sku, t.name, { count: 1 });
-		});
-		lighting.runs.forEach((r, i) => {
-			add(
-				`design.lighting.runs.${i}.cableSku`,
-				bucket,
-				design.lighting!.runs[i].cableSku,
-				`Cable, run ${r.id}`,
-				{ lengthM: r.cableLengthM }
-			);
-		});
+}
+
+function lightingLines({ design, lighting }: TakeoffParts, add: Add) {
+	const input = design.lighting;
+	if (!input || !lighting) return;
+	const bucket = bucketOf(input.optionId);
+	const placed = new Map<string, number>();
+	for (const run of lighting.runs) {
+		for (const f of run.fixtures) placed.set(f.fixtureId, (placed.get(f.fixtureId) ?? 0) + 1);
 	}
-	design.extraLines.forEach((l, i) => {
+	input.fixtures.forEach((f, i) => {
+		add(`design.lighting.fixtures.${i}.sku`, bucket, f.sku, f.name, {
+			count: placed.get(f.id) ?? 0
+		});
+	});
+	input.transformers.forEach((t, i) => {
+		add(`design.lighting.transformers.${i}.sku`, bucket, t.sku, t.name, { count: 1 });
+	});
+	lighting.runs.forEach((r, i) => {
+		add(
+			`design.lighting.runs.${i}.cableSku`,
+			bucket,
+			input.runs[i].cableSku,
+			`Cable, run ${r.id}`,
+			{
+				lengthM: r.cableLengthM
+			}
+		);
+	});
+}
+
+function partLines(parts: TakeoffParts): PathedLine[] {
+	const lines: PathedLine[] = [];
+	const add: Add = (path, bucket, sku, description, measure) => {
+		if (sku) lines.push({ path, bucket, sku, description, measure });
+	};
+	basinLines(parts, add);
+	stoneAndAggregateLines(parts, add);
+	wallLines(parts, add);
+	lightingLines(parts, add);
+	parts.design.extraLines.forEach((l, i) => {
 		add(`design.extraLines.${i}.sku`, bucketOf(l.optionId), l.sku, 'Added line', {
 			direct: l.quantity
 		});
