@@ -256,6 +256,8 @@ const laborRateSchema = z.object({
 });
 
 const hours = nonNegative;
+// The firm's settings. Defaults without a note are invented starting points for a firm to replace
+// with its own figures (no source).
 export const settingsSchema = z.object({
 	markupPercent: nonNegative.default(0),
 	taxRatePercent: percent.default(0),
@@ -265,12 +267,14 @@ export const settingsSchema = z.object({
 	evaporationInPerDay: nonNegative.default(0.25),
 	splashLossPercentPerDay: percent.default(0.05),
 	minDaysBetweenTopUps: nonNegative.default(3),
+	// 15% flow margin and 5 ft/s in plastic pipe (common practice, no source).
 	pumpMarginPercent: percent.default(15),
 	velocityLimitFtS: positive.default(5),
 	lossPer100Limit: positive.default(10),
 	dailyRunHours: z.number().nonnegative().max(24, 'At most 24 hours').default(12),
 	seasonMonths: z.number().nonnegative().max(12, 'At most 12 months').default(7),
 	wetFilmMm: nonNegative.default(1),
+	// ISPSC section 305 wants a barrier around water over 24 in deep (from memory).
 	openWaterDepthIn: positive.default(24),
 	aggregateWastePercent: percent.default(10),
 	lift: z
@@ -284,6 +288,7 @@ export const settingsSchema = z.object({
 			couplingMultiplier: z.number().min(0).max(1).default(1)
 		})
 		.prefault({}),
+	// UK HSE L23: a two-person team manages about two-thirds of the sum of its members (from memory).
 	teamLiftEfficiency: z
 		.number()
 		.gt(0)
@@ -297,6 +302,8 @@ export const settingsSchema = z.object({
 	machineCrew: count.min(1).default(2),
 	wall: z
 		.object({
+			// IRC R105.2 (permit over 4 ft from the footing) and R404.4 (design over 48 in of
+			// unbalanced fill, or over 24 in with a surcharge).
 			permitHeightIn: positive.default(48),
 			engineeredHeightIn: positive.default(48),
 			surchargeEngineeredHeightIn: positive.default(24),
@@ -305,6 +312,7 @@ export const settingsSchema = z.object({
 		.prefault({}),
 	lighting: z
 		.object({
+			// 80% transformer loading and a 10.5–12.5 V window at the fixture (common practice, no source).
 			loadWarnRatio: z.number().gt(0).max(1).default(0.8),
 			nominalVolts: positive.default(12),
 			fixtureMinVolts: positive.default(10.5),
