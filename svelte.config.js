@@ -7,7 +7,7 @@ const config = {
 	extensions: ['.svelte', '.md'],
 	preprocess: [vitePreprocess(), mdsvex({ extensions: ['.md'] })],
 	kit: {
-		adapter: adapter({ out: 'build' }),
+		adapter: adapter({ out: process.env.BUILD_DIR ?? 'build' }),
 		alias: { $content: 'content' }
 	}
 };

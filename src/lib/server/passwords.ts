@@ -9,9 +9,6 @@ export const ARGON2_PARAMS = {
 	outputLen: 32
 } as const;
 
-export const PASSWORD_MIN = 12;
-export const PASSWORD_MAX = 128;
-
 export function hashPassword(password: string): Promise<string> {
 	return hash(password, ARGON2_PARAMS);
 }

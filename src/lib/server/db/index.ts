@@ -1,11 +1,14 @@
 import { drizzle } from 'drizzle-orm/postgres-js';
 import postgres from 'postgres';
-import { env } from '$env/dynamic/private';
+import { building } from '$app/environment';
+import { env } from '../env';
 import * as schema from './schema';
 
-if (!env.DATABASE_URL) throw new Error('DATABASE_URL is not set (see .env.example)');
+// While building (prerendering) nothing queries the database, so no URL is needed then.
+const url = env.DATABASE_URL ?? (building ? 'postgres://unused@127.0.0.1:9/unused' : undefined);
+if (!url) throw new Error('DATABASE_URL is not set (see .env.example)');
 
-export const client = postgres(env.DATABASE_URL, {
+export const client = postgres(url, {
 	max: Number(env.DATABASE_POOL_SIZE ?? 10),
 	connect_timeout: 5,
 	idle_timeout: 30,

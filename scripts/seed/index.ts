@@ -1,0 +1,38 @@
+import { sql as raw } from 'drizzle-orm';
+import { hashPassword } from '../../src/lib/server/passwords';
+import { settings, users } from '../../src/lib/server/db/schema';
+import { newId } from '../../src/lib/server/crypto';
+import { scriptDb } from '../lib/db';
+import { DEMO_FIRM, DEMO_STAFF } from './demo-data';
+
+export async function databaseIsEmpty(url: string): Promise<boolean> {
+	const { db, close } = scriptDb(url);
+	try {
+		const [row] = await db.select({ n: raw<number>`count(*)::int` }).from(users);
+		return row.n === 0;
+	} finally {
+		await close();
+	}
+}
+
+/** Writes the demo firm and its three staff users; safe to run twice. */
+export async function seedDemo(url: string): Promise<void> {
+	const { db, close } = scriptDb(url);
+	try {
+		await db.insert(settings).values({ id: 1, ...DEMO_FIRM }).onConflictDoUpdate({ target: settings.id, set: DEMO_FIRM });
+		for (const member of DEMO_STAFF) {
+			await db
+				.insert(users)
+				.values({
+					id: newId(),
+					email: member.email,
+					name: member.name,
+					role: member.role,
+					passwordHash: await hashPassword(member.password)
+				})
+				.onConflictDoNothing();
+		}
+	} finally {
+		await close();
+	}
+}

@@ -1,0 +1,12 @@
+// `npm run services`: only the local services (for `npm run dev` in another terminal, or tools).
+import { PortBusyError, startServices, stopOnSignals } from './lib/services';
+
+const profile = process.argv.includes('--test') ? 'test' : 'dev';
+try {
+	const services = await startServices(profile, { log: console.log });
+	stopOnSignals(services.stop);
+	console.log('Services running. Ctrl-C stops them.');
+} catch (error) {
+	console.error(error instanceof PortBusyError ? error.message : error);
+	process.exit(1);
+}

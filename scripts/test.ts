@@ -1,0 +1,71 @@
+// `npm test`: starts its own PostgreSQL and stand-ins on the test ports (fresh data each run),
+// then runs the unit and integration tests (vitest) and the end-to-end tests (Playwright)
+// against a production build. Exits non-zero on any failure.
+import { spawn } from 'node:child_process';
+import { appEnv, serviceConfig } from './lib/config';
+import { buildIfNeeded } from './lib/build';
+import { ensureDatabase } from './lib/postgres';
+import { runMigrations } from './lib/migrate';
+import { PortBusyError, startServices, stopOnSignals } from './lib/services';
+import { seedDemo } from './seed/index';
+
+const c = serviceConfig('test');
+process.env.PG_FSYNC = 'off'; // throwaway test cluster: durability is not needed, speed is
+
+let services;
+try {
+	services = await startServices('test', { fresh: true, log: (line) => console.log(`  ${line}`) });
+} catch (error) {
+	console.error(error instanceof PortBusyError ? error.message : error);
+	process.exit(1);
+}
+stopOnSignals(services.stop);
+
+const base = appEnv('test');
+const e2eDatabase = `${c.pgDatabase}_e2e`;
+const e2eUrl = `postgres://app@127.0.0.1:${c.pgPort}/${e2eDatabase}`;
+await ensureDatabase({ dataDir: services.pgDataDir, port: c.pgPort, database: e2eDatabase });
+await runMigrations(e2eUrl);
+await seedDemo(e2eUrl);
+
+const shared = {
+	...base,
+	TEST_PG_DATA: services.pgDataDir,
+	TEST_PG_PORT: String(c.pgPort),
+	TEST_S3_PORT: String(c.s3Port),
+	TEST_SMTP_PORT: String(c.smtpPort),
+	TEST_MAIL_API: `http://127.0.0.1:${c.mailWebPort}/api`,
+	E2E_DATABASE_URL: e2eUrl,
+	BUILD_DIR: '.test-build'
+};
+
+// Asynchronous on purpose: the stand-ins live in this process and must keep answering.
+function run(label: string, cmd: string, args: string[], env: Record<string, string>): Promise<boolean> {
+	console.log(`\n▶ ${label}`);
+	const child = spawn(cmd, args, { stdio: 'inherit', env: { ...process.env, ...env } });
+	return new Promise((resolve) => child.on('exit', (code) => resolve(code === 0)));
+}
+
+const only = process.argv.slice(2);
+const want = (step: string) => only.length === 0 || only.includes(step);
+const results: Record<string, boolean> = {};
+
+// Separate runs: integration files share one database and must not run beside each other.
+if (want('unit')) results.unit = await run('unit tests (vitest)', 'npx', ['vitest', 'run', '--project', 'unit'], shared);
+if (want('integration')) {
+	results.integration = await run('integration tests (vitest, real PostgreSQL and stand-ins)', 'npx', ['vitest', 'run', '--project', 'integration'], shared);
+}
+if (want('e2e')) {
+	try {
+		buildIfNeeded('.test-build', { ...shared, DATABASE_URL: e2eUrl }, true);
+		results.e2e = await run('end-to-end tests (Playwright, production build)', 'npx', ['playwright', 'test'], { ...shared, DATABASE_URL: e2eUrl });
+	} catch (error) {
+		console.error((error as Error).message);
+		results.e2e = false;
+	}
+}
+
+await services.stop();
+const failed = Object.entries(results).filter(([, ok]) => !ok).map(([name]) => name);
+console.log(failed.length ? `\n✗ failed: ${failed.join(', ')}` : '\n✓ every test step passed');
+process.exit(failed.length ? 1 : 0);

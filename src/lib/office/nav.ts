@@ -1,0 +1,18 @@
+import type { Role } from '$lib/server/db/schema';
+
+export interface NavItem {
+	href: string;
+	label: string;
+	roles: readonly Role[];
+}
+
+// Sections appear here as they are built; each is shown only to the roles it serves.
+export const OFFICE_NAV: readonly NavItem[] = [
+	{ href: '/office', label: 'Today', roles: ['owner', 'sales', 'crew'] },
+	{ href: '/office/team', label: 'Team', roles: ['owner'] },
+	{ href: '/office/settings', label: 'Settings', roles: ['owner'] }
+];
+
+export function navFor(role: Role): NavItem[] {
+	return OFFICE_NAV.filter((item) => item.roles.includes(role));
+}

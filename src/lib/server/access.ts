@@ -1,0 +1,42 @@
+// The one route-to-role table: the first line of defence, enforced in hooks.server.ts.
+// Every action and endpoint checks the role again with requireRole where it reads or writes.
+import { error, redirect, type RequestEvent } from '@sveltejs/kit';
+import type { Role } from './db/schema';
+import type { SessionUser } from './auth';
+
+export const ALL_STAFF: readonly Role[] = ['owner', 'sales', 'crew'];
+
+/** Longest matching prefix wins. Paths not listed under /office or /api are refused. */
+export const ROUTE_ROLES: ReadonlyArray<{ prefix: string; roles: readonly Role[] }> = [
+	{ prefix: '/office/team', roles: ['owner'] },
+	{ prefix: '/office/settings', roles: ['owner'] },
+	{ prefix: '/office/account', roles: ALL_STAFF },
+	{ prefix: '/office', roles: ALL_STAFF },
+	{ prefix: '/api/health', roles: [] },
+	{ prefix: '/api', roles: ALL_STAFF }
+];
+
+export function isGuarded(pathname: string): boolean {
+	return /^\/(office|api)(\/|$)/.test(pathname);
+}
+
+/** The roles allowed on a guarded path; an empty list means the path is public. */
+export function rolesFor(pathname: string): readonly Role[] | null {
+	let best: { prefix: string; roles: readonly Role[] } | null = null;
+	for (const rule of ROUTE_ROLES) {
+		const matches = pathname === rule.prefix || pathname.startsWith(rule.prefix + '/');
+		if (matches && (!best || rule.prefix.length > best.prefix.length)) best = rule;
+	}
+	return best?.roles ?? null;
+}
+
+/** Re-checks the role inside an action or endpoint; returns the signed-in user. */
+export function requireRole(event: Pick<RequestEvent, 'locals' | 'url'>, ...roles: Role[]): SessionUser {
+	const user = event.locals.user;
+	if (!user) {
+		if (event.url.pathname.startsWith('/api')) error(401, 'Sign in first');
+		redirect(303, `/sign-in?next=${encodeURIComponent(event.url.pathname + event.url.search)}`);
+	}
+	if (!roles.includes(user.role)) error(403, 'Your role does not allow this');
+	return user;
+}

@@ -1,0 +1,40 @@
+import { eq } from 'drizzle-orm';
+import { z } from 'zod';
+import { db } from './db';
+import { settings, type Settings } from './db/schema';
+
+export async function firmSettings(): Promise<Settings> {
+	const [row] = await db.select().from(settings).where(eq(settings.id, 1)).limit(1);
+	if (!row) throw new Error('The firm settings are missing: run `npm run seed` or `npm run user:create`.');
+	return row;
+}
+
+function isTimeZone(value: string): boolean {
+	try {
+		new Intl.DateTimeFormat('en-US', { timeZone: value });
+		return true;
+	} catch {
+		return false;
+	}
+}
+
+export const settingsSchema = z.object({
+	firmName: z.string().trim().min(1, 'Enter the firm name').max(120),
+	timeZone: z.string().trim().refine(isTimeZone, 'Use a time zone name such as America/Denver'),
+	email: z.string().trim().pipe(z.email('Enter a valid e-mail address')),
+	phone: z.string().trim().min(7, 'Enter a phone number').max(40),
+	street: z.string().trim().max(200),
+	town: z.string().trim().max(120),
+	region: z.string().trim().max(60),
+	postalCode: z.string().trim().max(20),
+	serviceArea: z.string().trim().max(500),
+	replyTargetHours: z.coerce.number().int('Whole hours').min(1, 'At least 1 hour').max(168, 'At most a week')
+});
+export type SettingsInput = z.infer<typeof settingsSchema>;
+
+export async function saveSettings(input: SettingsInput): Promise<void> {
+	await db
+		.insert(settings)
+		.values({ id: 1, ...input })
+		.onConflictDoUpdate({ target: settings.id, set: input });
+}

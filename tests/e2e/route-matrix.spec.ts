@@ -1,0 +1,73 @@
+// The route-and-role matrix, built from the route tree: a new office or API route that is not
+// listed here fails the first test, so none can ship without its expected statuses.
+import { resolve } from 'node:path';
+import { expect, test, type APIRequestContext } from '@playwright/test';
+import { routeFiles } from '../../src/lib/server/route-files';
+import { apiAs, type DemoRole } from './pages/staff';
+
+type Who = 'anonymous' | DemoRole;
+type Expect = Record<Who, number>;
+
+const STAFF: Expect = { anonymous: 303, owner: 200, sales: 200, crew: 200 };
+const OWNER_ONLY: Expect = { anonymous: 303, owner: 200, sales: 403, crew: 403 };
+const PUBLIC_API: Expect = { anonymous: 200, owner: 200, sales: 200, crew: 200 };
+
+/** Pages and endpoints by URL pattern, with the status each kind of visitor gets on GET. */
+const PAGES: Record<string, Expect> = {
+	'/office': STAFF,
+	'/office/team': OWNER_ONLY,
+	'/office/settings': OWNER_ONLY,
+	'/api/health': PUBLIC_API
+};
+
+/** Form actions (POST), with the status each gets before any validation. */
+const ACTIONS: Record<string, Expect> = {
+	'/office/team?/invite': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
+	'/office/team?/role': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
+	'/office/team?/disable': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
+	'/office/team?/enable': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
+	'/office/settings': { anonymous: 303, owner: 400, sales: 403, crew: 403 }
+};
+
+const guardedPatterns = [
+	...new Set(
+		routeFiles(resolve('src/routes'))
+			.filter((r) => /^\/(office|api|estimate|visit|change-order)(\/|$)/.test(r.pattern) && r.kind !== 'layout-server')
+			.map((r) => r.pattern)
+	)
+];
+
+test('every guarded route in the tree has expected statuses', () => {
+	const missing = guardedPatterns.filter((p) => !PAGES[p]);
+	expect(missing, 'add these routes to PAGES in route-matrix.spec.ts').toEqual([]);
+});
+
+const contexts = new Map<Who, APIRequestContext>();
+test.beforeAll(async ({ baseURL }) => {
+	for (const who of ['anonymous', 'owner', 'sales', 'crew'] as const) {
+		contexts.set(who, await apiAs(baseURL!, who === 'anonymous' ? null : who));
+	}
+});
+test.afterAll(async () => {
+	for (const ctx of contexts.values()) await ctx.dispose();
+});
+
+for (const [path, expected] of Object.entries(PAGES)) {
+	test(`GET ${path}`, async () => {
+		for (const [who, status] of Object.entries(expected) as [Who, number][]) {
+			const anonApi = who === 'anonymous' && path.startsWith('/api') && status !== 200;
+			const res = await contexts.get(who)!.get(path, { maxRedirects: 0 });
+			expect(res.status(), `${who} on ${path}`).toBe(anonApi ? 401 : status);
+			if (status === 303) expect(res.headers().location).toMatch(/^\/sign-in\?next=/);
+		}
+	});
+}
+
+for (const [path, expected] of Object.entries(ACTIONS)) {
+	test(`POST ${path}`, async () => {
+		for (const [who, status] of Object.entries(expected) as [Who, number][]) {
+			const res = await contexts.get(who)!.post(path, { form: {}, maxRedirects: 0 });
+			expect(res.status(), `${who} posting ${path}`).toBe(status);
+		}
+	});
+}

@@ -1,0 +1,136 @@
+import { beforeEach, describe, expect, it } from 'vitest';
+import { eq } from 'drizzle-orm';
+import { db } from '$lib/server/db';
+import { sessions, signInAttempts, users } from '$lib/server/db/schema';
+import { createSession, endSession, validateSessionToken } from '$lib/server/auth';
+import { attemptSignIn } from '$lib/server/signin';
+import { setDisabled } from '$lib/server/team';
+import { THROTTLE } from '$lib/server/throttle';
+import { sha256 } from '$lib/server/crypto';
+import { resetDatabase } from '../support/database';
+import { makeUser, PASSWORD, seedFirm } from './fixtures';
+
+beforeEach(async () => {
+	await resetDatabase();
+	await seedFirm();
+});
+
+describe('password storage', () => {
+	it('stores argon2id with m=19456 KiB, t=2, p=1 (OWASP Password Storage Cheat Sheet minimum)', async () => {
+		const user = await makeUser('owner');
+		const [row] = await db.select().from(users).where(eq(users.id, user.id));
+		expect(row.passwordHash).toMatch(/^\$argon2id\$v=19\$m=19456,t=2,p=1\$/);
+		expect(row.passwordHash).not.toContain(PASSWORD);
+	});
+});
+
+describe('sign-in', () => {
+	it('accepts the right password and refuses a wrong one', async () => {
+		const user = await makeUser('sales');
+		expect(await attemptSignIn(user.email, PASSWORD, '10.0.0.1')).toEqual({ ok: true, userId: user.id });
+		expect(await attemptSignIn(user.email, 'wrong password here', '10.0.0.1')).toEqual({ ok: false, reason: 'mismatch' });
+	});
+
+	it('answers an unknown e-mail exactly like a wrong password', async () => {
+		await makeUser('sales');
+		expect(await attemptSignIn('nobody@test.example', PASSWORD, '10.0.0.2')).toEqual({ ok: false, reason: 'mismatch' });
+	});
+
+	it('spends the same hashing work on unknown e-mails as on known ones', async () => {
+		const user = await makeUser('sales');
+		const time = async (email: string) => {
+			const runs: number[] = [];
+			for (let i = 0; i < 4; i++) {
+				const start = performance.now();
+				await attemptSignIn(email, `wrong-password-${i}`, `10.1.0.${i}`);
+				runs.push(performance.now() - start);
+				await db.delete(signInAttempts);
+			}
+			return runs.sort((a, b) => a - b)[1];
+		};
+		await time(user.email); // warm-up
+		const known = await time(user.email);
+		const unknown = await time('nobody@test.example');
+		// Without the dummy verification an unknown e-mail answers in about a millisecond (a lookup only);
+		// with it, both are dominated by one argon2id verification.
+		expect(unknown / known).toBeGreaterThan(0.5);
+		expect(unknown / known).toBeLessThan(2);
+	});
+
+	it('refuses a disabled member even with the right password', async () => {
+		const owner = await makeUser('owner');
+		const crew = await makeUser('crew');
+		await setDisabled(owner.id, crew.id, true);
+		expect(await attemptSignIn(crew.email, PASSWORD, '10.0.0.3')).toEqual({ ok: false, reason: 'mismatch' });
+	});
+});
+
+describe('throttling', () => {
+	it(`locks an account after ${THROTTLE.perAccount} failures, even for the right password`, async () => {
+		const user = await makeUser('sales');
+		for (let i = 0; i < THROTTLE.perAccount; i++) {
+			expect((await attemptSignIn(user.email, 'not the password', `10.2.0.${i}`)).ok).toBe(false);
+		}
+		const locked = await attemptSignIn(user.email, PASSWORD, '10.2.0.99');
+		expect(locked).toMatchObject({ ok: false, reason: 'throttled' });
+	});
+
+	it('throttles unknown e-mails the same way, giving no hint that they do not exist', async () => {
+		for (let i = 0; i < THROTTLE.perAccount; i++) await attemptSignIn('ghost@test.example', 'guess', `10.3.0.${i}`);
+		expect(await attemptSignIn('ghost@test.example', 'guess', '10.3.0.50')).toMatchObject({ reason: 'throttled' });
+	});
+
+	it(`limits one address to ${THROTTLE.perAddress} failures across accounts`, async () => {
+		const user = await makeUser('owner');
+		for (let i = 0; i < THROTTLE.perAddress; i++) await attemptSignIn(`guess${i}@test.example`, 'guess', '10.4.0.1');
+		expect(await attemptSignIn(user.email, PASSWORD, '10.4.0.1')).toMatchObject({ reason: 'throttled' });
+		expect(await attemptSignIn(user.email, PASSWORD, '10.4.0.2')).toMatchObject({ ok: true });
+	});
+});
+
+describe('sessions', () => {
+	it('stores only the hash of the token', async () => {
+		const user = await makeUser('owner');
+		const { token } = await createSession(user.id);
+		const rows = await db.select().from(sessions);
+		expect(rows).toHaveLength(1);
+		expect(rows[0].id).toBe(sha256(token));
+		expect(rows[0].id).not.toContain(token);
+		expect((await validateSessionToken(token))?.user.email).toBe(user.email);
+	});
+
+	it('sign-out ends the session on the server', async () => {
+		const user = await makeUser('owner');
+		const { token } = await createSession(user.id);
+		await endSession(sha256(token));
+		expect(await validateSessionToken(token)).toBeNull();
+	});
+
+	it('disabling a member ends all their sessions', async () => {
+		const owner = await makeUser('owner');
+		const sales = await makeUser('sales');
+		const a = await createSession(sales.id);
+		const b = await createSession(sales.id);
+		await setDisabled(owner.id, sales.id, true);
+		expect(await validateSessionToken(a.token)).toBeNull();
+		expect(await validateSessionToken(b.token)).toBeNull();
+		expect(await db.select().from(sessions).where(eq(sessions.userId, sales.id))).toHaveLength(0);
+	});
+
+	it('ends a session past its 12-hour absolute lifetime even while it is in use', async () => {
+		const user = await makeUser('sales');
+		const { token } = await createSession(user.id);
+		const row = (await db.select().from(sessions))[0];
+		expect(row.absoluteExpiresAt.getTime() - row.createdAt.getTime()).toBeGreaterThan(11.9 * 3600_000);
+		expect(row.absoluteExpiresAt.getTime() - row.createdAt.getTime()).toBeLessThanOrEqual(12 * 3600_000 + 1000);
+		await db.update(sessions).set({ absoluteExpiresAt: new Date(Date.now() - 1000), expiresAt: new Date(Date.now() + 3600_000) });
+		expect(await validateSessionToken(token)).toBeNull();
+	});
+
+	it('ends a session left idle past its expiry', async () => {
+		const user = await makeUser('sales');
+		const { token } = await createSession(user.id);
+		await db.update(sessions).set({ expiresAt: new Date(Date.now() - 1000) });
+		expect(await validateSessionToken(token)).toBeNull();
+	});
+});
