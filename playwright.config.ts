@@ -17,18 +17,36 @@ export default defineConfig({
 		screenshot: 'only-on-failure',
 		launchOptions: {
 			executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-			args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run']
+			args: [
+				'--no-sandbox',
+				'--disable-gpu',
+				'--disable-background-networking',
+				'--disable-component-update',
+				'--disable-sync',
+				'--no-first-run'
+			]
 		}
 	},
 	projects: [
 		{ name: 'main', testIgnore: /faults\//, use: { ...devices['Desktop Chrome'] } },
-		{ name: 'faults', testMatch: /faults\/.*\.spec\.ts/, dependencies: ['main'], use: { ...devices['Desktop Chrome'] } }
+		{
+			name: 'faults',
+			testMatch: /faults\/.*\.spec\.ts/,
+			dependencies: ['main'],
+			use: { ...devices['Desktop Chrome'] }
+		}
 	],
 	webServer: {
 		command: `node ${process.env.BUILD_DIR ?? '.test-build'}`,
 		url: `${baseURL}/sign-in`,
 		reuseExistingServer: false,
 		timeout: 60_000,
-		env: { ...(process.env as Record<string, string>), HOST: '127.0.0.1', PORT: String(port), ORIGIN: baseURL, NODE_ENV: 'production' }
+		env: {
+			...(process.env as Record<string, string>),
+			HOST: '127.0.0.1',
+			PORT: String(port),
+			ORIGIN: baseURL,
+			NODE_ENV: 'production'
+		}
 	}
 });

@@ -22,7 +22,14 @@ export default {
 				},
 				lichen: { 100: '#e6ecd9', 500: '#6b7f45', 700: '#4b5a2f' },
 				ember: { 100: '#f6e2d3', 500: '#b55d2a', 600: '#9c4c1f', 700: '#7d3c17' },
-				signal: { warn: '#8a5a00', warnbg: '#fff4d6', bad: '#a1261d', badbg: '#fde8e6', good: '#2f6b2f', goodbg: '#e5f3e2' }
+				signal: {
+					warn: '#8a5a00',
+					warnbg: '#fff4d6',
+					bad: '#a1261d',
+					badbg: '#fde8e6',
+					good: '#2f6b2f',
+					goodbg: '#e5f3e2'
+				}
 			},
 			fontFamily: {
 				display: ['Fraunces', 'Georgia', 'serif'],

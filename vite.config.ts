@@ -20,6 +20,10 @@ export default defineConfig({
 			},
 			{
 				extends: './vite.config.ts',
+				test: { name: 'site', environment: 'node', include: ['tests/site/**/*.spec.ts'] }
+			},
+			{
+				extends: './vite.config.ts',
 				test: {
 					name: 'integration',
 					environment: 'node',

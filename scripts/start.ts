@@ -13,7 +13,9 @@ const c = serviceConfig('dev');
 const env = appEnv('dev');
 
 if (await portInUse(c.appPort)) {
-	console.error(`Port ${c.appPort} on 127.0.0.1 is in use: Rillstone (or something else) is already running there. Stop it first, or set PORT.`);
+	console.error(
+		`Port ${c.appPort} on 127.0.0.1 is in use: Rillstone (or something else) is already running there. Stop it first, or set PORT.`
+	);
 	process.exit(1);
 }
 
@@ -40,8 +42,15 @@ try {
 }
 
 const app = dev
-	? spawn('npx', ['vite', 'dev', '--host', '127.0.0.1', '--port', String(c.appPort), '--strictPort'], { stdio: 'inherit', env: { ...process.env, ...env } })
-	: spawn(process.execPath, ['build'], { stdio: 'inherit', env: { ...process.env, ...env, NODE_ENV: 'production' } });
+	? spawn(
+			'npx',
+			['vite', 'dev', '--host', '127.0.0.1', '--port', String(c.appPort), '--strictPort'],
+			{ stdio: 'inherit', env: { ...process.env, ...env } }
+		)
+	: spawn(process.execPath, ['build'], {
+			stdio: 'inherit',
+			env: { ...process.env, ...env, NODE_ENV: 'production' }
+		});
 
 stopOnSignals(services.stop, () => app.kill('SIGTERM'));
 app.on('exit', (code) => {

@@ -36,11 +36,16 @@ const shared = {
 	TEST_SMTP_PORT: String(c.smtpPort),
 	TEST_MAIL_API: `http://127.0.0.1:${c.mailWebPort}/api`,
 	E2E_DATABASE_URL: e2eUrl,
-	BUILD_DIR: '.test-build'
+	BUILD_DIR: process.env.BUILD_DIR ?? '.test-build'
 };
 
 // Asynchronous on purpose: the stand-ins live in this process and must keep answering.
-function run(label: string, cmd: string, args: string[], env: Record<string, string>): Promise<boolean> {
+function run(
+	label: string,
+	cmd: string,
+	args: string[],
+	env: Record<string, string>
+): Promise<boolean> {
 	console.log(`\n▶ ${label}`);
 	const child = spawn(cmd, args, { stdio: 'inherit', env: { ...process.env, ...env } });
 	return new Promise((resolve) => child.on('exit', (code) => resolve(code === 0)));
@@ -51,14 +56,32 @@ const want = (step: string) => only.length === 0 || only.includes(step);
 const results: Record<string, boolean> = {};
 
 // Separate runs: integration files share one database and must not run beside each other.
-if (want('unit')) results.unit = await run('unit tests (vitest)', 'npx', ['vitest', 'run', '--project', 'unit'], shared);
+if (want('unit')) {
+	results.unit = await run(
+		'unit tests (vitest)',
+		'npx',
+		['vitest', 'run', '--project', 'unit'],
+		shared
+	);
+}
 if (want('integration')) {
-	results.integration = await run('integration tests (vitest, real PostgreSQL and stand-ins)', 'npx', ['vitest', 'run', '--project', 'integration'], shared);
+	results.integration = await run(
+		'integration tests (vitest, real PostgreSQL and stand-ins)',
+		'npx',
+		['vitest', 'run', '--project', 'integration'],
+		shared
+	);
 }
 if (want('e2e')) {
 	try {
-		buildIfNeeded('.test-build', { ...shared, DATABASE_URL: e2eUrl }, true);
-		results.e2e = await run('end-to-end tests (Playwright, production build)', 'npx', ['playwright', 'test'], { ...shared, DATABASE_URL: e2eUrl });
+		buildIfNeeded(shared.BUILD_DIR, { ...shared, DATABASE_URL: e2eUrl }, true);
+		results.site = await run('build-output tests of the public site', 'npx', ['vitest', 'run', '--project', 'site'], shared);
+		results.e2e = await run(
+			'end-to-end tests (Playwright, production build)',
+			'npx',
+			['playwright', 'test'],
+			{ ...shared, DATABASE_URL: e2eUrl }
+		);
 	} catch (error) {
 		console.error((error as Error).message);
 		results.e2e = false;
@@ -66,6 +89,8 @@ if (want('e2e')) {
 }
 
 await services.stop();
-const failed = Object.entries(results).filter(([, ok]) => !ok).map(([name]) => name);
+const failed = Object.entries(results)
+	.filter(([, ok]) => !ok)
+	.map(([name]) => name);
 console.log(failed.length ? `\n✗ failed: ${failed.join(', ')}` : '\n✓ every test step passed');
 process.exit(failed.length ? 1 : 0);

@@ -11,7 +11,11 @@ import { databaseUrl } from './lib/config';
 import { scriptDb } from './lib/db';
 
 const { values } = parseArgs({
-	options: { email: { type: 'string' }, role: { type: 'string', default: 'owner' }, name: { type: 'string' } }
+	options: {
+		email: { type: 'string' },
+		role: { type: 'string', default: 'owner' },
+		name: { type: 'string' }
+	}
 });
 
 function fail(message: string): never {
@@ -40,19 +44,32 @@ const role = roleSchema.safeParse(values.role);
 if (!role.success) fail('--role must be owner, sales or crew');
 const name = (values.name ?? email.data.split('@')[0]).trim();
 
-const password = newPassword.safeParse(process.env.USER_PASSWORD ?? (await askHidden('Password: ')));
+const password = newPassword.safeParse(
+	process.env.USER_PASSWORD ?? (await askHidden('Password: '))
+);
 if (!password.success) fail(`Password: ${password.error.issues[0].message}`);
 
 const { db, close } = scriptDb(process.env.DATABASE_URL ?? databaseUrl('dev'));
 try {
-	const [existing] = await db.select({ id: users.id }).from(users).where(eq(users.email, email.data));
+	const [existing] = await db
+		.select({ id: users.id })
+		.from(users)
+		.where(eq(users.email, email.data));
 	if (existing) fail(`${email.data} already has an account.`);
 	await db
 		.insert(settings)
 		.values({ id: 1, firmName: 'Our firm', email: email.data, phone: 'not set yet' })
 		.onConflictDoNothing();
-	await db.insert(users).values({ id: newId(), email: email.data, name, role: role.data, passwordHash: await hashPassword(password.data) });
-	console.log(`Created ${role.data} ${name} <${email.data}>. Set the firm's details under Settings after signing in.`);
+	await db.insert(users).values({
+		id: newId(),
+		email: email.data,
+		name,
+		role: role.data,
+		passwordHash: await hashPassword(password.data)
+	});
+	console.log(
+		`Created ${role.data} ${name} <${email.data}>. Set the firm's details under Settings after signing in.`
+	);
 } finally {
 	await close();
 }

@@ -2,7 +2,15 @@ import { existsSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { spawnSync } from 'node:child_process';
 
-const SOURCES = ['src', 'content', 'static', 'svelte.config.js', 'vite.config.ts', 'tailwind.config.ts', 'package-lock.json'];
+const SOURCES = [
+	'src',
+	'content',
+	'static',
+	'svelte.config.js',
+	'vite.config.ts',
+	'tailwind.config.ts',
+	'package-lock.json'
+];
 
 function newestMtime(path: string): number {
 	if (!existsSync(path)) return 0;
@@ -16,7 +24,10 @@ function newestMtime(path: string): number {
 /** Builds the production app into `outDir` unless it is newer than every source file. */
 export function buildIfNeeded(outDir: string, env: Record<string, string>, force = false): void {
 	const marker = join(outDir, 'handler.js');
-	const stale = force || !existsSync(marker) || Math.max(...SOURCES.map(newestMtime)) > statSync(marker).mtimeMs;
+	const stale =
+		force ||
+		!existsSync(marker) ||
+		Math.max(...SOURCES.map(newestMtime)) > statSync(marker).mtimeMs;
 	if (!stale) return;
 	console.log(`Building the app into ${outDir}…`);
 	const result = spawnSync('npx', ['vite', 'build', '--logLevel', 'warn'], {

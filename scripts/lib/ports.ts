@@ -12,7 +12,11 @@ export function portInUse(port: number, host = '127.0.0.1'): Promise<boolean> {
 	});
 }
 
-export async function waitForPort(port: number, timeoutMs = 30_000, host = '127.0.0.1'): Promise<void> {
+export async function waitForPort(
+	port: number,
+	timeoutMs = 30_000,
+	host = '127.0.0.1'
+): Promise<void> {
 	const deadline = Date.now() + timeoutMs;
 	while (Date.now() < deadline) {
 		if (await portInUse(port, host)) return;

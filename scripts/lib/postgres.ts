@@ -25,7 +25,7 @@ function findBinDir(): string | null {
 export function postgresBinDir(): string {
 	let dir = findBinDir();
 	if (!dir && isRoot) {
-		console.log('PostgreSQL binaries not found: installing Debian\'s postgresql package…');
+		console.log("PostgreSQL binaries not found: installing Debian's postgresql package…");
 		execFileSync('apt-get', ['update', '-qq'], { stdio: 'inherit' });
 		execFileSync('apt-get', ['install', '-y', '-qq', 'postgresql'], {
 			stdio: 'inherit',
@@ -76,7 +76,18 @@ export function startCluster(c: PgCluster): void {
 	if (isClusterRunning(c.dataDir)) return;
 	if (isRoot && statSync(c.dataDir).uid === 0) throw new Error(`${c.dataDir} is owned by root`);
 	const opts = `-p ${c.port} -k ${c.dataDir} -c listen_addresses=127.0.0.1 -c max_connections=200 -c fsync=${process.env.PG_FSYNC ?? 'on'}`;
-	run('pg_ctl', ['-D', c.dataDir, '-o', opts, '-l', join(c.dataDir, 'server.log'), '-w', '-t', '60', 'start']);
+	run('pg_ctl', [
+		'-D',
+		c.dataDir,
+		'-o',
+		opts,
+		'-l',
+		join(c.dataDir, 'server.log'),
+		'-w',
+		'-t',
+		'60',
+		'start'
+	]);
 }
 
 export function stopCluster(dataDir: string): void {
@@ -85,7 +96,14 @@ export function stopCluster(dataDir: string): void {
 }
 
 export async function ensureDatabase(c: PgCluster): Promise<void> {
-	const sql = postgres({ host: '127.0.0.1', port: c.port, user: 'app', database: 'postgres', max: 1, onnotice: () => {} });
+	const sql = postgres({
+		host: '127.0.0.1',
+		port: c.port,
+		user: 'app',
+		database: 'postgres',
+		max: 1,
+		onnotice: () => {}
+	});
 	try {
 		const rows = await sql`select 1 from pg_database where datname = ${c.database}`;
 		if (rows.length === 0) await sql.unsafe(`create database "${c.database}"`);
@@ -95,7 +113,14 @@ export async function ensureDatabase(c: PgCluster): Promise<void> {
 }
 
 export async function dropDatabase(c: PgCluster): Promise<void> {
-	const sql = postgres({ host: '127.0.0.1', port: c.port, user: 'app', database: 'postgres', max: 1, onnotice: () => {} });
+	const sql = postgres({
+		host: '127.0.0.1',
+		port: c.port,
+		user: 'app',
+		database: 'postgres',
+		max: 1,
+		onnotice: () => {}
+	});
 	try {
 		await sql.unsafe(`drop database if exists "${c.database}" with (force)`);
 	} finally {

@@ -1,7 +1,14 @@
 // Starts PostgreSQL and the S3 and SMTP stand-ins for a profile, on 127.0.0.1 only.
 import { mkdirSync, rmSync } from 'node:fs';
 import { serviceConfig, databaseUrl, type Profile } from './config';
-import { ensureDatabase, initCluster, pgDataDir, startCluster, stopCluster, isClusterRunning } from './postgres';
+import {
+	ensureDatabase,
+	initCluster,
+	pgDataDir,
+	startCluster,
+	stopCluster,
+	isClusterRunning
+} from './postgres';
 import { portInUse } from './ports';
 import { runMigrations } from './migrate';
 import { startMail, startS3, type StandIn } from './standins';
@@ -13,7 +20,10 @@ export interface RunningServices {
 
 export class PortBusyError extends Error {}
 
-export async function startServices(profile: Profile, opts: { log?: (line: string) => void; fresh?: boolean } = {}): Promise<RunningServices> {
+export async function startServices(
+	profile: Profile,
+	opts: { log?: (line: string) => void; fresh?: boolean } = {}
+): Promise<RunningServices> {
 	const log = opts.log ?? (() => {});
 	const c = serviceConfig(profile);
 	mkdirSync(c.dataDir, { recursive: true });
@@ -24,9 +34,16 @@ export async function startServices(profile: Profile, opts: { log?: (line: strin
 			`PostgreSQL of ${c.dataDir} is already running: another \`npm ${profile === 'test' ? 'test' : 'start'}\` seems to be using it. Stop that one first.`
 		);
 	}
-	for (const [name, port] of [['PostgreSQL', c.pgPort], ['S3 stand-in', c.s3Port], ['SMTP stand-in', c.smtpPort], ['mail inbox', c.mailWebPort]] as const) {
+	for (const [name, port] of [
+		['PostgreSQL', c.pgPort],
+		['S3 stand-in', c.s3Port],
+		['SMTP stand-in', c.smtpPort],
+		['mail inbox', c.mailWebPort]
+	] as const) {
 		if (await portInUse(port)) {
-			throw new PortBusyError(`Port ${port} on 127.0.0.1 (for the ${name}) is in use. Is another copy running? Stop it, or set another port (see .env.example).`);
+			throw new PortBusyError(
+				`Port ${port} on 127.0.0.1 (for the ${name}) is in use. Is another copy running? Stop it, or set another port (see .env.example).`
+			);
 		}
 	}
 
@@ -47,7 +64,13 @@ export async function startServices(profile: Profile, opts: { log?: (line: strin
 		log(`PostgreSQL  127.0.0.1:${c.pgPort} (database ${c.pgDatabase}, data in ${pgDir})`);
 		started.push(await startS3({ port: c.s3Port, dataDir: c.dataDir, bucket: c.s3Bucket }));
 		log(`S3 stand-in http://127.0.0.1:${c.s3Port} (bucket ${c.s3Bucket})`);
-		started.push(await startMail({ smtpPort: c.smtpPort, webPort: c.mailWebPort, dataDir: profile === 'dev' ? c.dataDir : undefined }));
+		started.push(
+			await startMail({
+				smtpPort: c.smtpPort,
+				webPort: c.mailWebPort,
+				dataDir: profile === 'dev' ? c.dataDir : undefined
+			})
+		);
 		log(`SMTP        127.0.0.1:${c.smtpPort}, inbox http://127.0.0.1:${c.mailWebPort}`);
 	} catch (error) {
 		await stop();

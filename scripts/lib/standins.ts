@@ -9,7 +9,11 @@ export interface StandIn {
 	stop(): Promise<void>;
 }
 
-export async function startS3(opts: { port: number; dataDir: string; bucket: string }): Promise<StandIn> {
+export async function startS3(opts: {
+	port: number;
+	dataDir: string;
+	bucket: string;
+}): Promise<StandIn> {
 	const directory = join(opts.dataDir, 's3');
 	mkdirSync(directory, { recursive: true });
 	const server = new S3rver({
@@ -23,7 +27,11 @@ export async function startS3(opts: { port: number; dataDir: string; bucket: str
 	return { name: 's3', stop: () => server.close() };
 }
 
-export async function startMail(opts: { smtpPort: number; webPort: number; dataDir?: string }): Promise<StandIn> {
+export async function startMail(opts: {
+	smtpPort: number;
+	webPort: number;
+	dataDir?: string;
+}): Promise<StandIn> {
 	const mailDirectory = opts.dataDir ? join(opts.dataDir, 'mail') : undefined;
 	if (mailDirectory) mkdirSync(mailDirectory, { recursive: true });
 	const maildev = new MailDev({

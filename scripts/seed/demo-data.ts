@@ -13,7 +13,22 @@ export const DEMO_FIRM = {
 };
 
 export const DEMO_STAFF = [
-	{ name: 'Mara Quill', email: 'mara@copperleaf.example', role: 'owner', password: 'quill-demo-owner-2027' },
-	{ name: 'Teo Baptiste', email: 'teo@copperleaf.example', role: 'sales', password: 'baptiste-demo-sales-2027' },
-	{ name: 'Rosa Lindqvist', email: 'rosa@copperleaf.example', role: 'crew', password: 'lindqvist-demo-crew-2027' }
+	{
+		name: 'Mara Quill',
+		email: 'mara@copperleaf.example',
+		role: 'owner',
+		password: 'quill-demo-owner-2027'
+	},
+	{
+		name: 'Teo Baptiste',
+		email: 'teo@copperleaf.example',
+		role: 'sales',
+		password: 'baptiste-demo-sales-2027'
+	},
+	{
+		name: 'Rosa Lindqvist',
+		email: 'rosa@copperleaf.example',
+		role: 'crew',
+		password: 'lindqvist-demo-crew-2027'
+	}
 ] as const;

@@ -19,7 +19,10 @@ export async function databaseIsEmpty(url: string): Promise<boolean> {
 export async function seedDemo(url: string): Promise<void> {
 	const { db, close } = scriptDb(url);
 	try {
-		await db.insert(settings).values({ id: 1, ...DEMO_FIRM }).onConflictDoUpdate({ target: settings.id, set: DEMO_FIRM });
+		await db
+			.insert(settings)
+			.values({ id: 1, ...DEMO_FIRM })
+			.onConflictDoUpdate({ target: settings.id, set: DEMO_FIRM });
 		for (const member of DEMO_STAFF) {
 			await db
 				.insert(users)

@@ -7,7 +7,9 @@ test('a wrong password gets a clear message and keeps the e-mail typed', async (
 	await page.getByLabel('E-mail').fill(demoUser('sales').email);
 	await page.getByLabel('Password').fill('not the right password');
 	await page.getByRole('button', { name: 'Sign in' }).click();
-	await expect(page.getByRole('alert')).toHaveText('That e-mail and password do not match an active account.');
+	await expect(page.getByRole('alert')).toHaveText(
+		'That e-mail and password do not match an active account.'
+	);
 	await expect(page.getByLabel('E-mail')).toHaveValue(demoUser('sales').email);
 });
 
@@ -16,7 +18,9 @@ test('an unknown e-mail gets the very same message', async ({ page }) => {
 	await page.getByLabel('E-mail').fill('nobody@copperleaf.example');
 	await page.getByLabel('Password').fill('not the right password');
 	await page.getByRole('button', { name: 'Sign in' }).click();
-	await expect(page.getByRole('alert')).toHaveText('That e-mail and password do not match an active account.');
+	await expect(page.getByRole('alert')).toHaveText(
+		'That e-mail and password do not match an active account.'
+	);
 });
 
 test('a malformed e-mail is flagged beside its field', async ({ page }) => {
@@ -27,7 +31,9 @@ test('a malformed e-mail is flagged beside its field', async ({ page }) => {
 	await expect(page.getByText('Enter a valid e-mail address, like name@example.com')).toBeVisible();
 });
 
-test('the office sends an anonymous visitor to sign-in and back to the page asked for', async ({ page }) => {
+test('the office sends an anonymous visitor to sign-in and back to the page asked for', async ({
+	page
+}) => {
 	await page.goto('/office/team');
 	await expect(page).toHaveURL(/\/sign-in\?next=%2Foffice%2Fteam/);
 	const owner = demoUser('owner');
@@ -38,14 +44,19 @@ test('the office sends an anonymous visitor to sign-in and back to the page aske
 	await expect(page.getByRole('heading', { name: 'Team' })).toBeVisible();
 });
 
-test('each role sees only its own sections, and sign-out ends the session', async ({ page, context }) => {
+test('each role sees only its own sections, and sign-out ends the session', async ({
+	page,
+	context
+}) => {
 	await signIn(page, 'crew');
 	const nav = page.getByRole('navigation', { name: 'Office sections' });
 	await expect(nav.getByRole('link', { name: 'Today' })).toBeVisible();
 	await expect(nav.getByRole('link', { name: 'Team' })).toHaveCount(0);
 	const response = await page.goto('/office/team');
 	expect(response?.status()).toBe(403);
-	await expect(page.getByRole('heading', { name: 'Your role does not allow this page' })).toBeVisible();
+	await expect(
+		page.getByRole('heading', { name: 'Your role does not allow this page' })
+	).toBeVisible();
 
 	await page.goto('/office');
 	const cookie = (await context.cookies()).find((c) => c.name === 'rs_session')!;
@@ -68,7 +79,10 @@ test('signing in again gives a new session token', async ({ page, context }) => 
 	expect(second).not.toBe(first);
 });
 
-test('the owner invites a crew lead, who joins through the e-mailed link', async ({ page, browser }) => {
+test('the owner invites a crew lead, who joins through the e-mailed link', async ({
+	page,
+	browser
+}) => {
 	await clearMail();
 	const email = `invitee-${Date.now()}@copperleaf.example`;
 	await signIn(page, 'owner');

@@ -32,7 +32,11 @@ const ACTIONS: Record<string, Expect> = {
 const guardedPatterns = [
 	...new Set(
 		routeFiles(resolve('src/routes'))
-			.filter((r) => /^\/(office|api|estimate|visit|change-order)(\/|$)/.test(r.pattern) && r.kind !== 'layout-server')
+			.filter(
+				(r) =>
+					/^\/(office|api|estimate|visit|change-order)(\/|$)/.test(r.pattern) &&
+					r.kind !== 'layout-server'
+			)
 			.map((r) => r.pattern)
 	)
 ];

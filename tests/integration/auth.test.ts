@@ -27,13 +27,22 @@ describe('password storage', () => {
 describe('sign-in', () => {
 	it('accepts the right password and refuses a wrong one', async () => {
 		const user = await makeUser('sales');
-		expect(await attemptSignIn(user.email, PASSWORD, '10.0.0.1')).toEqual({ ok: true, userId: user.id });
-		expect(await attemptSignIn(user.email, 'wrong password here', '10.0.0.1')).toEqual({ ok: false, reason: 'mismatch' });
+		expect(await attemptSignIn(user.email, PASSWORD, '10.0.0.1')).toEqual({
+			ok: true,
+			userId: user.id
+		});
+		expect(await attemptSignIn(user.email, 'wrong password here', '10.0.0.1')).toEqual({
+			ok: false,
+			reason: 'mismatch'
+		});
 	});
 
 	it('answers an unknown e-mail exactly like a wrong password', async () => {
 		await makeUser('sales');
-		expect(await attemptSignIn('nobody@test.example', PASSWORD, '10.0.0.2')).toEqual({ ok: false, reason: 'mismatch' });
+		expect(await attemptSignIn('nobody@test.example', PASSWORD, '10.0.0.2')).toEqual({
+			ok: false,
+			reason: 'mismatch'
+		});
 	});
 
 	it('spends the same hashing work on unknown e-mails as on known ones', async () => {
@@ -61,7 +70,10 @@ describe('sign-in', () => {
 		const owner = await makeUser('owner');
 		const crew = await makeUser('crew');
 		await setDisabled(owner.id, crew.id, true);
-		expect(await attemptSignIn(crew.email, PASSWORD, '10.0.0.3')).toEqual({ ok: false, reason: 'mismatch' });
+		expect(await attemptSignIn(crew.email, PASSWORD, '10.0.0.3')).toEqual({
+			ok: false,
+			reason: 'mismatch'
+		});
 	});
 });
 
@@ -76,14 +88,22 @@ describe('throttling', () => {
 	});
 
 	it('throttles unknown e-mails the same way, giving no hint that they do not exist', async () => {
-		for (let i = 0; i < THROTTLE.perAccount; i++) await attemptSignIn('ghost@test.example', 'guess', `10.3.0.${i}`);
-		expect(await attemptSignIn('ghost@test.example', 'guess', '10.3.0.50')).toMatchObject({ reason: 'throttled' });
+		for (let i = 0; i < THROTTLE.perAccount; i++) {
+			await attemptSignIn('ghost@test.example', 'guess', `10.3.0.${i}`);
+		}
+		expect(await attemptSignIn('ghost@test.example', 'guess', '10.3.0.50')).toMatchObject({
+			reason: 'throttled'
+		});
 	});
 
 	it(`limits one address to ${THROTTLE.perAddress} failures across accounts`, async () => {
 		const user = await makeUser('owner');
-		for (let i = 0; i < THROTTLE.perAddress; i++) await attemptSignIn(`guess${i}@test.example`, 'guess', '10.4.0.1');
-		expect(await attemptSignIn(user.email, PASSWORD, '10.4.0.1')).toMatchObject({ reason: 'throttled' });
+		for (let i = 0; i < THROTTLE.perAddress; i++) {
+			await attemptSignIn(`guess${i}@test.example`, 'guess', '10.4.0.1');
+		}
+		expect(await attemptSignIn(user.email, PASSWORD, '10.4.0.1')).toMatchObject({
+			reason: 'throttled'
+		});
 		expect(await attemptSignIn(user.email, PASSWORD, '10.4.0.2')).toMatchObject({ ok: true });
 	});
 });
@@ -121,9 +141,16 @@ describe('sessions', () => {
 		const user = await makeUser('sales');
 		const { token } = await createSession(user.id);
 		const row = (await db.select().from(sessions))[0];
-		expect(row.absoluteExpiresAt.getTime() - row.createdAt.getTime()).toBeGreaterThan(11.9 * 3600_000);
-		expect(row.absoluteExpiresAt.getTime() - row.createdAt.getTime()).toBeLessThanOrEqual(12 * 3600_000 + 1000);
-		await db.update(sessions).set({ absoluteExpiresAt: new Date(Date.now() - 1000), expiresAt: new Date(Date.now() + 3600_000) });
+		expect(row.absoluteExpiresAt.getTime() - row.createdAt.getTime()).toBeGreaterThan(
+			11.9 * 3600_000
+		);
+		expect(row.absoluteExpiresAt.getTime() - row.createdAt.getTime()).toBeLessThanOrEqual(
+			12 * 3600_000 + 1000
+		);
+		await db.update(sessions).set({
+			absoluteExpiresAt: new Date(Date.now() - 1000),
+			expiresAt: new Date(Date.now() + 3600_000)
+		});
 		expect(await validateSessionToken(token)).toBeNull();
 	});
 

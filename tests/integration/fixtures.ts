@@ -6,7 +6,12 @@ import type { Role } from '$lib/server/db/schema';
 export const PASSWORD = 'correct horse battery';
 
 export async function seedFirm(): Promise<void> {
-	await db.insert(settings).values({ id: 1, firmName: 'Test Firm', email: 'office@test.example', phone: '(555) 010-0000' });
+	await db.insert(settings).values({
+		id: 1,
+		firmName: 'Test Firm',
+		email: 'office@test.example',
+		phone: '(555) 010-0000'
+	});
 }
 
 export async function makeUser(role: Role, email = `${role}@test.example`, name = `Test ${role}`) {

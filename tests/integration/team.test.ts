@@ -38,8 +38,14 @@ describe('invitations', () => {
 		const userId = await acceptInvitation(token, 'a brand new password');
 		expect(userId).toBeTruthy();
 		const [created] = await db.select().from(users).where(eq(users.id, userId!));
-		expect(created).toMatchObject({ email: 'new.crew@test.example', role: 'crew', name: 'New Crew' });
-		expect(await attemptSignIn('new.crew@test.example', 'a brand new password', '10.9.0.1')).toMatchObject({ ok: true });
+		expect(created).toMatchObject({
+			email: 'new.crew@test.example',
+			role: 'crew',
+			name: 'New Crew'
+		});
+		expect(
+			await attemptSignIn('new.crew@test.example', 'a brand new password', '10.9.0.1')
+		).toMatchObject({ ok: true });
 
 		expect(await acceptInvitation(token, 'another password!!')).toBeNull();
 		expect(await findOpenInvitation(token)).toBeNull();
@@ -48,16 +54,22 @@ describe('invitations', () => {
 	it('refuses an expired invitation and changes nothing', async () => {
 		const owner = await makeUser('owner');
 		await invite(owner.id, { email: 'late@test.example', name: 'Late', role: 'sales' });
-		const token = tokenOf(linkIn(await waitForMail('late@test.example', /Join/), /^\/invitation\//));
+		const token = tokenOf(
+			linkIn(await waitForMail('late@test.example', /Join/), /^\/invitation\//)
+		);
 		await db.update(invitations).set({ expiresAt: new Date(Date.now() - 1000) });
 		expect(await acceptInvitation(token, 'a brand new password')).toBeNull();
-		expect(await db.select().from(users).where(eq(users.email, 'late@test.example'))).toHaveLength(0);
+		expect(await db.select().from(users).where(eq(users.email, 'late@test.example'))).toHaveLength(
+			0
+		);
 	});
 
 	it('stores only the hash of the invitation token', async () => {
 		const owner = await makeUser('owner');
 		await invite(owner.id, { email: 'hash@test.example', name: 'Hash', role: 'sales' });
-		const token = tokenOf(linkIn(await waitForMail('hash@test.example', /Join/), /^\/invitation\//));
+		const token = tokenOf(
+			linkIn(await waitForMail('hash@test.example', /Join/), /^\/invitation\//)
+		);
 		const [row] = await db.select().from(invitations);
 		expect(row.tokenHash).not.toBe(token);
 		expect(row.tokenHash).toMatch(/^[0-9a-f]{64}$/);
@@ -65,7 +77,9 @@ describe('invitations', () => {
 
 	it('refuses to invite an address already on the team', async () => {
 		const owner = await makeUser('owner');
-		await expect(invite(owner.id, { email: owner.email, name: 'Again', role: 'sales' })).rejects.toThrow(TeamError);
+		await expect(
+			invite(owner.id, { email: owner.email, name: 'Again', role: 'sales' })
+		).rejects.toThrow(TeamError);
 	});
 });
 
@@ -82,7 +96,9 @@ describe('roles', () => {
 
 	it('keeps at least one active owner', async () => {
 		const owner = await makeUser('owner');
-		await expect(changeRole(owner.id, owner.id, 'sales')).rejects.toThrow(/at least one active owner/);
+		await expect(changeRole(owner.id, owner.id, 'sales')).rejects.toThrow(
+			/at least one active owner/
+		);
 		const other = await makeUser('owner', 'second@test.example');
 		await expect(setDisabled(other.id, owner.id, true)).resolves.toBeUndefined();
 		await expect(setDisabled(other.id, other.id, true)).rejects.toThrow(/your own account/);
@@ -94,13 +110,19 @@ describe('password reset', () => {
 		const user = await makeUser('sales');
 		const { token: sessionToken } = await createSession(user.id);
 		await requestPasswordReset(user.email);
-		const token = tokenOf(linkIn(await waitForMail(user.email, /Reset your Rillstone password/), /^\/reset\//));
+		const token = tokenOf(
+			linkIn(await waitForMail(user.email, /Reset your Rillstone password/), /^\/reset\//)
+		);
 		const [reset] = await db.select().from(passwordResets);
-		expect(reset.expiresAt.getTime() - reset.createdAt.getTime()).toBeLessThanOrEqual(3600_000 + 1000);
+		expect(reset.expiresAt.getTime() - reset.createdAt.getTime()).toBeLessThanOrEqual(
+			3600_000 + 1000
+		);
 
 		expect(await completePasswordReset(token, 'my new long password')).toBe(true);
 		expect(await validateSessionToken(sessionToken)).toBeNull();
-		expect(await attemptSignIn(user.email, 'my new long password', '10.8.0.1')).toMatchObject({ ok: true });
+		expect(await attemptSignIn(user.email, 'my new long password', '10.8.0.1')).toMatchObject({
+			ok: true
+		});
 		expect(await attemptSignIn(user.email, PASSWORD, '10.8.0.2')).toMatchObject({ ok: false });
 		expect(await completePasswordReset(token, 'yet another password')).toBe(false);
 	});

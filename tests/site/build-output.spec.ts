@@ -8,8 +8,9 @@ import { join, relative } from 'node:path';
 import { describe, expect, it } from 'vitest';
 
 const root = join(import.meta.dirname, '..', '..');
-const pre = join(root, 'build', 'prerendered');
-const client = join(root, 'build', 'client');
+const buildDir = process.env.BUILD_DIR ?? 'build';
+const pre = join(root, buildDir, 'prerendered');
+const client = join(root, buildDir, 'client');
 
 function walk(dir: string): string[] {
 	return readdirSync(dir).flatMap((name) => {

@@ -7,7 +7,9 @@ export async function resetDatabase(url = process.env.DATABASE_URL!): Promise<vo
 		const tables = await sql<{ tablename: string }[]>`
 			select tablename from pg_tables where schemaname = 'public'`;
 		if (tables.length) {
-			await sql.unsafe(`truncate ${tables.map((t) => `"${t.tablename}"`).join(', ')} restart identity cascade`);
+			await sql.unsafe(
+				`truncate ${tables.map((t) => `"${t.tablename}"`).join(', ')} restart identity cascade`
+			);
 		}
 	} finally {
 		await sql.end();

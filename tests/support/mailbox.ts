@@ -21,12 +21,19 @@ export async function clearMail(): Promise<void> {
 }
 
 /** Waits for a message to `to` whose subject matches, newest first. */
-export async function waitForMail(to: string, subject: RegExp, timeoutMs = 15_000): Promise<CaughtMail> {
+export async function waitForMail(
+	to: string,
+	subject: RegExp,
+	timeoutMs = 15_000
+): Promise<CaughtMail> {
 	const deadline = Date.now() + timeoutMs;
 	while (Date.now() < deadline) {
 		const found = (await allMail())
 			.reverse()
-			.find((m) => m.to.some((t) => t.address.toLowerCase() === to.toLowerCase()) && subject.test(m.subject));
+			.find(
+				(m) =>
+					m.to.some((t) => t.address.toLowerCase() === to.toLowerCase()) && subject.test(m.subject)
+			);
 		if (found) return found;
 		await new Promise((r) => setTimeout(r, 200));
 	}

@@ -23,7 +23,10 @@ export const signInSchema = z.object({
 
 export const setPasswordSchema = z
 	.object({ password: newPassword, confirm: z.string() })
-	.refine((v) => v.password === v.confirm, { path: ['confirm'], message: 'The two passwords differ' });
+	.refine((v) => v.password === v.confirm, {
+		path: ['confirm'],
+		message: 'The two passwords differ'
+	});
 
 export const roleSchema = z.enum(['owner', 'sales', 'crew'], { message: 'Pick a role' });
 
@@ -34,6 +37,8 @@ export const inviteSchema = z.object({
 });
 
 export const forgotSchema = z.object({ email });
+
+export type FormErrors = Record<string, string>;
 
 /** Field errors of a failed parse, one message per field. */
 export function fieldErrors(error: z.ZodError): Record<string, string> {
@@ -46,7 +51,10 @@ export function fieldErrors(error: z.ZodError): Record<string, string> {
 }
 
 /** Strings of a form, without files and secrets, to refill it after an error. */
-export function formValues(data: FormData, omit: string[] = ['password', 'confirm']): Record<string, string> {
+export function formValues(
+	data: FormData,
+	omit: string[] = ['password', 'confirm']
+): Record<string, string> {
 	const out: Record<string, string> = {};
 	for (const [key, value] of data) {
 		if (typeof value === 'string' && !omit.includes(key)) out[key] = value;

@@ -12,7 +12,13 @@ const HANDLERS = new Set(['GET', 'POST', 'PUT', 'PATCH', 'DELETE', 'fallback']);
 function callsRequireRole(node: ts.Node): boolean {
 	let found = false;
 	const visit = (n: ts.Node) => {
-		if (ts.isCallExpression(n) && ts.isIdentifier(n.expression) && n.expression.text === 'requireRole') found = true;
+		if (
+			ts.isCallExpression(n) &&
+			ts.isIdentifier(n.expression) &&
+			n.expression.text === 'requireRole'
+		) {
+			found = true;
+		}
 		if (!found) ts.forEachChild(n, visit);
 	};
 	visit(node);
@@ -21,12 +27,23 @@ function callsRequireRole(node: ts.Node): boolean {
 
 /** Every exported handler, action and load of a file, with whether it calls requireRole. */
 function checkedEntryPoints(file: string): { name: string; checked: boolean }[] {
-	const source = ts.createSourceFile(file, readFileSync(file, 'utf8'), ts.ScriptTarget.Latest, true);
+	const source = ts.createSourceFile(
+		file,
+		readFileSync(file, 'utf8'),
+		ts.ScriptTarget.Latest,
+		true
+	);
 	const out: { name: string; checked: boolean }[] = [];
 	for (const statement of source.statements) {
-		const exported = ts.canHaveModifiers(statement) && ts.getModifiers(statement)?.some((m) => m.kind === ts.SyntaxKind.ExportKeyword);
+		const exported =
+			ts.canHaveModifiers(statement) &&
+			ts.getModifiers(statement)?.some((m) => m.kind === ts.SyntaxKind.ExportKeyword);
 		if (!exported) continue;
-		if (ts.isFunctionDeclaration(statement) && statement.name && (HANDLERS.has(statement.name.text) || statement.name.text === 'load')) {
+		if (
+			ts.isFunctionDeclaration(statement) &&
+			statement.name &&
+			(HANDLERS.has(statement.name.text) || statement.name.text === 'load')
+		) {
 			out.push({ name: statement.name.text, checked: callsRequireRole(statement) });
 		}
 		if (!ts.isVariableStatement(statement)) continue;
@@ -37,7 +54,10 @@ function checkedEntryPoints(file: string): { name: string; checked: boolean }[] 
 			while (ts.isSatisfiesExpression(init) || ts.isAsExpression(init)) init = init.expression;
 			if (name === 'actions' && ts.isObjectLiteralExpression(init)) {
 				for (const prop of init.properties) {
-					out.push({ name: `actions.${prop.name?.getText(source)}`, checked: callsRequireRole(prop) });
+					out.push({
+						name: `actions.${prop.name?.getText(source)}`,
+						checked: callsRequireRole(prop)
+					});
 				}
 			} else if (HANDLERS.has(name) || name === 'load') {
 				out.push({ name, checked: callsRequireRole(init) });
@@ -61,7 +81,10 @@ describe('every office and API entry point re-checks the role', () => {
 			const unchecked = checkedEntryPoints(route.file)
 				.filter((e) => !e.checked && !(route.pattern === '/api/health'))
 				.map((e) => e.name);
-			expect(unchecked, `call requireRole(event, …) in ${unchecked.join(', ')} of ${route.file}`).toEqual([]);
+			expect(
+				unchecked,
+				`call requireRole(event, …) in ${unchecked.join(', ')} of ${route.file}`
+			).toEqual([]);
 		});
 	}
 });

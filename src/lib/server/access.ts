@@ -31,7 +31,10 @@ export function rolesFor(pathname: string): readonly Role[] | null {
 }
 
 /** Re-checks the role inside an action or endpoint; returns the signed-in user. */
-export function requireRole(event: Pick<RequestEvent, 'locals' | 'url'>, ...roles: Role[]): SessionUser {
+export function requireRole(
+	event: Pick<RequestEvent, 'locals' | 'url'>,
+	...roles: Role[]
+): SessionUser {
 	const user = event.locals.user;
 	if (!user) {
 		if (event.url.pathname.startsWith('/api')) error(401, 'Sign in first');

@@ -20,7 +20,10 @@ export const lucia = new Lucia(adapter, {
 	sessionCookie: {
 		name: 'rs_session',
 		expires: false,
-		attributes: { secure: origin().startsWith('https:') || process.env.COOKIE_SECURE === 'true', sameSite: 'lax' }
+		attributes: {
+			secure: origin().startsWith('https:') || process.env.COOKIE_SECURE === 'true',
+			sameSite: 'lax'
+		}
 	},
 	getSessionAttributes: (attributes) => ({ absoluteExpiresAt: attributes.absoluteExpiresAt }),
 	getUserAttributes: (attributes) => ({
@@ -34,7 +37,11 @@ export const lucia = new Lucia(adapter, {
 declare module 'lucia' {
 	interface Register {
 		Lucia: typeof lucia;
-		DatabaseSessionAttributes: { absoluteExpiresAt: Date; ipAddress: string | null; userAgent: string | null };
+		DatabaseSessionAttributes: {
+			absoluteExpiresAt: Date;
+			ipAddress: string | null;
+			userAgent: string | null;
+		};
 		DatabaseUserAttributes: { email: string; name: string; role: Role; disabledAt: Date | null };
 	}
 }
@@ -84,7 +91,12 @@ export async function validateSessionToken(
 	}
 	return {
 		user: { id: user.id, email: user.email, name: user.name, role: user.role },
-		session: { id, expiresAt: session.expiresAt, absoluteExpiresAt: session.absoluteExpiresAt, fresh: session.fresh }
+		session: {
+			id,
+			expiresAt: session.expiresAt,
+			absoluteExpiresAt: session.absoluteExpiresAt,
+			fresh: session.fresh
+		}
 	};
 }
 

@@ -1,10 +1,10 @@
 // Outgoing e-mail through nodemailer over SMTP (the maildev stand-in locally).
-import nodemailer from 'nodemailer';
+import nodemailer, { type SendMailOptions, type Transporter } from 'nodemailer';
 import { env } from './env';
 
-let transport: nodemailer.Transporter | null = null;
+let transport: Transporter | null = null;
 
-function transporter(): nodemailer.Transporter {
+function transporter(): Transporter {
 	transport ??= nodemailer.createTransport({
 		host: env.SMTP_HOST ?? '127.0.0.1',
 		port: Number(env.SMTP_PORT ?? 1025),
@@ -21,7 +21,7 @@ export interface Message {
 	subject: string;
 	text: string;
 	html: string;
-	attachments?: nodemailer.SendMailOptions['attachments'];
+	attachments?: SendMailOptions['attachments'];
 	messageId?: string;
 }
 
@@ -32,13 +32,23 @@ export async function sendMail(message: Message): Promise<void> {
 	});
 }
 
-const escapeMap: Record<string, string> = { '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' };
+const escapeMap: Record<string, string> = {
+	'&': '&amp;',
+	'<': '&lt;',
+	'>': '&gt;',
+	'"': '&quot;',
+	"'": '&#39;'
+};
 export function escapeHtml(value: string): string {
 	return value.replace(/[&<>"']/g, (c) => escapeMap[c]);
 }
 
 /** A plain, self-contained HTML body (no remote images) with the firm's sign-off. */
-export function htmlBody(paragraphs: string[], action?: { label: string; url: string }, footer = ''): string {
+export function htmlBody(
+	paragraphs: string[],
+	action?: { label: string; url: string },
+	footer = ''
+): string {
 	const body = paragraphs.map((p) => `<p style="margin:0 0 14px">${escapeHtml(p)}</p>`).join('');
 	const button = action
 		? `<p style="margin:20px 0"><a href="${escapeHtml(action.url)}" style="background:#1b5356;color:#fff;padding:10px 18px;border-radius:8px;text-decoration:none;font-weight:600">${escapeHtml(action.label)}</a></p><p style="font-size:13px;color:#3f4a45">Or paste this address into your browser: ${escapeHtml(action.url)}</p>`

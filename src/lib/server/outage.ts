@@ -28,6 +28,10 @@ export function outagePage(): Response {
 <body><main><h1>Back in a moment</h1><p>Our records are out of reach for a short while, so this page cannot be shown right now. Nothing you saved is lost.</p><p>Please try again in a minute. <a href="">Reload this page</a></p></main></body></html>`;
 	return new Response(html, {
 		status: 503,
-		headers: { 'content-type': 'text/html; charset=utf-8', 'retry-after': '30', 'cache-control': 'no-store' }
+		headers: {
+			'content-type': 'text/html; charset=utf-8',
+			'retry-after': '30',
+			'cache-control': 'no-store'
+		}
 	});
 }

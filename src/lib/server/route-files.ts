@@ -23,7 +23,9 @@ export function routeFiles(routesDir: string): RouteFile[] {
 			const path = join(dir, entry);
 			if (statSync(path).isDirectory()) walk(path);
 			else if (KINDS[entry]) {
-				const segments = relative(routesDir, dir).split(sep).filter((s) => s && !/^\(.*\)$/.test(s));
+				const segments = relative(routesDir, dir)
+					.split(sep)
+					.filter((s) => s && !/^\(.*\)$/.test(s));
 				out.push({ file: path, pattern: '/' + segments.join('/'), kind: KINDS[entry] });
 			}
 		}

@@ -5,7 +5,9 @@ import { settings, type Settings } from './db/schema';
 
 export async function firmSettings(): Promise<Settings> {
 	const [row] = await db.select().from(settings).where(eq(settings.id, 1)).limit(1);
-	if (!row) throw new Error('The firm settings are missing: run `npm run seed` or `npm run user:create`.');
+	if (!row) {
+		throw new Error('The firm settings are missing: run `npm run seed` or `npm run user:create`.');
+	}
 	return row;
 }
 
@@ -28,7 +30,11 @@ export const settingsSchema = z.object({
 	region: z.string().trim().max(60),
 	postalCode: z.string().trim().max(20),
 	serviceArea: z.string().trim().max(500),
-	replyTargetHours: z.coerce.number().int('Whole hours').min(1, 'At least 1 hour').max(168, 'At most a week')
+	replyTargetHours: z.coerce
+		.number()
+		.int('Whole hours')
+		.min(1, 'At least 1 hour')
+		.max(168, 'At most a week')
 });
 export type SettingsInput = z.infer<typeof settingsSchema>;
 

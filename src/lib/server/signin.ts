@@ -9,11 +9,17 @@ export type SignInResult =
 	| { ok: false; reason: 'mismatch' };
 
 /** Checks the password with the same work whether or not the e-mail exists. */
-export async function attemptSignIn(email: string, password: string, ip: string): Promise<SignInResult> {
+export async function attemptSignIn(
+	email: string,
+	password: string,
+	ip: string
+): Promise<SignInResult> {
 	const minutes = await throttledFor(email, ip);
 	if (minutes) return { ok: false, reason: 'throttled', minutes };
 	const user = await findUserByEmail(email);
-	const matches = user ? await verifyPassword(user.passwordHash, password) : await verifyAgainstDummy(password);
+	const matches = user
+		? await verifyPassword(user.passwordHash, password)
+		: await verifyAgainstDummy(password);
 	const ok = matches && !!user && !user.disabledAt;
 	await recordAttempt(email, ip, ok);
 	return ok ? { ok: true, userId: user.id } : { ok: false, reason: 'mismatch' };

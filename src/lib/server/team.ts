@@ -16,20 +16,44 @@ export class TeamError extends Error {}
 
 export function listMembers() {
 	return db
-		.select({ id: users.id, name: users.name, email: users.email, role: users.role, disabledAt: users.disabledAt, createdAt: users.createdAt })
+		.select({
+			id: users.id,
+			name: users.name,
+			email: users.email,
+			role: users.role,
+			disabledAt: users.disabledAt,
+			createdAt: users.createdAt
+		})
 		.from(users)
 		.orderBy(asc(users.name));
 }
 
 export function pendingInvitations() {
 	return db
-		.select({ id: invitations.id, name: invitations.name, email: invitations.email, role: invitations.role, expiresAt: invitations.expiresAt })
+		.select({
+			id: invitations.id,
+			name: invitations.name,
+			email: invitations.email,
+			role: invitations.role,
+			expiresAt: invitations.expiresAt
+		})
 		.from(invitations)
-		.where(and(isNull(invitations.acceptedAt), isNull(invitations.revokedAt), gt(invitations.expiresAt, new Date())))
+		.where(
+			and(
+				isNull(invitations.acceptedAt),
+				isNull(invitations.revokedAt),
+				gt(invitations.expiresAt, new Date())
+			)
+		)
 		.orderBy(asc(invitations.createdAt));
 }
 
-export async function createUser(input: { email: string; name: string; role: Role; password: string }) {
+export async function createUser(input: {
+	email: string;
+	name: string;
+	role: Role;
+	password: string;
+}) {
 	const id = newId();
 	await db.insert(users).values({
 		id,
@@ -41,14 +65,27 @@ export async function createUser(input: { email: string; name: string; role: Rol
 	return id;
 }
 
-export async function invite(invitedBy: string, input: { email: string; name: string; role: Role }): Promise<void> {
-	const [existing] = await db.select({ id: users.id }).from(users).where(eq(users.email, input.email)).limit(1);
+export async function invite(
+	invitedBy: string,
+	input: { email: string; name: string; role: Role }
+): Promise<void> {
+	const [existing] = await db
+		.select({ id: users.id })
+		.from(users)
+		.where(eq(users.email, input.email))
+		.limit(1);
 	if (existing) throw new TeamError('Someone on the team already uses that e-mail address');
 	const token = newToken();
 	await db
 		.update(invitations)
 		.set({ revokedAt: new Date() })
-		.where(and(eq(invitations.email, input.email), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)));
+		.where(
+			and(
+				eq(invitations.email, input.email),
+				isNull(invitations.acceptedAt),
+				isNull(invitations.revokedAt)
+			)
+		);
 	await db.insert(invitations).values({
 		id: newId(),
 		tokenHash: sha256(token),
@@ -111,7 +148,13 @@ export async function acceptInvitation(token: string, password: string): Promise
 			.returning();
 		if (!invitation) return null;
 		const id = newId();
-		await tx.insert(users).values({ id, email: invitation.email, name: invitation.name, role: invitation.role, passwordHash });
+		await tx.insert(users).values({
+			id,
+			email: invitation.email,
+			name: invitation.name,
+			role: invitation.role,
+			passwordHash
+		});
 		return id;
 	});
 }
@@ -120,7 +163,9 @@ async function ownersLeft(exceptUserId: string): Promise<number> {
 	const [row] = await db
 		.select({ n: sql<number>`count(*)::int` })
 		.from(users)
-		.where(and(eq(users.role, 'owner'), isNull(users.disabledAt), sql`${users.id} <> ${exceptUserId}`));
+		.where(
+			and(eq(users.role, 'owner'), isNull(users.disabledAt), sql`${users.id} <> ${exceptUserId}`)
+		);
 	return row.n;
 }
 
@@ -128,15 +173,25 @@ export async function changeRole(actorId: string, userId: string, role: Role): P
 	if (role !== 'owner' && (await ownersLeft(userId)) === 0) {
 		throw new TeamError('The firm needs at least one active owner');
 	}
-	const updated = await db.update(users).set({ role }).where(eq(users.id, userId)).returning({ id: users.id });
+	const updated = await db
+		.update(users)
+		.set({ role })
+		.where(eq(users.id, userId))
+		.returning({ id: users.id });
 	if (!updated.length) throw new TeamError('No such team member');
 	// A role change takes effect at once: the member signs in again with the new role.
 	if (actorId !== userId) await endAllSessionsOf(userId);
 }
 
-export async function setDisabled(actorId: string, userId: string, disabled: boolean): Promise<void> {
+export async function setDisabled(
+	actorId: string,
+	userId: string,
+	disabled: boolean
+): Promise<void> {
 	if (actorId === userId && disabled) throw new TeamError('You cannot disable your own account');
-	if (disabled && (await ownersLeft(userId)) === 0) throw new TeamError('The firm needs at least one active owner');
+	if (disabled && (await ownersLeft(userId)) === 0) {
+		throw new TeamError('The firm needs at least one active owner');
+	}
 	const updated = await db
 		.update(users)
 		.set({ disabledAt: disabled ? new Date() : null })
@@ -176,7 +231,13 @@ export async function findOpenReset(token: string) {
 	const [row] = await db
 		.select()
 		.from(passwordResets)
-		.where(and(eq(passwordResets.tokenHash, sha256(token)), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, new Date())))
+		.where(
+			and(
+				eq(passwordResets.tokenHash, sha256(token)),
+				isNull(passwordResets.usedAt),
+				gt(passwordResets.expiresAt, new Date())
+			)
+		)
 		.limit(1);
 	return row ?? null;
 }
@@ -188,7 +249,13 @@ export async function completePasswordReset(token: string, password: string): Pr
 		const [reset] = await tx
 			.update(passwordResets)
 			.set({ usedAt: new Date() })
-			.where(and(eq(passwordResets.tokenHash, sha256(token)), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, new Date())))
+			.where(
+				and(
+					eq(passwordResets.tokenHash, sha256(token)),
+					isNull(passwordResets.usedAt),
+					gt(passwordResets.expiresAt, new Date())
+				)
+			)
 			.returning();
 		if (!reset) return null;
 		await tx.update(users).set({ passwordHash }).where(eq(users.id, reset.userId));

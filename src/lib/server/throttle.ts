@@ -20,11 +20,23 @@ export async function throttledFor(email: string, ip: string): Promise<number> {
 	const [byAccount] = await db
 		.select({ n: count() })
 		.from(signInAttempts)
-		.where(and(eq(signInAttempts.emailKey, emailKey(email)), eq(signInAttempts.succeeded, false), gt(signInAttempts.createdAt, since)));
+		.where(
+			and(
+				eq(signInAttempts.emailKey, emailKey(email)),
+				eq(signInAttempts.succeeded, false),
+				gt(signInAttempts.createdAt, since)
+			)
+		);
 	const [byAddress] = await db
 		.select({ n: count() })
 		.from(signInAttempts)
-		.where(and(eq(signInAttempts.ipAddress, ip), eq(signInAttempts.succeeded, false), gt(signInAttempts.createdAt, since)));
+		.where(
+			and(
+				eq(signInAttempts.ipAddress, ip),
+				eq(signInAttempts.succeeded, false),
+				gt(signInAttempts.createdAt, since)
+			)
+		);
 	if (byAccount.n >= THROTTLE.perAccount || byAddress.n >= THROTTLE.perAddress) {
 		return Math.ceil(THROTTLE.windowMs / 60_000);
 	}

@@ -7,7 +7,10 @@ import { signIn } from '../pages/staff';
 const dataDir = process.env.TEST_PG_DATA ?? '';
 const port = Number(process.env.TEST_PG_PORT);
 
-test('the app answers 503 while the database is down and recovers when it is back', async ({ page, browser }) => {
+test('the app answers 503 while the database is down and recovers when it is back', async ({
+	page,
+	browser
+}) => {
 	expect(dataDir, 'run through npm test, which starts the test cluster').not.toBe('');
 	await signIn(page, 'owner');
 	stopCluster(dataDir);

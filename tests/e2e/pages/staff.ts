@@ -18,10 +18,16 @@ export async function signIn(page: Page, role: DemoRole, next = ''): Promise<voi
 
 /** An API context signed in as a demo user (or anonymous when role is null). */
 export async function apiAs(baseURL: string, role: DemoRole | null): Promise<APIRequestContext> {
-	const ctx = await request.newContext({ baseURL, extraHTTPHeaders: { origin: baseURL, accept: 'text/html' } });
+	const ctx = await request.newContext({
+		baseURL,
+		extraHTTPHeaders: { origin: baseURL, accept: 'text/html' }
+	});
 	if (role) {
 		const user = demoUser(role);
-		const res = await ctx.post('/sign-in', { form: { email: user.email, password: user.password }, maxRedirects: 0 });
+		const res = await ctx.post('/sign-in', {
+			form: { email: user.email, password: user.password },
+			maxRedirects: 0
+		});
 		expect(res.status(), `sign-in as ${role}`).toBe(303);
 	}
 	return ctx;

@@ -9,7 +9,10 @@ export const handleOutage: Handle = async ({ event, resolve }) => {
 	const response = await resolve(event);
 	if (response.status >= 500 && (event.locals as Flagged)[OUTAGE]) {
 		if (event.url.pathname.startsWith('/api')) {
-			return Response.json({ message: 'The database is out of reach; try again shortly' }, { status: 503, headers: { 'retry-after': '30' } });
+			return Response.json(
+				{ message: 'The database is out of reach; try again shortly' },
+				{ status: 503, headers: { 'retry-after': '30' } }
+			);
 		}
 		return outagePage();
 	}
@@ -19,8 +22,13 @@ export const handleOutage: Handle = async ({ event, resolve }) => {
 export const handleServerError: HandleServerError = ({ error, event, status, message }) => {
 	if (isDatabaseUnavailable(error)) {
 		(event.locals as Flagged)[OUTAGE] = true;
-		return { message: 'Our records are out of reach for a moment. Please try again shortly.', code: 'DB_UNAVAILABLE' };
+		return {
+			message: 'Our records are out of reach for a moment. Please try again shortly.',
+			code: 'DB_UNAVAILABLE'
+		};
 	}
 	if (status >= 500) console.error(`[${event.request.method} ${event.url.pathname}]`, error);
-	return { message: status >= 500 ? 'Something went wrong on our side. It has been logged.' : message };
+	return {
+		message: status >= 500 ? 'Something went wrong on our side. It has been logged.' : message
+	};
 };

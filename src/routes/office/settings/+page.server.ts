@@ -14,7 +14,9 @@ export const actions: Actions = {
 		requireRole(event, 'owner');
 		const data = await event.request.formData();
 		const parsed = settingsSchema.safeParse(Object.fromEntries(data));
-		if (!parsed.success) return fail(400, { values: formValues(data), errors: fieldErrors(parsed.error) });
+		if (!parsed.success) {
+			return fail(400, { values: formValues(data), errors: fieldErrors(parsed.error) });
+		}
 		await saveSettings(parsed.data);
 		return { saved: true };
 	}

@@ -1,8 +1,21 @@
 import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
-import { fieldErrors, formValues, inviteSchema, roleSchema } from '$lib/schema/auth';
+import {
+	fieldErrors,
+	formValues,
+	inviteSchema,
+	roleSchema,
+	type FormErrors
+} from '$lib/schema/auth';
 import { requireRole } from '$lib/server/access';
-import { changeRole, invite, listMembers, pendingInvitations, setDisabled, TeamError } from '$lib/server/team';
+import {
+	changeRole,
+	invite,
+	listMembers,
+	pendingInvitations,
+	setDisabled,
+	TeamError
+} from '$lib/server/team';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -28,14 +41,20 @@ export const actions: Actions = {
 		const owner = requireRole(event, 'owner');
 		const data = await event.request.formData();
 		const parsed = inviteSchema.safeParse(Object.fromEntries(data));
-		if (!parsed.success) return fail(400, { invite: { values: formValues(data), errors: fieldErrors(parsed.error) } });
+		if (!parsed.success) {
+			return fail(400, { invite: { values: formValues(data), errors: fieldErrors(parsed.error) } });
+		}
 		try {
 			await invite(owner.id, parsed.data);
 		} catch (error) {
 			const message =
-				error instanceof TeamError ? error.message : 'The invitation could not be e-mailed just now. Try again in a few minutes.';
+				error instanceof TeamError
+					? error.message
+					: 'The invitation could not be e-mailed just now. Try again in a few minutes.';
 			if (!(error instanceof TeamError)) console.error('invitation mail failed', error);
-			return fail(error instanceof TeamError ? 400 : 503, { invite: { values: formValues(data), errors: { _form: message } } });
+			return fail(error instanceof TeamError ? 400 : 503, {
+				invite: { values: formValues(data), errors: { _form: message } as FormErrors }
+			});
 		}
 		return { invited: parsed.data.email };
 	},
@@ -43,8 +62,13 @@ export const actions: Actions = {
 		const owner = requireRole(event, 'owner');
 		const data = Object.fromEntries(await event.request.formData());
 		const parsed = memberSchema.extend({ role: roleSchema }).safeParse(data);
-		if (!parsed.success) return fail(400, { memberError: 'Pick a role', userId: String(data.userId ?? '') });
-		return memberAction(() => changeRole(owner.id, parsed.data.userId, parsed.data.role), parsed.data.userId);
+		if (!parsed.success) {
+			return fail(400, { memberError: 'Pick a role', userId: String(data.userId ?? '') });
+		}
+		return memberAction(
+			() => changeRole(owner.id, parsed.data.userId, parsed.data.role),
+			parsed.data.userId
+		);
 	},
 	disable: async (event) => {
 		const owner = requireRole(event, 'owner');
