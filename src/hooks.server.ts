@@ -1,4 +1,7 @@
+import { building } from '$app/environment';
 import { sequence } from '@sveltejs/kit/hooks';
+import type { ServerInit } from '@sveltejs/kit';
+import { startWorkers } from '$lib/server/jobs';
 import { handleGuard } from '$lib/server/hooks/guard';
 import { handleHeaders } from '$lib/server/hooks/headers';
 import { handleOutage, handleServerError } from '$lib/server/hooks/outage';
@@ -6,3 +9,14 @@ import { handleSession } from '$lib/server/hooks/session';
 
 export const handle = sequence(handleHeaders, handleOutage, handleSession, handleGuard);
 export const handleError = handleServerError;
+
+/** Starts the queue workers in each app process; the app keeps serving if the queue cannot start yet. */
+export const init: ServerInit = async () => {
+	if (building || process.env.RILLSTONE_WORKERS === 'off') return;
+	const tryStart = () =>
+		startWorkers().catch((error) => {
+			console.error('[queue] workers not started, retrying in 10 s:', (error as Error).message);
+			setTimeout(tryStart, 10_000);
+		});
+	void tryStart();
+};

@@ -3,6 +3,7 @@ import {
 	boolean,
 	index,
 	integer,
+	jsonb,
 	pgEnum,
 	pgTable,
 	text,
@@ -112,5 +113,175 @@ export const settings = pgTable('settings', {
 	updatedAt: updatedAt()
 });
 
+// ---------------------------------------------------------------------------------------------
+// People, places and leads
+
+/** A person; found again by e-mail (lower-cased) or by phone digits. */
+export const contacts = pgTable(
+	'contacts',
+	{
+		id: text('id').primaryKey(),
+		name: text('name').notNull(),
+		email: text('email'),
+		phone: text('phone'),
+		phoneDigits: text('phone_digits'),
+		isCustomer: boolean('is_customer').notNull().default(false),
+		createdAt: createdAt(),
+		updatedAt: updatedAt()
+	},
+	(t) => [
+		uniqueIndex('contacts_email_idx').on(t.email),
+		index('contacts_phone_idx').on(t.phoneDigits)
+	]
+);
+
+export const properties = pgTable(
+	'properties',
+	{
+		id: text('id').primaryKey(),
+		contactId: text('contact_id')
+			.notNull()
+			.references(() => contacts.id, { onDelete: 'cascade' }),
+		street: text('street').notNull().default(''),
+		town: text('town').notNull().default(''),
+		postalCode: text('postal_code').notNull().default(''),
+		siteNotes: text('site_notes').notNull().default(''),
+		createdAt: createdAt(),
+		updatedAt: updatedAt()
+	},
+	(t) => [index('properties_contact_idx').on(t.contactId)]
+);
+
+export const leadStageEnum = pgEnum('lead_stage', [
+	'new',
+	'contacted',
+	'visit_booked',
+	'estimating',
+	'estimate_sent',
+	'sold',
+	'closed'
+]);
+export type LeadStage = (typeof leadStageEnum.enumValues)[number];
+
+export const closeReasonEnum = pgEnum('close_reason', [
+	'not_a_fit',
+	'no_reply',
+	'budget',
+	'timing',
+	'chose_another_firm',
+	'other'
+]);
+export const priorityEnum = pgEnum('priority', ['low', 'normal', 'high']);
+
+export const leads = pgTable(
+	'leads',
+	{
+		id: text('id').primaryKey(),
+		/** The reference number the homeowner sees (R-1001 …). */
+		number: integer('number').generatedAlwaysAsIdentity({ startWith: 1001 }).notNull().unique(),
+		contactId: text('contact_id')
+			.notNull()
+			.references(() => contacts.id),
+		propertyId: text('property_id').references(() => properties.id),
+		stage: leadStageEnum('stage').notNull().default('new'),
+		services: text('services')
+			.array()
+			.notNull()
+			.default(sql`'{}'::text[]`),
+		budget: text('budget').notNull().default('unsure'),
+		timeframe: text('timeframe').notNull().default('unsure'),
+		heardFrom: text('heard_from').notNull().default(''),
+		message: text('message').notNull().default(''),
+		source: text('source').notNull().default('website'),
+		referenceProject: text('reference_project'),
+		assigneeId: text('assignee_id').references(() => users.id),
+		priority: priorityEnum('priority').notNull().default('normal'),
+		firstReplyAt: timestamp('first_reply_at', { withTimezone: true }),
+		lastTouchAt: timestamp('last_touch_at', { withTimezone: true }).notNull().defaultNow(),
+		closeReason: closeReasonEnum('close_reason'),
+		closeNote: text('close_note'),
+		consentAt: timestamp('consent_at', { withTimezone: true }),
+		/** Bumped on every staff edit; a save from an older version is refused. */
+		version: integer('version').notNull().default(1),
+		updatedBy: text('updated_by').references(() => users.id),
+		createdAt: createdAt(),
+		updatedAt: updatedAt()
+	},
+	(t) => [
+		index('leads_stage_idx').on(t.stage, t.createdAt),
+		index('leads_assignee_idx').on(t.assigneeId),
+		index('leads_created_idx').on(t.createdAt),
+		index('leads_contact_idx').on(t.contactId)
+	]
+);
+
+/** A photo processed and stored in S3; attached to a lead, a visit or a job, or still a draft. */
+export const photos = pgTable(
+	'photos',
+	{
+		id: text('id').primaryKey(),
+		leadId: text('lead_id').references(() => leads.id, { onDelete: 'cascade' }),
+		/** Set while the photo waits for its inquiry to be sent; unclaimed drafts are swept. */
+		draftToken: text('draft_token').unique(),
+		context: text('context').notNull().default('intake'),
+		displayKey: text('display_key').notNull(),
+		thumbKey: text('thumb_key').notNull(),
+		width: integer('width').notNull(),
+		height: integer('height').notNull(),
+		bytes: integer('bytes').notNull(),
+		originalName: text('original_name').notNull().default(''),
+		uploadedBy: text('uploaded_by').references(() => users.id),
+		createdAt: createdAt()
+	},
+	(t) => [index('photos_lead_idx').on(t.leadId), index('photos_draft_idx').on(t.createdAt)]
+);
+
+/** The lead's timeline: inquiry, calls, notes, e-mails, stage changes, assignments, visits… */
+export const activities = pgTable(
+	'activities',
+	{
+		id: integer('id').primaryKey().generatedAlwaysAsIdentity(),
+		leadId: text('lead_id')
+			.notNull()
+			.references(() => leads.id, { onDelete: 'cascade' }),
+		kind: text('kind').notNull(),
+		actorId: text('actor_id').references(() => users.id),
+		body: text('body').notNull().default(''),
+		data: jsonb('data').$type<Record<string, unknown>>().notNull().default({}),
+		createdAt: createdAt()
+	},
+	(t) => [index('activities_lead_idx').on(t.leadId, t.createdAt)]
+);
+
+// ---------------------------------------------------------------------------------------------
+// Outgoing e-mail: written first, sent by the queue, marked sent once (idempotent sends)
+
+export const outbox = pgTable(
+	'outbox',
+	{
+		id: text('id').primaryKey(),
+		/** What makes this message unique, e.g. "inquiry-ack:<leadId>": the same key is never sent twice. */
+		dedupeKey: text('dedupe_key').notNull().unique(),
+		to: text('to').notNull(),
+		subject: text('subject').notNull(),
+		text: text('text').notNull(),
+		html: text('html').notNull(),
+		attachments: jsonb('attachments')
+			.$type<{ filename: string; content: string; contentType: string }[]>()
+			.notNull()
+			.default([]),
+		leadId: text('lead_id').references(() => leads.id, { onDelete: 'set null' }),
+		sentAt: timestamp('sent_at', { withTimezone: true }),
+		attempts: integer('attempts').notNull().default(0),
+		lastError: text('last_error'),
+		createdAt: createdAt()
+	},
+	(t) => [index('outbox_unsent_idx').on(t.sentAt)]
+);
+
 export type User = typeof users.$inferSelect;
+export type Contact = typeof contacts.$inferSelect;
+export type Lead = typeof leads.$inferSelect;
+export type Photo = typeof photos.$inferSelect;
+export type Activity = typeof activities.$inferSelect;
 export type Settings = typeof settings.$inferSelect;

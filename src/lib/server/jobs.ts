@@ -1,0 +1,3 @@
+// Every module that defines queued jobs is imported here, so that the workers know them all.
+import './outbox';
+export { startWorkers, stopQueue } from './queue';

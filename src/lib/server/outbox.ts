@@ -1,0 +1,91 @@
+// E-mail that must not be lost or sent twice: the message is written to the outbox (in the
+// caller's transaction when there is one), then a queued job sends it and marks it sent.
+// A job that runs twice finds it sent and does nothing; an SMTP outage only delays it.
+import { eq } from 'drizzle-orm';
+import { db } from './db';
+import { outbox } from './db/schema';
+import { newId } from './crypto';
+import { sendMail, type Message } from './mail';
+import { defineJob, enqueue } from './queue';
+
+type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
+
+export interface OutgoingMail extends Omit<Message, 'attachments'> {
+	dedupeKey: string;
+	leadId?: string;
+	attachments?: { filename: string; content: string; contentType: string }[];
+}
+
+/** Writes the message; returns its id, or null when a message with that key already exists. */
+export async function writeMail(
+	mail: OutgoingMail,
+	tx: Tx | typeof db = db
+): Promise<string | null> {
+	const id = newId();
+	const rows = await tx
+		.insert(outbox)
+		.values({
+			id,
+			dedupeKey: mail.dedupeKey,
+			to: mail.to,
+			subject: mail.subject,
+			text: mail.text,
+			html: mail.html,
+			attachments: mail.attachments ?? [],
+			leadId: mail.leadId
+		})
+		.onConflictDoNothing({ target: outbox.dedupeKey })
+		.returning({ id: outbox.id });
+	return rows[0]?.id ?? null;
+}
+
+/** Queues the sending of an outbox message (call after the transaction that wrote it commits). */
+export async function dispatchMail(
+	outboxId: string,
+	options: { startAfter?: Date } = {}
+): Promise<void> {
+	await enqueue('mail.send', { outboxId }, { singletonKey: outboxId, ...options });
+}
+
+/** Writes and queues in one go, outside any transaction. */
+export async function queueMail(mail: OutgoingMail): Promise<void> {
+	const id = await writeMail(mail);
+	if (id) await dispatchMail(id);
+}
+
+export async function deliverOutboxMessage(
+	outboxId: string
+): Promise<'sent' | 'already-sent' | 'missing'> {
+	const [row] = await db.select().from(outbox).where(eq(outbox.id, outboxId)).limit(1);
+	if (!row) return 'missing';
+	if (row.sentAt) return 'already-sent';
+	try {
+		await sendMail({
+			to: row.to,
+			subject: row.subject,
+			text: row.text,
+			html: row.html,
+			messageId: `<${row.id}@rillstone.mail>`,
+			attachments: row.attachments.map((a) => ({
+				filename: a.filename,
+				content: a.content,
+				contentType: a.contentType
+			}))
+		});
+	} catch (error) {
+		await db
+			.update(outbox)
+			.set({ attempts: row.attempts + 1, lastError: (error as Error).message.slice(0, 500) })
+			.where(eq(outbox.id, row.id));
+		throw error; // pg-boss retries with backoff
+	}
+	await db
+		.update(outbox)
+		.set({ sentAt: new Date(), attempts: row.attempts + 1, lastError: null })
+		.where(eq(outbox.id, row.id));
+	return 'sent';
+}
+
+defineJob<{ outboxId: string }>('mail.send', async ({ outboxId }) => {
+	await deliverOutboxMessage(outboxId);
+});
