@@ -36,14 +36,14 @@ export default ts.config(
 	{
 		ignores: [
 			'build/',
-			'.test-build/',
+			'.test-build*/',
 			'bench/results/',
 			'playwright-report/',
 			'.svelte-kit/',
 			'node_modules/',
 			'drizzle/',
 			'.data/',
-			'.test-data/',
+			'.test-data*/',
 			'test-results/'
 		]
 	}

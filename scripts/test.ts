@@ -75,7 +75,12 @@ if (want('integration')) {
 if (want('e2e')) {
 	try {
 		buildIfNeeded(shared.BUILD_DIR, { ...shared, DATABASE_URL: e2eUrl }, true);
-		results.site = await run('build-output tests of the public site', 'npx', ['vitest', 'run', '--project', 'site'], shared);
+		results.site = await run(
+			'build-output tests of the public site',
+			'npx',
+			['vitest', 'run', '--project', 'site'],
+			shared
+		);
 		results.e2e = await run(
 			'end-to-end tests (Playwright, production build)',
 			'npx',
