@@ -73,6 +73,11 @@ export function appEnv(profile: Profile): Record<string, string> {
 		PUBLIC_ORIGIN: origin,
 		HOST: c.host,
 		PORT: String(c.appPort),
-		BODY_SIZE_LIMIT: process.env.BODY_SIZE_LIMIT ?? '64M'
+		BODY_SIZE_LIMIT: process.env.BODY_SIZE_LIMIT ?? '64M',
+		PAYMENTS_SECRET_KEY: process.env.PAYMENTS_SECRET_KEY ?? 'sk_test_rillstone_local',
+		PAYMENTS_WEBHOOK_SECRET: process.env.PAYMENTS_WEBHOOK_SECRET ?? 'whsec_rillstone_local',
+		PAYMENTS_API_HOST: process.env.PAYMENTS_API_HOST ?? c.host,
+		PAYMENTS_API_PORT: process.env.PAYMENTS_API_PORT ?? String(c.payPort),
+		PAYMENTS_API_PROTOCOL: process.env.PAYMENTS_API_PROTOCOL ?? 'http'
 	};
 }

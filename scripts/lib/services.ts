@@ -1,6 +1,7 @@
 // Starts PostgreSQL and the S3 and SMTP stand-ins for a profile, on 127.0.0.1 only.
 import { mkdirSync, rmSync } from 'node:fs';
-import { serviceConfig, databaseUrl, type Profile } from './config';
+import { appEnv, serviceConfig, databaseUrl, type Profile } from './config';
+import { startPayStandIn } from './pay-standin';
 import {
 	ensureDatabase,
 	initCluster,
@@ -38,7 +39,8 @@ export async function startServices(
 		['PostgreSQL', c.pgPort],
 		['S3 stand-in', c.s3Port],
 		['SMTP stand-in', c.smtpPort],
-		['mail inbox', c.mailWebPort]
+		['mail inbox', c.mailWebPort],
+		['payment stand-in', c.payPort]
 	] as const) {
 		if (await portInUse(port)) {
 			throw new PortBusyError(
@@ -72,6 +74,18 @@ export async function startServices(
 			})
 		);
 		log(`SMTP        127.0.0.1:${c.smtpPort}, inbox http://127.0.0.1:${c.mailWebPort}`);
+		const env = appEnv(profile);
+		started.push(
+			await startPayStandIn({
+				port: c.payPort,
+				apiKey: env.PAYMENTS_SECRET_KEY,
+				webhookSecret: env.PAYMENTS_WEBHOOK_SECRET,
+				webhookUrl: `${env.ORIGIN}/api/payments/webhook`
+			})
+		);
+		log(
+			`Payments    http://127.0.0.1:${c.payPort} (provider stand-in; webhooks to ${env.ORIGIN}/api/payments/webhook)`
+		);
 	} catch (error) {
 		await stop();
 		throw error;
