@@ -1,0 +1,3 @@
+export * from './slots';
+export * from './zone';
+export { vtimezone } from './vtimezone';
