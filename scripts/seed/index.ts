@@ -4,6 +4,7 @@ import { settings, users } from '../../src/lib/server/db/schema';
 import { newId } from '../../src/lib/server/crypto';
 import { scriptDb } from '../lib/db';
 import { DEMO_FIRM, DEMO_STAFF } from './demo-data';
+import { seedPriceList } from './pricelist';
 
 export async function databaseIsEmpty(url: string): Promise<boolean> {
 	const { db, close } = scriptDb(url);
@@ -35,6 +36,7 @@ export async function seedDemo(url: string): Promise<void> {
 				})
 				.onConflictDoNothing();
 		}
+		await seedPriceList(db);
 	} finally {
 		await close();
 	}
