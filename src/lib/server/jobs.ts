@@ -1,3 +1,4 @@
 // Every module that defines queued jobs is imported here, so that the workers know them all.
 import './outbox';
+import './care';
 export { startWorkers, stopQueue } from './queue';

@@ -610,8 +610,6 @@ export const jobs = pgTable(
 		/** Set at completion for the payments issue: contract + approved change orders − payments. */
 		finalBalanceCents: integer('final_balance_cents'),
 		paidAt: timestamp('paid_at', { withTimezone: true }),
-		/** SHA-256 of the token in the care reminders' unsubscribe link. */
-		careTokenHash: text('care_token_hash').unique(),
 		careOptOutAt: timestamp('care_opt_out_at', { withTimezone: true }),
 		createdBy: text('created_by').references(() => users.id),
 		createdAt: createdAt(),
@@ -771,6 +769,8 @@ export const careReminders = pgTable(
 			.references(() => jobs.id, { onDelete: 'cascade' }),
 		season: text('season').notNull(),
 		outboxId: text('outbox_id'),
+		/** SHA-256 of the token in this reminder's unsubscribe link (every sent link keeps working). */
+		tokenHash: text('token_hash').unique(),
 		createdAt: createdAt()
 	},
 	(t) => [uniqueIndex('care_reminders_job_season_idx').on(t.jobId, t.season)]

@@ -1,0 +1,94 @@
+// Shared input schemas of the jobs domain (office forms, crew forms, homeowner token pages).
+import { z } from 'zod';
+
+const isoDay = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date such as 2027-05-14');
+
+export const scheduleSchema = z.object({
+	days: z
+		.array(isoDay)
+		.max(30, 'At most 30 install days')
+		.refine(
+			(days) => days.every((d) => !Number.isNaN(Date.parse(d))),
+			'One of the dates is not real'
+		),
+	crewLeadId: z
+		.string()
+		.trim()
+		.transform((v) => v || null),
+	crewSize: z
+		.union([z.literal(''), z.coerce.number().int('Whole people').min(1, 'At least 1').max(20)])
+		.transform((v) => (v === '' ? null : v))
+});
+
+export const punchSchema = z.object({
+	body: z.string().trim().min(1, 'Say what needs doing').max(500, 'Keep it under 500 characters')
+});
+
+export const saleByHandSchema = z.object({
+	estimateId: z.string().min(1, 'Pick the estimate that was accepted'),
+	typedName: z.string().trim().min(2, 'Enter the name of the person who accepted').max(120),
+	method: z.enum(['paper', 'phone'], { message: 'Paper or phone?' }),
+	acceptedOn: isoDay
+});
+
+export const changeOrderLineSchema = z.object({
+	description: z.string().trim().min(1, 'Describe the line').max(200),
+	category: z.string().trim().max(40).default('other'),
+	unit: z.string().trim().min(1).max(20).default('each'),
+	quantity: z.coerce
+		.number()
+		.refine((n) => Number.isFinite(n) && n !== 0, 'Use a quantity other than 0 (negative removes)')
+		.refine((n) => Math.abs(n) <= 100_000, 'That quantity is too large'),
+	unitPriceCents: z.coerce.number().int().min(0).max(100_000_000)
+});
+
+export const changeOrderSchema = z.object({
+	title: z.string().trim().min(1, 'Give the change a short title').max(120),
+	note: z.string().trim().max(2000).default(''),
+	lines: z.array(changeOrderLineSchema).min(1, 'Add at least one line').max(30)
+});
+export type ChangeOrderInput = z.input<typeof changeOrderSchema>;
+
+export const decisionSchema = z.discriminatedUnion('decision', [
+	z.object({
+		decision: z.literal('approve'),
+		typedName: z.string().trim().min(2, 'Type your full name to approve').max(120)
+	}),
+	z.object({
+		decision: z.literal('decline'),
+		typedName: z.string().trim().min(2, 'Type your full name').max(120),
+		reason: z.string().trim().max(1000).default('')
+	})
+]);
+
+export const testimonialSchema = z.object({
+	body: z
+		.string()
+		.trim()
+		.min(20, 'A sentence or two, please (at least 20 characters)')
+		.max(2000, 'Keep it under 2000 characters'),
+	displayName: z.string().trim().min(1, 'The name to show, e.g. your first name').max(60),
+	town: z.string().trim().max(60).default('')
+});
+
+const month = z.coerce.number().int().min(1, 'Pick a month').max(12, 'Pick a month');
+export const careSettingsSchema = z
+	.object({
+		enabled: z
+			.union([z.literal('on'), z.literal('')])
+			.optional()
+			.transform((v) => v === 'on'),
+		shutdownMonth: month,
+		startupMonth: month,
+		testimonialDelayDays: z.coerce.number().int().min(0).max(60)
+	})
+	.refine((v) => v.shutdownMonth !== v.startupMonth, {
+		path: ['startupMonth'],
+		message: 'Start-up and shut-down need different months'
+	});
+
+/** Dollars typed in a form ("1,250.50") to cents. */
+export function dollarsToCents(value: string): number {
+	const n = Number(value.replace(/[$,\s]/g, ''));
+	return Number.isFinite(n) ? Math.round(n * 100) : NaN;
+}
