@@ -11,8 +11,15 @@ export const ROUTE_ROLES: ReadonlyArray<{ prefix: string; roles: readonly Role[]
 	{ prefix: '/office/team', roles: ['owner'] },
 	{ prefix: '/office/settings', roles: ['owner'] },
 	{ prefix: '/office/account', roles: ALL_STAFF },
+	{ prefix: '/office/estimates', roles: ['owner', 'sales'] },
+	{ prefix: '/office/price-list', roles: ['owner', 'sales'] },
+	{ prefix: '/office/leads', roles: ['owner', 'sales'] },
 	{ prefix: '/office', roles: ALL_STAFF },
 	{ prefix: '/api/health', roles: [] },
+	{ prefix: '/api/estimates', roles: ['owner', 'sales'] },
+	{ prefix: '/api/leads', roles: ['owner', 'sales'] },
+	// Prospects are anonymous: the inquiry's photo uploads are public (rate-limited in the route).
+	{ prefix: '/api/uploads', roles: [] },
 	{ prefix: '/api', roles: ALL_STAFF }
 ];
 

@@ -1,4 +1,5 @@
 // Every module that defines queued jobs is imported here, so that the workers know them all.
 import './outbox';
 import './care';
+import './intake';
 export { startWorkers, stopQueue } from './queue';

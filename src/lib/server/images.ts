@@ -1,0 +1,133 @@
+// The photo pipeline for yard photos: the type comes from the bytes, never from the name or the
+// declared type; decoding runs under a pixel limit and fails on truncated data; the camera's
+// orientation is applied; every bit of metadata (GPS above all) is dropped; two sizes come out.
+import sharp from 'sharp';
+import { PHOTO_LIMITS, cleanFileName } from '$lib/schema/intake';
+
+export const PIXEL_LIMIT = 40_000_000;
+export const DISPLAY_EDGE = 2048;
+export const THUMB_EDGE = 480;
+
+export type Sniffed = 'jpeg' | 'png' | 'webp' | 'heic' | 'avif' | 'gif' | 'svg' | 'unknown';
+
+/** The image type from the first bytes of a file. */
+export function sniff(bytes: Uint8Array): Sniffed {
+	const at = (i: number, ...values: number[]) => values.every((v, k) => bytes[i + k] === v);
+	const ascii = (i: number, s: string) => at(i, ...[...s].map((c) => c.charCodeAt(0)));
+	if (at(0, 0xff, 0xd8, 0xff)) return 'jpeg';
+	if (at(0, 0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a)) return 'png';
+	if (ascii(0, 'RIFF') && ascii(8, 'WEBP')) return 'webp';
+	if (ascii(0, 'GIF8')) return 'gif';
+	if (ascii(4, 'ftyp')) {
+		const brand = String.fromCharCode(...bytes.slice(8, 12));
+		if (/^(avif|avis)$/.test(brand)) return 'avif';
+		if (/^(heic|heix|hevc|hevx|heim|heis|mif1|msf1)$/.test(brand)) return 'heic';
+	}
+	const head = new TextDecoder().decode(bytes.slice(0, 512)).trimStart().toLowerCase();
+	if (head.startsWith('<svg') || (head.startsWith('<?xml') && head.includes('<svg'))) return 'svg';
+	return 'unknown';
+}
+
+export class PhotoError extends Error {
+	constructor(
+		readonly fileName: string,
+		message: string
+	) {
+		super(message);
+		this.name = 'PhotoError';
+	}
+}
+
+export interface ProcessedPhoto {
+	originalName: string;
+	display: Buffer;
+	thumb: Buffer;
+	contentType: 'image/webp';
+	width: number;
+	height: number;
+	bytes: number;
+}
+
+const MB = (n: number) => `${Math.round(n / (1024 * 1024))} MB`;
+
+/** Refuses an empty or oversized file before its bytes are read. Throws PhotoError. */
+export function checkPhotoSize(name: string, size: number): void {
+	const shown = `“${cleanFileName(name)}”`;
+	if (size === 0) throw new PhotoError(name, `${shown} is empty (0 bytes).`);
+	if (size > PHOTO_LIMITS.maxBytes) {
+		throw new PhotoError(
+			name,
+			`${shown} is ${MB(size)}; each photo can be at most ${MB(PHOTO_LIMITS.maxBytes)}.`
+		);
+	}
+}
+
+/** Checks what can be checked without decoding: emptiness, size and type. Throws PhotoError. */
+export function checkPhotoBytes(name: string, bytes: Uint8Array): void {
+	const shown = `“${cleanFileName(name)}”`;
+	checkPhotoSize(name, bytes.byteLength);
+	const type = sniff(bytes);
+	if (type === 'heic' || type === 'avif') {
+		throw new PhotoError(
+			name,
+			`${shown} is a HEIC/HEIF photo, which we cannot open. Phones can send JPEG instead: pick the photo through this form (iPhones convert it), or set the camera to “Most Compatible”.`
+		);
+	}
+	if (type !== 'jpeg' && type !== 'png' && type !== 'webp') {
+		throw new PhotoError(
+			name,
+			`${shown} is not a JPEG, PNG or WebP photo${type === 'svg' ? ' (it is an SVG drawing)' : ''}.`
+		);
+	}
+}
+
+/** Decodes, orients, strips and resizes one photo. Throws PhotoError with a message naming it. */
+export async function processPhoto(name: string, bytes: Uint8Array): Promise<ProcessedPhoto> {
+	checkPhotoBytes(name, bytes);
+	const shown = `“${cleanFileName(name)}”`;
+	const input = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+	const open = () => sharp(input, { limitInputPixels: PIXEL_LIMIT, failOn: 'truncated' });
+	let meta: sharp.Metadata;
+	try {
+		// Only the header is read here, so the pixel limit is checked by hand to name the size.
+		meta = await sharp(input, { limitInputPixels: false }).metadata();
+	} catch {
+		throw new PhotoError(name, `${shown} could not be read as a photo; it may be damaged.`);
+	}
+	const w = meta.width ?? 0;
+	const h = meta.height ?? 0;
+	if (!w || !h) throw new PhotoError(name, `${shown} has no picture in it.`);
+	if (w * h > PIXEL_LIMIT) {
+		throw new PhotoError(
+			name,
+			`${shown} is ${w} × ${h} pixels; photos can be at most 40 megapixels.`
+		);
+	}
+	try {
+		// sharp drops EXIF, GPS, XMP and ICC unless asked to keep them; autoOrient applies the tag first.
+		const oriented = await open().autoOrient().toBuffer({ resolveWithObject: true });
+		const base = () => sharp(oriented.data, { limitInputPixels: PIXEL_LIMIT });
+		const display = await base()
+			.resize(DISPLAY_EDGE, DISPLAY_EDGE, { fit: 'inside', withoutEnlargement: true })
+			.webp({ quality: 82 })
+			.toBuffer({ resolveWithObject: true });
+		const thumb = await base()
+			.resize(THUMB_EDGE, THUMB_EDGE, { fit: 'inside', withoutEnlargement: true })
+			.webp({ quality: 74 })
+			.toBuffer();
+		return {
+			originalName: cleanFileName(name),
+			display: display.data,
+			thumb,
+			contentType: 'image/webp',
+			width: display.info.width,
+			height: display.info.height,
+			bytes: bytes.byteLength
+		};
+	} catch {
+		throw new PhotoError(
+			name,
+			`${shown} is damaged or incomplete (it may not have finished copying). Please send it again.`
+		);
+	}
+}
