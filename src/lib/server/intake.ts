@@ -3,7 +3,7 @@
 // Photos are stored first; then every record is written in ONE transaction, with the two
 // e-mails in the outbox; the mails are queued after the commit.
 import { createHmac, timingSafeEqual } from 'node:crypto';
-import { and, eq, inArray, isNull, lt, or, sql } from 'drizzle-orm';
+import { and, eq, gt, inArray, isNull, lt, or, sql } from 'drizzle-orm';
 import { RateLimiter } from 'sveltekit-rate-limiter/server';
 import {
 	PHOTO_LIMITS,
@@ -324,7 +324,7 @@ export async function submitInquiry(sub: Submission): Promise<{ leadId: string; 
 						and(
 							inArray(photos.draftToken, tokens),
 							isNull(photos.leadId),
-							sql`${photos.createdAt} > ${since}`
+							gt(photos.createdAt, since)
 						)
 					)
 					.returning({ bytes: photos.bytes })
