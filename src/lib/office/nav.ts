@@ -9,6 +9,7 @@ export interface NavItem {
 // Sections appear here as they are built; each is shown only to the roles it serves.
 export const OFFICE_NAV: readonly NavItem[] = [
 	{ href: '/office', label: 'Today', roles: ['owner', 'sales', 'crew'] },
+	{ href: '/office/leads', label: 'Leads', roles: ['owner', 'sales'] },
 	{ href: '/office/team', label: 'Team', roles: ['owner'] },
 	{ href: '/office/settings', label: 'Settings', roles: ['owner'] }
 ];

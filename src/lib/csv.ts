@@ -1,0 +1,16 @@
+// CSV (RFC 4180): fields with a comma, quote, CR or LF are quoted, quotes doubled, lines end
+// in CRLF. A cell that a spreadsheet would run as a formula (starting with =, +, -, @, or a tab
+// or CR that hides one) gets a leading apostrophe, so opening the export runs nothing.
+
+const FORMULA_START = /^[=+\-@\t\r]/;
+
+export function csvCell(value: unknown): string {
+	if (value === null || value === undefined) return '';
+	let text = value instanceof Date ? value.toISOString() : String(value);
+	if (FORMULA_START.test(text)) text = `'${text}`;
+	return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
+}
+
+export function csvLine(cells: readonly unknown[]): string {
+	return cells.map(csvCell).join(',') + '\r\n';
+}

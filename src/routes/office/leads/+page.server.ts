@@ -1,0 +1,11 @@
+import { requireRole } from '$lib/server/access';
+import { assignableStaff } from '$lib/server/leads';
+import { firmSettings } from '$lib/server/settings';
+import type { PageServerLoad } from './$types';
+
+// The rows themselves are fetched by the page from /api/leads, driven by the URL.
+export const load: PageServerLoad = async (event) => {
+	const user = requireRole(event, 'owner', 'sales');
+	const [staff, firm] = await Promise.all([assignableStaff(), firmSettings()]);
+	return { staff, replyTargetHours: firm.replyTargetHours, userId: user.id };
+};

@@ -1,0 +1,165 @@
+import { error, fail } from '@sveltejs/kit';
+import type { z } from 'zod';
+import { fieldErrors, formValues } from '$lib/schema/auth';
+import {
+	assignFormSchema,
+	detailsFormSchema,
+	logFormSchema,
+	mailFormSchema,
+	priorityFormSchema,
+	stageFormSchema
+} from '$lib/schema/leads';
+import { requireRole } from '$lib/server/access';
+import { newToken } from '$lib/server/crypto';
+import { renderTemplates, sendLeadMail, templateContext } from '$lib/server/lead-mail';
+import {
+	assignableStaff,
+	assignLead,
+	changeStage,
+	getLead,
+	LeadConflictError,
+	LeadEditError,
+	LeadNotFoundError,
+	logActivity,
+	setPriority,
+	updateDetails
+} from '$lib/server/leads';
+import { firmSettings } from '$lib/server/settings';
+import { signedUrl } from '$lib/server/storage';
+import type { Actions, PageServerLoad } from './$types';
+
+/** Photo links live five minutes; the page asks for fresh ones when it reloads. */
+const PHOTO_LINK_SECONDS = 300;
+
+export const load: PageServerLoad = async (event) => {
+	const user = requireRole(event, 'owner', 'sales');
+	const found = await getLead(event.params.id);
+	if (!found) error(404, 'No lead with that number');
+	const [staff, firm, photos] = await Promise.all([
+		assignableStaff(),
+		firmSettings(),
+		Promise.all(
+			found.photos.map(async (p) => ({
+				id: p.id,
+				width: p.width,
+				height: p.height,
+				name: p.originalName,
+				thumbUrl: await signedUrl(p.thumbKey, PHOTO_LINK_SECONDS),
+				fullUrl: await signedUrl(p.displayKey, PHOTO_LINK_SECONDS)
+			}))
+		)
+	]);
+	const templates = renderTemplates(
+		templateContext(found.lead, found.contact.name, firm, user.name)
+	);
+	return {
+		lead: found.lead,
+		contact: found.contact,
+		property: found.property,
+		updatedByName: found.updatedByName,
+		photos,
+		timeline: found.timeline,
+		staff,
+		templates,
+		sendKey: newToken(),
+		replyTargetHours: firm.replyTargetHours
+	};
+};
+
+type Outcome = { form: string; ok: string } | ReturnType<typeof fail>;
+
+/** Runs an edit; turns a stale version into a 409 with who changed it and when. */
+async function edit(
+	form: string,
+	data: FormData,
+	run: () => Promise<void>,
+	ok: string
+): Promise<Outcome> {
+	try {
+		await run();
+		return { form, ok };
+	} catch (err) {
+		if (err instanceof LeadConflictError) return fail(409, { form, conflict: err.message });
+		if (err instanceof LeadEditError) {
+			return fail(400, { form, values: formValues(data), errors: { _form: err.message } });
+		}
+		if (err instanceof LeadNotFoundError) error(404, err.message);
+		throw err;
+	}
+}
+
+function parse<T extends z.ZodType>(schema: T, form: string, data: FormData) {
+	const parsed = schema.safeParse(Object.fromEntries(data));
+	if (parsed.success) return { data: parsed.data as z.output<T> };
+	return {
+		failure: fail(400, { form, values: formValues(data), errors: fieldErrors(parsed.error) })
+	};
+}
+
+export const actions: Actions = {
+	stage: async (event) => {
+		const user = requireRole(event, 'owner', 'sales');
+		const data = await event.request.formData();
+		const p = parse(stageFormSchema, 'stage', data);
+		if (p.failure) return p.failure;
+		return edit(
+			'stage',
+			data,
+			() => changeStage(user.id, event.params.id, p.data),
+			'Stage changed'
+		);
+	},
+	assign: async (event) => {
+		const user = requireRole(event, 'owner', 'sales');
+		const data = await event.request.formData();
+		const p = parse(assignFormSchema, 'assign', data);
+		if (p.failure) return p.failure;
+		return edit('assign', data, () => assignLead(user.id, event.params.id, p.data), 'Assigned');
+	},
+	priority: async (event) => {
+		const user = requireRole(event, 'owner', 'sales');
+		const data = await event.request.formData();
+		const p = parse(priorityFormSchema, 'priority', data);
+		if (p.failure) return p.failure;
+		return edit(
+			'priority',
+			data,
+			() => setPriority(user.id, event.params.id, p.data),
+			'Priority set'
+		);
+	},
+	details: async (event) => {
+		const user = requireRole(event, 'owner', 'sales');
+		const data = await event.request.formData();
+		const p = parse(detailsFormSchema, 'details', data);
+		if (p.failure) return p.failure;
+		return edit(
+			'details',
+			data,
+			() => updateDetails(user.id, event.params.id, p.data),
+			'Details saved'
+		);
+	},
+	log: async (event) => {
+		const user = requireRole(event, 'owner', 'sales');
+		const data = await event.request.formData();
+		const p = parse(logFormSchema, 'log', data);
+		if (p.failure) return p.failure;
+		const what = p.data.kind === 'call' ? 'Call logged' : 'Note added';
+		return edit('log', data, () => logActivity(user.id, event.params.id, p.data), what);
+	},
+	mail: async (event) => {
+		const user = requireRole(event, 'owner', 'sales');
+		const data = await event.request.formData();
+		const p = parse(mailFormSchema, 'mail', data);
+		if (p.failure) return p.failure;
+		return edit(
+			'mail',
+			data,
+			async () => {
+				await sendLeadMail(user, event.params.id, p.data);
+			},
+			'E-mail queued: it goes out within a minute'
+		);
+	}
+};

@@ -1,0 +1,343 @@
+// The leads API, list query, edits and Today, against the real database and stand-ins.
+import { beforeEach, describe, expect, it } from 'vitest';
+import { eq } from 'drizzle-orm';
+import { client, db } from '$lib/server/db';
+import { activities, leads, outbox } from '$lib/server/db/schema';
+import { parseLeadQuery } from '$lib/schema/leads';
+import {
+	assignLead,
+	changeStage,
+	LeadConflictError,
+	listLeads,
+	listSql,
+	logActivity,
+	todaySummary
+} from '$lib/server/leads';
+import { sendLeadMail } from '$lib/server/lead-mail';
+import { deliverOutboxMessage } from '$lib/server/outbox';
+import type { SessionUser } from '$lib/server/auth';
+import { GET as apiGet } from '../../src/routes/api/leads/+server';
+import { GET as csvGet } from '../../src/routes/office/leads/export.csv/+server';
+import { resetDatabase } from '../support/database';
+import { clearMail, waitForMail } from '../support/mailbox';
+import { makeLead, makeUser, seedFirm } from './fixtures';
+
+const HOUR = 3_600_000;
+const ago = (h: number) => new Date(Date.now() - h * HOUR);
+
+type Staff = Awaited<ReturnType<typeof makeUser>>;
+let owner: Staff;
+let sales: Staff;
+let crew: Staff;
+let set: Record<'ada' | 'ben' | 'cora' | 'dev', Awaited<ReturnType<typeof makeLead>>>;
+
+beforeEach(async () => {
+	await resetDatabase();
+	await seedFirm();
+	owner = await makeUser('owner');
+	sales = await makeUser('sales');
+	crew = await makeUser('crew');
+	set = {
+		ada: await makeLead({
+			name: 'Ada Brookstone',
+			email: 'ada.brook@test.example',
+			phone: '(555) 010-2222',
+			town: 'Alder Crossing',
+			message: 'A bubbling boulder near the patio',
+			services: ['water-feature'],
+			budget: '5k-15k',
+			createdAt: ago(72)
+		}),
+		ben: await makeLead({
+			name: 'Ben Cattail',
+			town: 'Juniper Flats',
+			stage: 'contacted',
+			services: ['pond'],
+			budget: 'under-5k',
+			createdAt: ago(48),
+			firstReplyAt: ago(46),
+			assigneeId: sales.id,
+			source: 'referral'
+		}),
+		cora: await makeLead({
+			name: 'Cora Dunmore',
+			town: 'Linden Ford',
+			stage: 'closed',
+			closeReason: 'budget',
+			services: ['lighting', 'patio'],
+			budget: '30k-plus',
+			createdAt: ago(24),
+			source: 'referral'
+		}),
+		dev: await makeLead({
+			name: 'Dev Ellery',
+			town: 'Stillwater Bend',
+			message: 'Pondless stream down the slope behind the house',
+			budget: 'unsure',
+			createdAt: ago(1),
+			assigneeId: owner.id
+		})
+	};
+});
+
+const ctxOf = (user: Staff) => ({ userId: user.id, timeZone: 'America/Denver' });
+
+async function list(search: string, as: Staff = owner) {
+	const parsed = parseLeadQuery(new URLSearchParams(search));
+	if (!parsed.success) throw new Error(parsed.error.message);
+	return listLeads(parsed.data, ctxOf(as));
+}
+const names = (l: { rows: { name: string }[] }) => l.rows.map((r) => r.name.split(' ')[0]);
+
+function event(path: string, user: Staff | null) {
+	const url = new URL(path, 'http://127.0.0.1');
+	return {
+		url,
+		locals: { user: user ? ({ ...user } as SessionUser) : null },
+		request: new Request(url)
+	} as unknown as Parameters<typeof apiGet>[0];
+}
+
+async function status(run: () => Promise<Response>): Promise<number> {
+	try {
+		return (await run()).status;
+	} catch (error) {
+		return (error as { status: number }).status;
+	}
+}
+
+describe('GET /api/leads: sorting', () => {
+	it('sorts by received, newest first by default, with total and stage facets', async () => {
+		const res = await apiGet(event('/api/leads', owner));
+		expect(res.status).toBe(200);
+		const body = await res.json();
+		expect(names(body)).toEqual(['Dev', 'Cora', 'Ben', 'Ada']);
+		expect(body.total).toBe(4);
+		expect(body.facets).toMatchObject({ new: 2, contacted: 1, closed: 1, sold: 0 });
+	});
+
+	it('sorts by name, town, stage, budget and last touch in both directions', async () => {
+		expect(names(await list('sort=name&dir=asc'))).toEqual(['Ada', 'Ben', 'Cora', 'Dev']);
+		expect(names(await list('sort=name&dir=desc'))).toEqual(['Dev', 'Cora', 'Ben', 'Ada']);
+		expect(names(await list('sort=town&dir=asc'))).toEqual(['Ada', 'Ben', 'Cora', 'Dev']);
+		expect(names(await list('sort=stage&dir=asc'))).toEqual(['Ada', 'Dev', 'Ben', 'Cora']);
+		expect(names(await list('sort=budget&dir=asc'))).toEqual(['Ben', 'Ada', 'Cora', 'Dev']);
+		expect(names(await list('sort=last_touch&dir=asc'))).toEqual(['Ada', 'Ben', 'Cora', 'Dev']);
+	});
+});
+
+describe('GET /api/leads: filters', () => {
+	it('filters by stage (facets keep counting the other stages)', async () => {
+		const l = await list('stage=new');
+		expect(names(l)).toEqual(['Dev', 'Ada']);
+		expect(l.total).toBe(2);
+		expect(l.facets.contacted).toBe(1);
+		expect(names(await list('stage=new&stage=closed'))).toEqual(['Dev', 'Cora', 'Ada']);
+	});
+
+	it('filters by service, budget and assignee (mine, unassigned, a person)', async () => {
+		expect(names(await list('service=pond'))).toEqual(['Ben']);
+		expect(names(await list('service=patio'))).toEqual(['Cora']);
+		expect(names(await list('budget=30k-plus'))).toEqual(['Cora']);
+		expect(names(await list('assignee=mine', sales))).toEqual(['Ben']);
+		expect(names(await list('assignee=mine', owner))).toEqual(['Dev']);
+		expect(names(await list('assignee=unassigned'))).toEqual(['Cora', 'Ada']);
+		expect(names(await list(`assignee=${owner.id}`))).toEqual(['Dev']);
+	});
+
+	it('filters by awaiting first reply (not replied, not closed or sold)', async () => {
+		expect(names(await list('awaiting=1'))).toEqual(['Dev', 'Ada']);
+	});
+
+	it('filters received dates as days in the firm time zone', async () => {
+		// 23:30 on 9 January in Denver is 06:30 on 10 January in UTC.
+		await makeLead({ name: 'Eve Late', createdAt: new Date('2026-01-10T06:30:00Z') });
+		expect(names(await list('from=2026-01-09&to=2026-01-09'))).toEqual(['Eve']);
+		expect(names(await list('from=2026-01-10&to=2026-01-10'))).toEqual([]);
+		expect(names(await list('to=2026-01-09'))).toEqual(['Eve']);
+	});
+});
+
+describe('GET /api/leads: search', () => {
+	it('finds leads by name, e-mail, phone, town and message, all words required', async () => {
+		expect(names(await list('q=brookstone'))).toEqual(['Ada']);
+		expect(names(await list('q=ADA.BROOK@'))).toEqual(['Ada']);
+		expect(names(await list('q=010-2222'))).toEqual(['Ada']);
+		expect(names(await list('q=5550102222'))).toEqual(['Ada']);
+		expect(names(await list('q=juniper'))).toEqual(['Ben']);
+		expect(names(await list('q=pondless slope'))).toEqual(['Dev']);
+		expect(names(await list('q=pondless patio'))).toEqual([]);
+		expect(names(await list('q=50%25'))).toEqual([]);
+	});
+
+	it('follows edits of the contact and the property (kept by triggers)', async () => {
+		await client`update contacts set name = 'Ada Quarrystone' where id = ${set.ada.contactId}`;
+		await client`update properties set town = 'Fernhollow' where id = ${set.ada.propertyId}`;
+		expect(names(await list('q=quarrystone fernhollow'))).toEqual(['Ada']);
+		expect(names(await list('q=brookstone'))).toEqual([]);
+	});
+
+	it('can answer the search from the trigram index', async () => {
+		const q = parseLeadQuery(new URLSearchParams('q=brookstone'));
+		const s = listSql(q.data!, ctxOf(owner));
+		const plan = await client.begin(async (tx) => {
+			await tx`set local enable_seqscan = off`;
+			return tx.unsafe(`explain ${s.rows.text}`, s.rows.params as never[]);
+		});
+		expect(plan.map((r) => r['QUERY PLAN']).join('\n')).toContain('leads_search_trgm_idx');
+	});
+});
+
+describe('GET /api/leads: paging', () => {
+	it('pages with the right total', async () => {
+		for (let i = 0; i < 30; i++) await makeLead({ createdAt: ago(100 + i) });
+		const first = await list('size=25');
+		const second = await list('size=25&page=2');
+		expect(first.total).toBe(34);
+		expect(first.rows).toHaveLength(25);
+		expect(second.rows).toHaveLength(9);
+		expect(second.total).toBe(34);
+		const ids = new Set([...first.rows, ...second.rows].map((r) => r.id));
+		expect(ids.size).toBe(34);
+		expect((await list('size=25&page=3')).rows).toHaveLength(0);
+	});
+});
+
+describe('GET /api/leads: bad parameters and roles', () => {
+	it.each([
+		['sort=colour', 'sort'],
+		['dir=up', 'dir'],
+		['page=0', 'page'],
+		['page=two', 'page'],
+		['size=7', 'size'],
+		['stage=won', 'stage'],
+		['from=2027-13-45', 'from'],
+		['from=2027-03-10&to=2027-03-01', 'to'],
+		['awaiting=maybe', 'awaiting'],
+		['colour=blue', 'colour'],
+		[`q=${'x'.repeat(101)}`, 'q']
+	])('answers 400 for %s, naming the parameter', async (search, param) => {
+		const res = await apiGet(event(`/api/leads?${search}`, owner));
+		expect(res.status).toBe(400);
+		const body = await res.json();
+		expect(body.error).toContain(param);
+	});
+
+	it('refuses crew (403) and anonymous visitors (401); the CSV export too', async () => {
+		expect(await status(() => apiGet(event('/api/leads', crew)))).toBe(403);
+		expect(await status(() => apiGet(event('/api/leads', null)))).toBe(401);
+		expect(await status(() => csvGet(event('/office/leads/export.csv', crew)))).toBe(403);
+		expect(await status(() => apiGet(event('/api/leads', sales)))).toBe(200);
+	});
+});
+
+describe('edits', () => {
+	it('refuses the second of two edits from the same version, naming who changed it and when', async () => {
+		const version = set.ada.version;
+		await changeStage(sales.id, set.ada.id, { version, stage: 'contacted' });
+		const second = assignLead(owner.id, set.ada.id, { version, assigneeId: owner.id });
+		await expect(second).rejects.toBeInstanceOf(LeadConflictError);
+		await expect(second).rejects.toThrow(/^Changed by Test sales at .+ reload/);
+		const [after] = await db.select().from(leads).where(eq(leads.id, set.ada.id));
+		expect(after).toMatchObject({ stage: 'contacted', assigneeId: null, version: version + 1 });
+	});
+
+	it('closing records the reason on the lead and the timeline', async () => {
+		await expect(
+			changeStage(owner.id, set.dev.id, { version: set.dev.version, stage: 'closed' })
+		).rejects.toThrow(/reason/);
+		await changeStage(owner.id, set.dev.id, {
+			version: set.dev.version,
+			stage: 'closed',
+			closeReason: 'chose_another_firm',
+			closeNote: 'Went with a pool builder'
+		});
+		const [after] = await db.select().from(leads).where(eq(leads.id, set.dev.id));
+		expect(after.closeReason).toBe('chose_another_firm');
+		const entries = await db.select().from(activities).where(eq(activities.leadId, set.dev.id));
+		expect(entries.find((e) => e.kind === 'stage')).toMatchObject({
+			actorId: owner.id,
+			data: { from: 'new', to: 'closed', reason: 'chose_another_firm' }
+		});
+	});
+
+	it('the first logged call sets the first-reply time and moves a new lead to contacted', async () => {
+		await logActivity(sales.id, set.ada.id, { kind: 'note', body: 'Wants it before June' });
+		let [after] = await db.select().from(leads).where(eq(leads.id, set.ada.id));
+		expect(after.firstReplyAt).toBeNull();
+		await logActivity(sales.id, set.ada.id, { kind: 'call', body: 'Talked; sending times' });
+		[after] = await db.select().from(leads).where(eq(leads.id, set.ada.id));
+		expect(after.firstReplyAt).not.toBeNull();
+		expect(after.stage).toBe('contacted');
+		const firstReply = after.firstReplyAt!.getTime();
+		await logActivity(sales.id, set.ada.id, { kind: 'call', body: 'Second call' });
+		[after] = await db.select().from(leads).where(eq(leads.id, set.ada.id));
+		expect(after.firstReplyAt!.getTime()).toBe(firstReply);
+	});
+
+	it('sends an edited template e-mail once per send key, on the timeline, as first reply', async () => {
+		await clearMail();
+		const input = {
+			template: 'visit',
+			sendKey: 'send-key-0001',
+			subject: 'A site visit for your boulder',
+			body: 'Hello Ada,\n\nTuesday at 10?'
+		};
+		expect(await sendLeadMail(sales, set.ada.id, input)).toEqual({ queued: true });
+		expect(await sendLeadMail(sales, set.ada.id, input)).toEqual({ queued: false });
+		const mails = await db.select().from(outbox).where(eq(outbox.leadId, set.ada.id));
+		expect(mails).toHaveLength(1);
+		await deliverOutboxMessage(mails[0].id);
+		const mail = await waitForMail('ada.brook@test.example', /site visit for your boulder/);
+		expect(mail.text).toContain('Tuesday at 10?');
+		const entries = await db.select().from(activities).where(eq(activities.leadId, set.ada.id));
+		expect(entries.filter((e) => e.kind === 'email')).toHaveLength(1);
+		const [after] = await db.select().from(leads).where(eq(leads.id, set.ada.id));
+		expect(after.firstReplyAt).not.toBeNull();
+	});
+});
+
+describe('CSV export', () => {
+	it('exports the filtered view with RFC 4180 quoting and formulas neutralised', async () => {
+		await makeLead({
+			name: '=HYPERLINK("http://evil.example","Ada")',
+			town: 'Lake, "North"',
+			phone: '+1 555 010 9999',
+			createdAt: ago(2)
+		});
+		const res = await csvGet(event('/office/leads/export.csv?stage=new&sort=name&dir=asc', owner));
+		expect(res.status).toBe(200);
+		expect(res.headers.get('content-type')).toContain('text/csv');
+		const text = await res.text();
+		const lines = text.split('\r\n');
+		expect(lines[0]).toMatch(/^Number,Received,Name,E-mail,Phone,Town/);
+		expect(lines).toHaveLength(5); // header, three new leads, and the empty string after the last CRLF
+		expect(text).toContain('"\'=HYPERLINK(""http://evil.example"",""Ada"")"');
+		expect(text).toContain(`'+1 555 010 9999`);
+		expect(text).toContain('"Lake, ""North"""');
+		expect(text).not.toContain('Cora');
+	});
+});
+
+describe('Today', () => {
+	it('lists new leads awaiting a reply oldest first, counts stages and sources, median reply', async () => {
+		const today = await todaySummary();
+		expect(today.awaiting.map((a) => a.name)).toEqual(['Ada Brookstone', 'Dev Ellery']);
+		expect(today.stages).toMatchObject({ new: 2, contacted: 1, closed: 1 });
+		expect(today.sources).toEqual([
+			{ source: 'referral', leads: 2, sold: 0, share: 0 },
+			{ source: 'website', leads: 2, sold: 0, share: 0 }
+		]);
+		expect(today.medianReplyMs).toBeCloseTo(2 * HOUR, -3);
+		await makeLead({
+			stage: 'sold',
+			source: 'referral',
+			createdAt: ago(30),
+			firstReplyAt: ago(26)
+		});
+		const later = await todaySummary();
+		expect(later.sources[0]).toMatchObject({ source: 'referral', leads: 3, sold: 1 });
+		expect(later.sources[0].share).toBeCloseTo(1 / 3);
+		expect(later.medianReplyMs).toBeCloseTo(3 * HOUR, -3);
+	});
+});
