@@ -591,8 +591,9 @@ export async function jobBalance(jobId: string, tx: Db = db) {
 	if (!job) throw new JobError('not_found', 'There is no such job.');
 	const { approvedChangeOrdersCents } = await import('./change-orders');
 	const changeOrdersCents = await approvedChangeOrdersCents(jobId, tx);
-	// Payments arrive with issue 10 (the payments table); until then nothing has been received.
-	const paidCents = 0;
+	// Payments received (issue 10): card, cheque, cash, transfer; refunds are negative.
+	const { paymentsReceivedCents } = await import('./payments/ledger');
+	const paidCents = await paymentsReceivedCents(jobId, tx);
 	const totalCents = job.contractCents + changeOrdersCents;
 	return {
 		contractCents: job.contractCents,
