@@ -10,6 +10,7 @@ export interface NavItem {
 export const OFFICE_NAV: readonly NavItem[] = [
 	{ href: '/office', label: 'Today', roles: ['owner', 'sales', 'crew'] },
 	{ href: '/office/leads', label: 'Leads', roles: ['owner', 'sales'] },
+	{ href: '/office/payments', label: 'Payments', roles: ['owner'] },
 	{ href: '/office/team', label: 'Team', roles: ['owner'] },
 	{ href: '/office/settings', label: 'Settings', roles: ['owner'] }
 ];

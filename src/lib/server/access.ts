@@ -14,12 +14,15 @@ export const ROUTE_ROLES: ReadonlyArray<{ prefix: string; roles: readonly Role[]
 	{ prefix: '/office/estimates', roles: ['owner', 'sales'] },
 	{ prefix: '/office/price-list', roles: ['owner', 'sales'] },
 	{ prefix: '/office/leads', roles: ['owner', 'sales'] },
+	{ prefix: '/office/payments', roles: ['owner'] },
 	{ prefix: '/office', roles: ALL_STAFF },
 	{ prefix: '/api/health', roles: [] },
 	{ prefix: '/api/estimates', roles: ['owner', 'sales'] },
 	{ prefix: '/api/leads', roles: ['owner', 'sales'] },
 	// Prospects are anonymous: the inquiry's photo uploads are public (rate-limited in the route).
 	{ prefix: '/api/uploads', roles: [] },
+	// The payment provider calls it; the SDK's signature check is the guard (issue 10).
+	{ prefix: '/api/payments/webhook', roles: [] },
 	{ prefix: '/api', roles: ALL_STAFF }
 ];
 
