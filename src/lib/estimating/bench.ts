@@ -1,7 +1,6 @@
 /**
- * Benchmark (not a test): median time of a full estimate for the three-outlet demo and for a
- * twelve-outlet design with lighting and a wall. Goal: under 1 ms for twelve outlets.
- * Run: npx tsx src/lib/estimating/bench.ts
+ * The designs the estimate benchmark (scripts/bench/estimate.ts, `npm run bench:estimate`) times:
+ * the three-outlet demo and a twelve-outlet design with lighting and a wall.
  */
 import { demoCatalog, demoDesign, estimate, type Design } from './index';
 
@@ -66,34 +65,4 @@ export function twelveOutletDesign(): Design {
 		walls: base.walls!.map((w) => ({ ...w, optionId: undefined, lengthFt: 30 })),
 		options: []
 	};
-}
-
-function medianMs(run: () => void, iterations: number): number {
-	for (let i = 0; i < 200; i++) run();
-	const times: number[] = [];
-	for (let i = 0; i < iterations; i++) {
-		const start = performance.now();
-		run();
-		times.push(performance.now() - start);
-	}
-	times.sort((a, b) => a - b);
-	return times[Math.floor(times.length / 2)];
-}
-
-function bench(label: string, design: Design) {
-	const catalog = demoCatalog();
-	const check = estimate(design, catalog);
-	if (!check.ok) throw new Error(`${label}: ${JSON.stringify(check.errors)}`);
-	const ms = medianMs(() => estimate(design, catalog), 2000);
-	console.log(`${label}: median ${ms.toFixed(3)} ms per full estimate`);
-	return ms;
-}
-
-const isMain = typeof process !== 'undefined' && process.argv[1]?.endsWith('bench.ts');
-if (isMain) {
-	bench('3 outlets (demo)', demoDesign());
-	const twelve = bench('12 outlets, lighting and a wall', twelveOutletDesign());
-	console.log(
-		twelve < 1 ? 'Goal met: under 1 ms for twelve outlets' : 'Goal missed: 1 ms for twelve outlets'
-	);
 }
