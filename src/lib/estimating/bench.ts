@@ -2,7 +2,7 @@
  * The designs the estimate benchmark (scripts/bench/estimate.ts, `npm run bench:estimate`) times:
  * the three-outlet demo and a twelve-outlet design with lighting and a wall.
  */
-import { demoCatalog, demoDesign, estimate, type Design } from './index';
+import { demoDesign, type Design } from './index';
 
 export function twelveOutletDesign(): Design {
 	const base = demoDesign();
