@@ -89,3 +89,78 @@ export async function makeLead(f: LeadFixture = {}) {
 		.values({ leadId: id, kind: 'inquiry', body: f.message ?? '', createdAt });
 	return lead;
 }
+
+// ---------------------------------------------------------------------------------------------
+// Issue 9 (jobs): a lead with a real engine estimate, optionally accepted by the homeowner.
+// Direct inserts, so these tests do not depend on the estimates module's API.
+
+export async function makeEstimate(
+	options: { accepted?: boolean; email?: string; name?: string } = {}
+) {
+	const { db } = await import('$lib/server/db');
+	const schema = await import('$lib/server/db/schema');
+	const { newId } = await import('$lib/server/crypto');
+	const { estimate } = await import('$lib/estimating');
+	const { demoCatalog, demoDesign } = await import('$lib/estimating/demo');
+	const design = demoDesign();
+	const catalog = demoCatalog();
+	const result = estimate(design, catalog);
+	if (!result.ok) throw new Error('the demo design no longer estimates');
+	const contactId = newId();
+	const email = options.email ?? `home-${contactId}@test.example`;
+	await db.insert(schema.contacts).values({
+		id: contactId,
+		name: options.name ?? 'Ines Harrow',
+		email,
+		phone: '(555) 010-7788'
+	});
+	const propertyId = newId();
+	await db.insert(schema.properties).values({
+		id: propertyId,
+		contactId,
+		street: '7 Quarry Road',
+		town: 'Alder Crossing',
+		postalCode: '80998',
+		siteNotes: 'Gate on the north side; septic lid by the lilac.'
+	});
+	const leadId = newId();
+	await db.insert(schema.leads).values({
+		id: leadId,
+		contactId,
+		propertyId,
+		stage: options.accepted ? 'estimate_sent' : 'estimating',
+		services: ['water-feature']
+	});
+	const estimateId = newId();
+	const stored = JSON.parse(JSON.stringify(result)) as Record<string, unknown>;
+	await db.insert(schema.estimates).values({
+		id: estimateId,
+		leadId,
+		number: 1,
+		status: options.accepted ? 'accepted' : 'sent',
+		design: design as unknown as Record<string, unknown>,
+		result: stored,
+		catalog: catalog as unknown as Record<string, unknown>,
+		scope: 'Basalt column over a hidden basin, with two uplights',
+		totalCents: result.pricing.totalCents,
+		taxCents: 0,
+		depositCents: result.pricing.depositCents,
+		sentAt: new Date()
+	});
+	if (options.accepted) {
+		await db.insert(schema.estimateAcceptances).values({
+			id: newId(),
+			estimateId,
+			estimateNumber: 1,
+			typedName: options.name ?? 'Ines Harrow',
+			ipAddress: '127.0.0.1',
+			userAgent: 'vitest',
+			revision: 1,
+			optionsChosen: { options: [], alternates: { topping: 'topping-pebble' } },
+			totalCents: result.pricing.totalCents,
+			depositCents: result.pricing.depositCents,
+			result: stored
+		});
+	}
+	return { contactId, propertyId, leadId, estimateId, email, result };
+}

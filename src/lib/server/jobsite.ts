@@ -506,9 +506,9 @@ async function siteFor(job: Job) {
 }
 
 const cautionsOf = (frozen: FrozenEstimate) => {
-	const list = frozen.result.cautions as { title?: string; text?: string }[] | undefined;
+	const list = frozen.result.cautions as { title?: string; reason?: string }[] | undefined;
 	return Array.isArray(list)
-		? list.map((c) => [c.title, c.text].filter(Boolean).join(': ')).filter(Boolean)
+		? list.map((c) => [c.title, c.reason].filter(Boolean).join(': ')).filter(Boolean)
 		: [];
 };
 
