@@ -4,6 +4,8 @@ import { settings, users } from '../../src/lib/server/db/schema';
 import { newId } from '../../src/lib/server/crypto';
 import { scriptDb } from '../lib/db';
 import { DEMO_FIRM, DEMO_STAFF } from './demo-data';
+import { appEnv, serviceConfig } from '../lib/config';
+import { seedLeads } from './leads';
 import { seedPriceList } from './pricelist';
 
 export async function databaseIsEmpty(url: string): Promise<boolean> {
@@ -40,4 +42,8 @@ export async function seedDemo(url: string): Promise<void> {
 	} finally {
 		await close();
 	}
+	// Demo inquiries (issue 4), with photos in the bucket of the same profile as the database.
+	const profile = url.includes(`:${serviceConfig('test').pgPort}/`) ? 'test' : 'dev';
+	const services = appEnv(profile);
+	await seedLeads(url, { s3: { endpoint: services.S3_ENDPOINT, bucket: services.S3_BUCKET } });
 }

@@ -17,7 +17,8 @@ const PAGES: Record<string, Expect> = {
 	'/office': STAFF,
 	'/office/team': OWNER_ONLY,
 	'/office/settings': OWNER_ONLY,
-	'/api/health': PUBLIC_API
+	'/api/health': PUBLIC_API,
+	'/api/uploads': PUBLIC_API
 };
 
 /** Form actions (POST), with the status each gets before any validation. */

@@ -2,7 +2,7 @@
 // declared type; decoding runs under a pixel limit and fails on truncated data; the camera's
 // orientation is applied; every bit of metadata (GPS above all) is dropped; two sizes come out.
 import sharp from 'sharp';
-import { PHOTO_LIMITS, cleanFileName } from '$lib/schema/intake';
+import { PHOTO_LIMITS, cleanFileName } from '../schema/intake';
 
 export const PIXEL_LIMIT = 40_000_000;
 export const DISPLAY_EDGE = 2048;
