@@ -11,6 +11,7 @@ export const OFFICE_NAV: readonly NavItem[] = [
 	{ href: '/office', label: 'Today', roles: ['owner', 'sales', 'crew'] },
 	{ href: '/office/leads', label: 'Leads', roles: ['owner', 'sales'] },
 	{ href: '/office/payments', label: 'Payments', roles: ['owner'] },
+	{ href: '/office/visits', label: 'Visits', roles: ['owner', 'sales'] },
 	{ href: '/office/team', label: 'Team', roles: ['owner'] },
 	{ href: '/office/settings', label: 'Settings', roles: ['owner'] }
 ];
