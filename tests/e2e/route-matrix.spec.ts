@@ -11,6 +11,7 @@ type Expect = Record<Who, number>;
 const STAFF: Expect = { anonymous: 303, owner: 200, sales: 200, crew: 200 };
 const OWNER_ONLY: Expect = { anonymous: 303, owner: 200, sales: 403, crew: 403 };
 const PUBLIC_API: Expect = { anonymous: 200, owner: 200, sales: 200, crew: 200 };
+const LEADS: Expect = { anonymous: 303, owner: 200, sales: 200, crew: 403 };
 
 /** Pages and endpoints by URL pattern, with the status each kind of visitor gets on GET. */
 const PAGES: Record<string, Expect> = {
@@ -18,7 +19,12 @@ const PAGES: Record<string, Expect> = {
 	'/office/team': OWNER_ONLY,
 	'/office/settings': OWNER_ONLY,
 	'/api/health': PUBLIC_API,
-	'/api/uploads': PUBLIC_API
+	'/api/uploads': PUBLIC_API,
+	// Leads (issue 5): owner and sales only; an unknown lead id is a 404.
+	'/office/leads': LEADS,
+	'/office/leads/export.csv': LEADS,
+	'/office/leads/[id]': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/api/leads': { anonymous: 401, owner: 200, sales: 200, crew: 403 }
 };
 
 /** Form actions (POST), with the status each gets before any validation. */
@@ -27,7 +33,14 @@ const ACTIONS: Record<string, Expect> = {
 	'/office/team?/role': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
 	'/office/team?/disable': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
 	'/office/team?/enable': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
-	'/office/settings': { anonymous: 303, owner: 400, sales: 403, crew: 403 }
+	'/office/settings': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
+	// The action refuses the empty form (400), then the page of an unknown lead renders as 404.
+	'/office/leads/[id]?/stage': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/leads/[id]?/assign': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/leads/[id]?/priority': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/leads/[id]?/details': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/leads/[id]?/log': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/leads/[id]?/mail': { anonymous: 303, owner: 404, sales: 404, crew: 403 }
 };
 
 const guardedPatterns = [

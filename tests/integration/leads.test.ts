@@ -80,7 +80,7 @@ beforeEach(async () => {
 	};
 });
 
-const ctxOf = (user: Staff) => ({ userId: user.id, timeZone: 'America/Denver' });
+const ctxOf = (user: Staff) => ({ userId: user.id });
 
 async function list(search: string, as: Staff = owner) {
 	const parsed = parseLeadQuery(new URLSearchParams(search));
@@ -95,10 +95,10 @@ function event(path: string, user: Staff | null) {
 		url,
 		locals: { user: user ? ({ ...user } as SessionUser) : null },
 		request: new Request(url)
-	} as unknown as Parameters<typeof apiGet>[0];
+	} as never;
 }
 
-async function status(run: () => Promise<Response>): Promise<number> {
+async function status(run: () => Response | Promise<Response>): Promise<number> {
 	try {
 		return (await run()).status;
 	} catch (error) {

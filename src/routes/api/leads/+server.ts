@@ -2,7 +2,6 @@ import { json } from '@sveltejs/kit';
 import { parseLeadQuery } from '$lib/schema/leads';
 import { requireRole } from '$lib/server/access';
 import { listLeads } from '$lib/server/leads';
-import { firmSettings } from '$lib/server/settings';
 import type { RequestHandler } from './$types';
 
 /** The office leads table: one page of rows, the total and the count per stage. */
@@ -22,7 +21,6 @@ export const GET: RequestHandler = async (event) => {
 			{ status: 400 }
 		);
 	}
-	const firm = await firmSettings();
-	const list = await listLeads(parsed.data, { userId: user.id, timeZone: firm.timeZone });
+	const list = await listLeads(parsed.data, { userId: user.id });
 	return json(list, { headers: { 'cache-control': 'no-store' } });
 };

@@ -39,7 +39,7 @@ export const GET: RequestHandler = async (event) => {
 		error(400, parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; '));
 	}
 	const { timeZone } = await firmSettings();
-	const rows = allLeadRows(parsed.data, { userId: user.id, timeZone });
+	const rows = allLeadRows(parsed.data, { userId: user.id });
 	const encoder = new TextEncoder();
 	const stream = new ReadableStream<Uint8Array>({
 		async start(controller) {
