@@ -12,6 +12,8 @@ export const OFFICE_NAV: readonly NavItem[] = [
 	{ href: '/office/leads', label: 'Leads', roles: ['owner', 'sales'] },
 	{ href: '/office/payments', label: 'Payments', roles: ['owner'] },
 	{ href: '/office/visits', label: 'Visits', roles: ['owner', 'sales'] },
+	{ href: '/office/estimates', label: 'Estimates', roles: ['owner', 'sales'] },
+	{ href: '/office/price-list', label: 'Price list', roles: ['owner', 'sales'] },
 	{ href: '/office/team', label: 'Team', roles: ['owner'] },
 	{ href: '/office/settings', label: 'Settings', roles: ['owner'] }
 ];

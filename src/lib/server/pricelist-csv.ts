@@ -1,21 +1,10 @@
 // CSV for the price list: RFC 4180 quoting, one item per row, money in dollars with cents.
 import { z } from 'zod';
 import { catalogSchema, ITEM_UNITS } from '$lib/estimating/schema';
+import { CATEGORIES } from '$lib/estimating/categories';
 import { centsToDollarText, parseDollars } from '$lib/components/estimates/money';
 
-export const CATEGORIES = [
-	'pipe',
-	'fitting',
-	'valve',
-	'pump',
-	'basin',
-	'stone',
-	'aggregate',
-	'wall',
-	'lighting',
-	'electrical',
-	'other'
-] as const;
+export { CATEGORIES };
 
 export const CSV_COLUMNS = [
 	'sku',

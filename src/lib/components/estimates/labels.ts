@@ -1,0 +1,42 @@
+import type { PriceSummary } from '$lib/estimating';
+
+/** A bucket's name as people read it: the base, an option, or "Alternate: choice". */
+export function bucketLabel(pricing: PriceSummary, bucket: string): string {
+	if (bucket === 'base') return 'The feature';
+	const option = pricing.options.find((o) => o.id === bucket);
+	if (option) return `Option: ${option.name}`;
+	for (const a of pricing.alternates) {
+		const c = a.choices.find((x) => x.id === bucket);
+		if (c) return `${a.name}: ${c.name}`;
+	}
+	return bucket;
+}
+
+export const UNIT_NAMES: Record<string, string> = {
+	each: 'each',
+	ft: 'ft',
+	ft2: 'ft²',
+	ft3: 'ft³',
+	yd3: 'yd³',
+	ton: 'ton',
+	lb: 'lb',
+	bag: 'bag',
+	load: 'load'
+};
+
+export const HANDLING_NAMES: Record<string, string> = {
+	'one-person': 'One person',
+	'team-lift': 'Team lift',
+	cart: 'Stone cart',
+	hoist: 'Hoist or tripod',
+	'compact-loader': 'Compact loader',
+	'larger-machine': 'Larger machine'
+};
+
+/** Cautions the homeowner should read (utilities, electrical work, open water). */
+export const HOMEOWNER_CAUTIONS = new Set([
+	'locate-utilities',
+	'ground-fault-protection',
+	'licensed-electrician',
+	'open-water'
+]);

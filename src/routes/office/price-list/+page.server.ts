@@ -1,0 +1,95 @@
+import { fail } from '@sveltejs/kit';
+import { asc } from 'drizzle-orm';
+import { fieldErrors, formValues } from '$lib/schema/auth';
+import { requireRole } from '$lib/server/access';
+import { db } from '$lib/server/db';
+import { laborRates, pumpModels } from '$lib/server/db/schema';
+import {
+	estimatingConfig,
+	laborFormSchema,
+	listItems,
+	pumpFormSchema,
+	removeItem,
+	saveEstimatingSettings,
+	saveLaborRate,
+	savePump,
+	settingsFormSchema,
+	upsertItems
+} from '$lib/server/pricelist';
+import { CSV_COLUMNS, rowToItem } from '$lib/server/pricelist-csv';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async (event) => {
+	const user = requireRole(event, 'owner', 'sales');
+	const [items, pumps, rates, config] = await Promise.all([
+		listItems(),
+		db.select().from(pumpModels).orderBy(asc(pumpModels.watts)),
+		db.select().from(laborRates).orderBy(asc(laborRates.id)),
+		estimatingConfig()
+	]);
+	return { items, pumps, rates, config, canEdit: user.role === 'owner' };
+};
+
+export const actions: Actions = {
+	item: async (event) => {
+		requireRole(event, 'owner');
+		const data = await event.request.formData();
+		const cells = Object.fromEntries(CSV_COLUMNS.map((c) => [c, String(data.get(c) ?? '')]));
+		const row = rowToItem(cells, 0);
+		if (!row.item) return fail(400, { form: 'item', values: cells, errors: row.errors });
+		await upsertItems([row.item]);
+		return { form: 'item', saved: row.item.sku };
+	},
+	remove: async (event) => {
+		requireRole(event, 'owner');
+		const data = await event.request.formData();
+		const sku = String(data.get('sku') ?? '');
+		if (!sku) return fail(400, { form: 'remove', errors: ['No item named'] });
+		await removeItem(sku);
+		return { form: 'remove', removed: sku };
+	},
+	pump: async (event) => {
+		requireRole(event, 'owner');
+		const data = await event.request.formData();
+		const parsed = pumpFormSchema.safeParse(Object.fromEntries(data));
+		if (!parsed.success) {
+			return fail(400, {
+				form: 'pump',
+				values: formValues(data),
+				fieldErrors: fieldErrors(parsed.error)
+			});
+		}
+		const errors = await savePump(parsed.data);
+		if (errors.length) return fail(400, { form: 'pump', values: formValues(data), errors });
+		return { form: 'pump', saved: parsed.data.id };
+	},
+	labor: async (event) => {
+		requireRole(event, 'owner');
+		const data = await event.request.formData();
+		const parsed = laborFormSchema.safeParse(Object.fromEntries(data));
+		if (!parsed.success) {
+			return fail(400, {
+				form: 'labor',
+				values: formValues(data),
+				fieldErrors: fieldErrors(parsed.error)
+			});
+		}
+		await saveLaborRate(parsed.data);
+		return { form: 'labor', saved: parsed.data.id };
+	},
+	settings: async (event) => {
+		requireRole(event, 'owner');
+		const data = await event.request.formData();
+		const parsed = settingsFormSchema.safeParse(Object.fromEntries(data));
+		if (!parsed.success) {
+			return fail(400, {
+				form: 'settings',
+				values: formValues(data),
+				fieldErrors: fieldErrors(parsed.error)
+			});
+		}
+		const errors = await saveEstimatingSettings(parsed.data);
+		if (errors.length) return fail(400, { form: 'settings', values: formValues(data), errors });
+		return { form: 'settings', saved: 'settings' };
+	}
+};
