@@ -1,0 +1,16 @@
+export const money = (cents: number) =>
+	new Intl.NumberFormat('en-US', { style: 'currency', currency: 'USD' }).format(cents / 100);
+
+export const METHOD_LABELS: Record<string, string> = {
+	card: 'Card',
+	cheque: 'Cheque',
+	cash: 'Cash',
+	bank_transfer: 'Bank transfer'
+};
+
+export const KIND_LABELS: Record<string, string> = {
+	deposit: 'Deposit',
+	progress: 'Progress payment',
+	final: 'Final payment',
+	refund: 'Refund'
+};

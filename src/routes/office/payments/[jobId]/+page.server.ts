@@ -1,0 +1,117 @@
+import { error, fail } from '@sveltejs/kit';
+import { eq } from 'drizzle-orm';
+import { fieldErrors, formValues } from '$lib/schema/auth';
+import { handPaymentSchema, refundSchema } from '$lib/schema/payments';
+import { requireRole } from '$lib/server/access';
+import { db } from '$lib/server/db';
+import { contacts, jobs } from '$lib/server/db/schema';
+import { sendPayLink } from '$lib/server/payments/checkout';
+import { ensureInvoice, invoicesOf } from '$lib/server/payments/invoices';
+import {
+	jobMoney,
+	PaymentError,
+	paymentsOf,
+	recordHandPayment,
+	recordRefund
+} from '$lib/server/payments/ledger';
+import type { Actions, PageServerLoad } from './$types';
+
+async function jobOr404(id: string) {
+	const [row] = await db
+		.select({ job: jobs, contactName: contacts.name, contactEmail: contacts.email })
+		.from(jobs)
+		.innerJoin(contacts, eq(contacts.id, jobs.contactId))
+		.where(eq(jobs.id, id));
+	if (!row) error(404, 'There is no such job.');
+	return row;
+}
+
+export const load: PageServerLoad = async (event) => {
+	requireRole(event, 'owner');
+	const { job, contactName, contactEmail } = await jobOr404(event.params.jobId);
+	return {
+		job: { id: job.id, number: job.number, title: job.title, stage: job.stage },
+		contactName,
+		contactEmail,
+		money: await jobMoney(job),
+		payments: await paymentsOf(job.id),
+		invoices: await invoicesOf(job.id),
+		today: new Date().toISOString().slice(0, 10)
+	};
+};
+
+const errs = (e: Record<string, string>) => e;
+
+const failPayment = (form: string, e: unknown, values: Record<string, string>) => {
+	if (e instanceof PaymentError) {
+		return fail(400, { form, values, errors: errs({ amount: e.message }) });
+	}
+	throw e;
+};
+
+export const actions: Actions = {
+	record: async (event) => {
+		const user = requireRole(event, 'owner');
+		const data = await event.request.formData();
+		const values = formValues(data);
+		const parsed = handPaymentSchema.safeParse(values);
+		if (!parsed.success) {
+			return fail(400, { form: 'record', values, errors: fieldErrors(parsed.error) });
+		}
+		await jobOr404(event.params.jobId);
+		try {
+			await recordHandPayment(
+				event.params.jobId,
+				{ ...parsed.data, amountCents: parsed.data.amount },
+				user
+			);
+		} catch (e) {
+			return failPayment('record', e, values);
+		}
+		return { form: 'record', saved: 'Payment recorded.' };
+	},
+	refund: async (event) => {
+		const user = requireRole(event, 'owner');
+		const data = await event.request.formData();
+		const values = formValues(data);
+		const parsed = refundSchema.safeParse(values);
+		if (!parsed.success) {
+			return fail(400, { form: 'refund', values, errors: fieldErrors(parsed.error) });
+		}
+		await jobOr404(event.params.jobId);
+		try {
+			await recordRefund(
+				event.params.jobId,
+				{ ...parsed.data, amountCents: parsed.data.amount },
+				user
+			);
+		} catch (e) {
+			return failPayment('refund', e, values);
+		}
+		return { form: 'refund', saved: 'Refund recorded.' };
+	},
+	invoice: async (event) => {
+		requireRole(event, 'owner');
+		const data = await event.request.formData();
+		const kind = data.get('kind');
+		if (kind !== 'deposit' && kind !== 'final') {
+			return fail(400, { form: 'invoice', values: {}, errors: errs({ kind: 'Pick an invoice' }) });
+		}
+		await jobOr404(event.params.jobId);
+		const invoice = await ensureInvoice(event.params.jobId, kind);
+		return { form: 'invoice', saved: `Invoice ${invoice.number} issued.` };
+	},
+	link: async (event) => {
+		requireRole(event, 'owner');
+		await jobOr404(event.params.jobId);
+		try {
+			await sendPayLink(event.params.jobId);
+		} catch (e) {
+			if (e instanceof PaymentError) {
+				return fail(400, { form: 'link', values: {}, errors: errs({ link: e.message }) });
+			}
+			throw e;
+		}
+		return { form: 'link', saved: 'Payment link e-mailed to the homeowner.' };
+	}
+};
