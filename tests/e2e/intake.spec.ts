@@ -114,3 +114,19 @@ test('without JavaScript: one multipart post does the whole job, and an error ke
 	await expectThanksAndMails(page, email, 2);
 	await context.close();
 });
+
+test('fits a phone: nothing wider than 360 px, thanks page too', async ({ browser }) => {
+	const context = await browser.newContext({ viewport: { width: 360, height: 800 } });
+	const page = await context.newPage();
+	await page.goto('/start?ref=wildlife-pond');
+	await page.locator('input[name="photos"][multiple]').setInputFiles(await photoFiles());
+	await expect(page.getByText('Uploaded', { exact: true })).toHaveCount(2);
+	const overflow = () =>
+		page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
+	expect(await overflow()).toBeLessThanOrEqual(0);
+	await page.screenshot({ path: 'test-results/intake-start-360.png', fullPage: true });
+	await page.goto('/start/thanks');
+	expect(await overflow()).toBeLessThanOrEqual(0);
+	await page.screenshot({ path: 'test-results/intake-thanks-360.png', fullPage: true });
+	await context.close();
+});
