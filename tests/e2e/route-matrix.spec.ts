@@ -108,7 +108,8 @@ test.afterAll(async () => {
 for (const [path, expected] of Object.entries(PAGES)) {
 	test(`GET ${path}`, async () => {
 		for (const [who, status] of Object.entries(expected) as [Who, number][]) {
-			const anonApi = who === 'anonymous' && path.startsWith('/api') && status !== 200 && status !== 405;
+			const anonApi =
+				who === 'anonymous' && path.startsWith('/api') && status !== 200 && status !== 405;
 			const res = await contexts.get(who)!.get(path, { maxRedirects: 0 });
 			expect(res.status(), `${who} on ${path}`).toBe(anonApi ? 401 : status);
 			if (status === 303) expect(res.headers().location).toMatch(/^\/sign-in\?next=/);
