@@ -68,14 +68,12 @@ afterAll(async () => {
 
 beforeEach(async () => {
 	await resetDatabase();
-	await db
-		.insert(settings)
-		.values({
-			id: 1,
-			firmName: 'Test Firm',
-			email: 'office@test.example',
-			phone: '(555) 010-0000'
-		});
+	await db.insert(settings).values({
+		id: 1,
+		firmName: 'Test Firm',
+		email: 'office@test.example',
+		phone: '(555) 010-0000'
+	});
 	await createUser({
 		email: 'owner@test.example',
 		name: 'Olive Owner',

@@ -93,14 +93,12 @@ function form(
 
 // The firm and an owner (kept here rather than in fixtures.ts, which others edit at the moment).
 async function seedFirm() {
-	await db
-		.insert(settings)
-		.values({
-			id: 1,
-			firmName: 'Test Firm',
-			email: 'office@test.example',
-			phone: '(555) 010-0000'
-		});
+	await db.insert(settings).values({
+		id: 1,
+		firmName: 'Test Firm',
+		email: 'office@test.example',
+		phone: '(555) 010-0000'
+	});
 }
 async function makeUser(role: 'owner', email: string, name: string) {
 	await createUser({ email, name, role, password: 'correct horse battery' });
