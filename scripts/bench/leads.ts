@@ -1,0 +1,177 @@
+/**
+ * `npm run bench:leads` (not a test): GET /api/leads of the production app against a bare
+ * node:http server that runs the same SQL (src/lib/server/leads-sql.ts) through postgres.js with
+ * the same pool size, in the same run, with autocannon at 50 connections.
+ *
+ * Needs the services running (`npm run services`) and a database with the bulk leads
+ * (`npm run seed:bulk -- 100000`). Uses the dev database unless DATABASE_URL is set; builds the
+ * app into BUILD_DIR (default `build`) when the sources changed. BENCH_SECONDS (default 10) sets
+ * the length of each run. Prints p50, p99 and requests per second, the ratios, and the
+ * EXPLAIN ANALYZE plans of each case.
+ */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { createServer } from 'node:http';
+import autocannon from 'autocannon';
+import postgres from 'postgres';
+import { appEnv, databaseUrl } from '../lib/config';
+import { buildIfNeeded } from '../lib/build';
+import { DEMO_STAFF } from '../seed/demo-data';
+import { parseLeadQuery, STAGES } from '../../src/lib/schema/leads';
+import { listSql } from '../../src/lib/server/leads-sql';
+
+const url = process.env.DATABASE_URL ?? databaseUrl('dev');
+const POOL = 10;
+const APP_PORT = Number(process.env.BENCH_APP_PORT ?? 3410);
+const BASE_PORT = Number(process.env.BENCH_BASE_PORT ?? 3411);
+const SECONDS = Number(process.env.BENCH_SECONDS ?? 10);
+const CONNECTIONS = 50;
+
+const CASES = [
+	{ name: 'first page, sorted by received', search: '' },
+	{
+		name: 'filtered and searched',
+		search: '?stage=new&stage=contacted&service=water-feature&q=patio'
+	},
+	{ name: 'page 200', search: '?page=200' }
+];
+
+// --- the bare baseline (run as a child process: `leads.ts --baseline <userId>`) ---------------
+if (process.argv[2] === '--baseline') {
+	const userId = process.argv[3];
+	const sql = postgres(url, { max: POOL, onnotice: () => {} });
+	createServer(async (req, res) => {
+		const u = new URL(req.url ?? '/', 'http://127.0.0.1');
+		const parsed = parseLeadQuery(u.searchParams);
+		if (!parsed.success) {
+			res.writeHead(400, { 'content-type': 'application/json' });
+			return res.end(JSON.stringify({ error: parsed.error.message }));
+		}
+		const s = listSql(parsed.data, { userId });
+		const [rows, facetRows] = await Promise.all([
+			sql.unsafe(s.rows.text, s.rows.params as never[]),
+			sql.unsafe(s.facets.text, s.facets.params as never[])
+		]);
+		const facets = Object.fromEntries(STAGES.map((st) => [st, 0])) as Record<string, number>;
+		for (const r of facetRows) facets[r.stage] = r.n;
+		const counted = parsed.data.stage.length ? parsed.data.stage : STAGES;
+		const total = counted.reduce((n: number, st: string) => n + facets[st], 0);
+		res.writeHead(200, { 'content-type': 'application/json' });
+		res.end(
+			JSON.stringify({ rows, total, page: parsed.data.page, size: parsed.data.size, facets })
+		);
+	}).listen(BASE_PORT, '127.0.0.1', () => console.log('baseline ready'));
+} else {
+	await main();
+}
+
+async function waitFor(target: string, child: ChildProcess) {
+	for (let i = 0; i < 200; i++) {
+		if (child.exitCode !== null) throw new Error(`${target}: the process exited`);
+		try {
+			if ((await fetch(target)).status < 500) return;
+		} catch {
+			/* not up yet */
+		}
+		await new Promise((r) => setTimeout(r, 150));
+	}
+	throw new Error(`${target} did not answer`);
+}
+
+function cannon(target: string, headers: Record<string, string>) {
+	return autocannon({ url: target, connections: CONNECTIONS, duration: SECONDS, headers });
+}
+
+async function main() {
+	const sql = postgres(url, { max: 2, onnotice: () => {} });
+	const [{ n }] = await sql<{ n: number }[]>`select count(*)::int as n from leads`;
+	if (n < 100_000) {
+		console.warn(
+			`Only ${n.toLocaleString('en-US')} leads in the database; run \`npm run seed:bulk -- 100000\` first for the issue's figures.`
+		);
+	}
+	const owner = DEMO_STAFF.find((s) => s.role === 'owner')!;
+	const [user] = await sql<{ id: string }[]>`select id from users where email = ${owner.email}`;
+	if (!user) throw new Error('The demo owner is missing: run `npm start` once, or `npm run seed`.');
+
+	const buildDir = process.env.BUILD_DIR ?? 'build';
+	const env = {
+		...appEnv('dev'),
+		DATABASE_URL: url,
+		PORT: String(APP_PORT),
+		ORIGIN: `http://127.0.0.1:${APP_PORT}`,
+		DATABASE_POOL_SIZE: String(POOL),
+		NODE_ENV: 'production'
+	};
+	buildIfNeeded(buildDir, env);
+	const app = spawn(process.execPath, [buildDir], {
+		env: { ...process.env, ...env },
+		stdio: ['ignore', 'ignore', 'inherit']
+	});
+	const base = spawn(
+		process.execPath,
+		['--import', 'tsx', import.meta.filename, '--baseline', user.id],
+		{ env: { ...process.env, DATABASE_URL: url }, stdio: ['ignore', 'ignore', 'inherit'] }
+	);
+	const stop = () => {
+		app.kill();
+		base.kill();
+	};
+	process.on('exit', stop);
+	try {
+		const appUrl = `http://127.0.0.1:${APP_PORT}`;
+		await waitFor(`${appUrl}/sign-in`, app);
+		await waitFor(`http://127.0.0.1:${BASE_PORT}/`, base);
+		const signIn = await fetch(`${appUrl}/sign-in`, {
+			method: 'POST',
+			redirect: 'manual',
+			headers: { origin: appUrl, 'content-type': 'application/x-www-form-urlencoded' },
+			body: new URLSearchParams({ email: owner.email, password: owner.password })
+		});
+		const cookie = (signIn.headers.getSetCookie?.() ?? []).map((c) => c.split(';')[0]).join('; ');
+		if (signIn.status !== 303 || !cookie) throw new Error(`Sign-in failed (${signIn.status})`);
+
+		console.log(
+			`\n${n.toLocaleString('en-US')} leads · ${CONNECTIONS} connections · ${SECONDS} s per run · pool ${POOL} each\n`
+		);
+		const lines: string[] = [];
+		for (const c of CASES) {
+			const check = await fetch(`${appUrl}/api/leads${c.search}`, { headers: { cookie } });
+			const body = (await check.json()) as { total: number; rows: unknown[] };
+			if (check.status !== 200) throw new Error(`${c.name}: the app answered ${check.status}`);
+			const a = await cannon(`${appUrl}/api/leads${c.search}`, { cookie });
+			const b = await cannon(`http://127.0.0.1:${BASE_PORT}/api/leads${c.search}`, {});
+			const bad = a.non2xx + b.non2xx + a.errors + b.errors;
+			const row = (label: string, r: autocannon.Result) =>
+				`  ${label.padEnd(9)} p50 ${String(r.latency.p50).padStart(5)} ms   p99 ${String(r.latency.p99).padStart(5)} ms   ${r.requests.average.toFixed(0).padStart(6)} req/s`;
+			lines.push(
+				`${c.name} (/api/leads${c.search}; ${body.total.toLocaleString('en-US')} matching, ${body.rows.length} rows)`,
+				row('app', a),
+				row('baseline', b),
+				`  ratio     p50 ×${(a.latency.p50 / Math.max(b.latency.p50, 0.01)).toFixed(2)}   p99 ×${(a.latency.p99 / Math.max(b.latency.p99, 0.01)).toFixed(2)}   req/s ×${(a.requests.average / b.requests.average).toFixed(2)}   goals: p99 ≤ 1.5 × baseline ${a.latency.p99 <= 1.5 * b.latency.p99 ? 'met' : 'MISSED'}, p99 < 50 ms ${a.latency.p99 < 50 ? 'met' : 'MISSED'}${bad ? `   (${bad} errors or non-2xx!)` : ''}`,
+				''
+			);
+			console.log(lines.slice(-5).join('\n'));
+		}
+		console.log('Query plans (EXPLAIN ANALYZE):');
+		for (const c of CASES) {
+			const q = parseLeadQuery(new URLSearchParams(c.search));
+			const s = listSql(q.data!, { userId: user.id });
+			for (const [label, stmt] of [
+				['rows', s.rows],
+				['facets', s.facets]
+			] as const) {
+				const plan = await sql.unsafe(
+					`explain (analyze, buffers off) ${stmt.text}`,
+					stmt.params as never[]
+				);
+				const text = plan.map((r) => r['QUERY PLAN']).join('\n');
+				console.log(
+					`\n— ${c.name}, ${label} (${/Index|Bitmap/.test(text) ? 'uses an index' : 'NO INDEX'}):\n${text}`
+				);
+			}
+		}
+	} finally {
+		stop();
+		await sql.end();
+	}
+}
