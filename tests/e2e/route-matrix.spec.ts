@@ -15,6 +15,11 @@ const LEADS: Expect = { anonymous: 303, owner: 200, sales: 200, crew: 403 };
 
 /** Pages and endpoints by URL pattern, with the status each kind of visitor gets on GET. */
 const PAGES: Record<string, Expect> = {
+	'/office/visits': { anonymous: 303, owner: 200, sales: 200, crew: 403 },
+	'/office/visits/[id]': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/leads/[id]/visit': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/api/visits/slots': { anonymous: 401, owner: 400, sales: 400, crew: 403 },
+	'/visit/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/office': STAFF,
 	'/office/team': OWNER_ONLY,
 	'/office/settings': OWNER_ONLY,

@@ -771,3 +771,23 @@ export async function saveNotes(
 export function localDate(instant: Date, timeZone: string): string {
 	return wallTime(instant, timeZone).date;
 }
+
+/** What the booking page shows of a lead. */
+export async function leadForVisit(leadId: string) {
+	const [row] = await db
+		.select({
+			id: leads.id,
+			number: leads.number,
+			stage: leads.stage,
+			assigneeId: leads.assigneeId,
+			name: contacts.name,
+			email: contacts.email,
+			street: properties.street,
+			town: properties.town
+		})
+		.from(leads)
+		.innerJoin(contacts, eq(contacts.id, leads.contactId))
+		.leftJoin(properties, eq(properties.id, leads.propertyId))
+		.where(eq(leads.id, leadId));
+	return row ?? null;
+}

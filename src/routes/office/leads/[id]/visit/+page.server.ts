@@ -1,0 +1,100 @@
+import { error, fail } from '@sveltejs/kit';
+import { fieldErrors, formValues } from '$lib/schema/auth';
+import { bookSchema, cancelSchema, rescheduleSchema } from '$lib/schema/visits';
+import { requireRole } from '$lib/server/access';
+import {
+	VisitError,
+	bookVisit,
+	cancelVisit,
+	leadForVisit,
+	rescheduleVisit,
+	salespeople,
+	visitsOfLead
+} from '$lib/server/visits';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async (event) => {
+	const user = requireRole(event, 'owner', 'sales');
+	const lead = await leadForVisit(event.params.id);
+	if (!lead) error(404, 'No such lead');
+	const [visits, people] = await Promise.all([visitsOfLead(lead.id), salespeople()]);
+	return {
+		lead,
+		visits,
+		people,
+		current: visits.find((v) => v.status === 'booked') ?? null,
+		defaultPerson: lead.assigneeId ?? (user.role === 'sales' ? user.id : (people[0]?.id ?? ''))
+	};
+};
+
+function refused(e: unknown, data: FormData) {
+	if (e instanceof VisitError) {
+		return fail(e.code === 'taken' ? 409 : 422, {
+			values: formValues(data),
+			errors: { startsAt: e.message },
+			taken: e.code === 'taken'
+		});
+	}
+	throw e;
+}
+
+export const actions: Actions = {
+	book: async (event) => {
+		const user = requireRole(event, 'owner', 'sales');
+		const data = await event.request.formData();
+		const parsed = bookSchema.safeParse(Object.fromEntries(data));
+		if (!parsed.success) {
+			return fail(400, { values: formValues(data), errors: fieldErrors(parsed.error) });
+		}
+		try {
+			await bookVisit({
+				leadId: event.params.id,
+				salespersonId: parsed.data.salespersonId,
+				startsAt: new Date(parsed.data.startsAt),
+				noteForHomeowner: parsed.data.noteForHomeowner,
+				actorId: user.id
+			});
+		} catch (e) {
+			return refused(e, data);
+		}
+		return { done: 'Visit booked. Invitations are on their way to both of you.' };
+	},
+	reschedule: async (event) => {
+		const user = requireRole(event, 'owner', 'sales');
+		const data = await event.request.formData();
+		const parsed = rescheduleSchema.safeParse(Object.fromEntries(data));
+		const visitId = String(data.get('visitId') ?? '');
+		if (!parsed.success || !visitId) {
+			return fail(400, {
+				values: formValues(data),
+				errors: parsed.success ? { startsAt: 'Pick a time' } : fieldErrors(parsed.error)
+			});
+		}
+		try {
+			await rescheduleVisit(visitId, {
+				salespersonId: parsed.data.salespersonId,
+				startsAt: new Date(parsed.data.startsAt),
+				noteForHomeowner: parsed.data.noteForHomeowner,
+				actorId: user.id
+			});
+		} catch (e) {
+			return refused(e, data);
+		}
+		return { done: 'Visit moved. Updated invitations are on their way.' };
+	},
+	cancel: async (event) => {
+		const user = requireRole(event, 'owner', 'sales');
+		const data = await event.request.formData();
+		const parsed = cancelSchema.safeParse(Object.fromEntries(data));
+		const visitId = String(data.get('visitId') ?? '');
+		if (!parsed.success || !visitId) {
+			return fail(400, { values: formValues(data), errors: { reason: 'Check the reason' } });
+		}
+		try {
+			await cancelVisit(visitId, { reason: parsed.data.reason, actorId: user.id, by: 'staff' });
+		} catch (e) {
+			return refused(e, data);
+		}
+		return { done: 'Visit cancelled. Both of you get a cancellation.' };
+	}
+};

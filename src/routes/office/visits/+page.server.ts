@@ -1,0 +1,23 @@
+import { requireRole } from '$lib/server/access';
+import { addDays, isDate, zonedInstant } from '$lib/scheduling/zone';
+import { agenda, localDate, salespeople } from '$lib/server/visits';
+import type { PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async (event) => {
+	const user = requireRole(event, 'owner', 'sales');
+	const tz = (await event.parent()).firm.timeZone;
+	const asked = event.url.searchParams.get('day') ?? '';
+	const day = isDate(asked) ? asked : localDate(new Date(), tz);
+	const view = event.url.searchParams.get('view') === 'week' ? 'week' : 'day';
+	const wanted = event.url.searchParams.get('person');
+	// The owner sees everyone unless a person is picked; a salesperson sees their own.
+	const person =
+		user.role === 'owner' ? wanted || null : wanted === 'all' ? null : (wanted ?? user.id);
+	const days = view === 'week' ? 7 : 1;
+	const visits = await agenda(
+		zonedInstant(day, 0, tz),
+		zonedInstant(addDays(day, days), 0, tz),
+		person
+	);
+	return { day, view, days, person, people: await salespeople(), visits };
+};
