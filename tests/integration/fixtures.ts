@@ -132,7 +132,19 @@ export async function makeEstimate(
 		services: ['water-feature']
 	});
 	const estimateId = newId();
-	const stored = JSON.parse(JSON.stringify(result)) as Record<string, unknown>;
+	// The shapes the estimates module writes: { engine, priced } on the estimate, and the
+	// choices, totals and priced lines on the acceptance.
+	const { priceWithOverrides } = await import('$lib/estimating/overrides');
+	const priced = priceWithOverrides(result, design, catalog, []);
+	const stored = JSON.parse(JSON.stringify({ engine: result, priced })) as Record<string, unknown>;
+	const accepted = JSON.parse(
+		JSON.stringify({
+			choices: { options: [], alternates: { topping: 'topping-pebble' } },
+			totals: { totalCents: result.pricing.totalCents, depositCents: result.pricing.depositCents },
+			pricing: priced.pricing,
+			lines: priced.lines
+		})
+	) as Record<string, unknown>;
 	await db.insert(schema.estimates).values({
 		id: estimateId,
 		leadId,
@@ -159,7 +171,7 @@ export async function makeEstimate(
 			optionsChosen: { options: [], alternates: { topping: 'topping-pebble' } },
 			totalCents: result.pricing.totalCents,
 			depositCents: result.pricing.depositCents,
-			result: stored
+			result: accepted
 		});
 	}
 	return { contactId, propertyId, leadId, estimateId, email, result };

@@ -18,6 +18,10 @@ export const ROUTE_ROLES: ReadonlyArray<{ prefix: string; roles: readonly Role[]
 	{ prefix: '/office/visits', roles: ['owner', 'sales'] },
 	{ prefix: '/office/availability', roles: ['owner', 'sales'] },
 	{ prefix: '/api/visits', roles: ['owner', 'sales'] },
+	{ prefix: '/office/jobs/settings', roles: ['owner'] },
+	{ prefix: '/office/jobs/new', roles: ['owner', 'sales'] },
+	// Crew may open jobs; each job checks that it is theirs (jobFor in $lib/server/jobsite).
+	{ prefix: '/office/jobs', roles: ALL_STAFF },
 	{ prefix: '/office', roles: ALL_STAFF },
 	{ prefix: '/api/health', roles: [] },
 	{ prefix: '/api/estimates', roles: ['owner', 'sales'] },

@@ -403,6 +403,7 @@ export async function onEstimateAccepted(estimateId: string, tx: Tx): Promise<vo
 	if (row) {
 		await tx.update(contacts).set({ isCustomer: true }).where(eq(contacts.id, row.contactId));
 	}
+	await (await import('./jobsite')).convertAcceptedEstimate(estimateId, tx);
 }
 
 export interface AcceptInput {

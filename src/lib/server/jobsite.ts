@@ -185,6 +185,9 @@ async function convertIn(tx: Tx, estimateId: string, options: ConversionOptions)
 	const [lead] = await tx.select().from(leads).where(eq(leads.id, estimate.leadId));
 	const choices = acceptance.optionsChosen;
 	const result = acceptance.result;
+	// The estimates module stores { engine, priced }; older or hand-made rows hold the engine result.
+	const stored = (estimate.result ?? {}) as Record<string, unknown>;
+	const engine = (stored.engine ?? stored) as Record<string, unknown>;
 	const frozen: FrozenEstimate = {
 		estimateId,
 		number: estimate.number,
@@ -192,6 +195,7 @@ async function convertIn(tx: Tx, estimateId: string, options: ConversionOptions)
 		scope: estimate.scope,
 		design: estimate.design,
 		result,
+		engine: { stones: engine.stones ?? null, cautions: engine.cautions ?? [] },
 		choices,
 		acceptance: {
 			typedName: acceptance.typedName,
@@ -220,9 +224,9 @@ async function convertIn(tx: Tx, estimateId: string, options: ConversionOptions)
 			frozen,
 			contractCents: acceptance.totalCents,
 			depositDueCents: acceptance.depositCents,
-			crewNeeded: crewNeededFrom(result),
-			crewSize: crewNeededFrom(result) || null,
-			isWaterFeature: isWaterFeature(result),
+			crewNeeded: crewNeededFrom(engine),
+			crewSize: crewNeededFrom(engine) || null,
+			isWaterFeature: isWaterFeature(engine),
 			createdBy: options.actorId ?? null
 		})
 		.onConflictDoNothing({ target: jobs.estimateId })
@@ -320,7 +324,8 @@ export async function recordSaleByHand(
 				},
 				totalCents: estimate.totalCents,
 				depositCents: estimate.depositCents,
-				result: estimate.result
+				// The same shape the online acceptance stores: the priced lines for these choices.
+				result: byHandResult(estimate.result, estimate.totalCents, estimate.depositCents)
 			});
 			await tx
 				.update(estimates)
@@ -329,6 +334,16 @@ export async function recordSaleByHand(
 		}
 		return convertIn(tx, estimateId, { actorId: actor.id, method: input.method });
 	});
+}
+
+function byHandResult(
+	stored: Record<string, unknown>,
+	totalCents: number,
+	depositCents: number
+): Record<string, unknown> {
+	const priced = stored.priced as { pricing?: unknown; lines?: unknown } | undefined;
+	if (!priced) return stored;
+	return { totals: { totalCents, depositCents }, pricing: priced.pricing, lines: priced.lines };
 }
 
 /** The estimates a staff member can mark sold by hand for a lead (newest first). */
@@ -506,7 +521,8 @@ async function siteFor(job: Job) {
 }
 
 const cautionsOf = (frozen: FrozenEstimate) => {
-	const list = frozen.result.cautions as { title?: string; reason?: string }[] | undefined;
+	const list = (frozen.engine?.cautions ?? frozen.result.cautions) as
+		{ title?: string; reason?: string }[] | undefined;
 	return Array.isArray(list)
 		? list.map((c) => [c.title, c.reason].filter(Boolean).join(': ')).filter(Boolean)
 		: [];

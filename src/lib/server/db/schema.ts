@@ -564,6 +564,8 @@ export interface FrozenEstimate {
 	scope: string;
 	design: Record<string, unknown>;
 	result: Record<string, unknown>;
+	/** From the engine's result: the stones (crew size) and the cautions shown to the crew. */
+	engine?: { stones: unknown; cautions: unknown };
 	choices: { options: string[]; alternates: Record<string, string> };
 	acceptance: {
 		typedName: string;

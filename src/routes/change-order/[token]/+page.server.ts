@@ -1,0 +1,34 @@
+import { error, fail } from '@sveltejs/kit';
+import { fieldErrors } from '$lib/schema/auth';
+import { decisionSchema } from '$lib/schema/jobs';
+import {
+	changeOrderForHomeowner,
+	decideChangeOrder,
+	DecisionError
+} from '$lib/server/change-orders';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ params, setHeaders }) => {
+	setHeaders({ 'cache-control': 'no-store', 'referrer-policy': 'no-referrer' });
+	const co = await changeOrderForHomeowner(params.token);
+	if (!co) error(404, 'This link is not valid. Ask us for a fresh one.');
+	return { co };
+};
+
+export const actions: Actions = {
+	default: async (event) => {
+		const data = Object.fromEntries(await event.request.formData());
+		const parsed = decisionSchema.safeParse(data);
+		if (!parsed.success) return fail(400, { errors: fieldErrors(parsed.error) });
+		try {
+			const status = await decideChangeOrder(event.params.token, parsed.data, {
+				ipAddress: event.getClientAddress(),
+				userAgent: event.request.headers.get('user-agent')
+			});
+			return { decided: status };
+		} catch (e) {
+			if (e instanceof DecisionError) return fail(409, { errors: { _form: e.message } });
+			throw e;
+		}
+	}
+};

@@ -1,0 +1,35 @@
+import { requireRole } from '$lib/server/access';
+import { installDays, listJobs } from '$lib/server/jobsite';
+import { firmSettings } from '$lib/server/settings';
+import type { PageServerLoad } from './$types';
+
+function todayIn(timeZone: string): string {
+	return new Intl.DateTimeFormat('en-CA', { timeZone }).format(new Date());
+}
+
+function addDays(day: string, n: number): string {
+	const d = new Date(`${day}T00:00:00Z`);
+	d.setUTCDate(d.getUTCDate() + n);
+	return d.toISOString().slice(0, 10);
+}
+
+export const load: PageServerLoad = async (event) => {
+	const user = requireRole(event, 'owner', 'sales', 'crew');
+	const firm = await firmSettings();
+	const today = todayIn(firm.timeZone);
+	const asked = event.url.searchParams.get('from') ?? '';
+	const from = /^\d{4}-\d{2}-\d{2}$/.test(asked) ? asked : today;
+	// The calendar starts on the Monday of the week asked for, and shows three weeks.
+	const weekday = (new Date(`${from}T00:00:00Z`).getUTCDay() + 6) % 7;
+	const start = addDays(from, -weekday);
+	const end = addDays(start, 20);
+	const [jobs, days] = await Promise.all([listJobs(user), installDays(user, start, end)]);
+	return {
+		jobs,
+		calendar: { start, end, days, prev: addDays(start, -21), next: addDays(start, 21) },
+		today,
+		todays: jobs.filter((j) => j.days.includes(today)),
+		canSell: user.role !== 'crew',
+		isOwner: user.role === 'owner'
+	};
+};

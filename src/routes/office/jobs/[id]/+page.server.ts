@@ -1,0 +1,210 @@
+import { fail } from '@sveltejs/kit';
+import { z } from 'zod';
+import { fieldErrors } from '$lib/schema/auth';
+import { changeOrderSchema, dollarsToCents, punchSchema, scheduleSchema } from '$lib/schema/jobs';
+import { requireRole } from '$lib/server/access';
+import { createChangeOrder, listChangeOrders, sendChangeOrder } from '$lib/server/change-orders';
+import { jobAction, orHttp } from '$lib/server/job-http';
+import {
+	addPunchItem,
+	attachJobPhoto,
+	crewConflicts,
+	crewJobView,
+	crewLeads,
+	jobBalance,
+	jobFor,
+	officeJobView,
+	scheduleJob,
+	setMaterialFlag,
+	setPunchDone,
+	setStage
+} from '$lib/server/jobsite';
+import { PhotoError, processPhoto } from '$lib/server/images';
+import { putObject, randomKey, signedUrl, StorageUnavailableError } from '$lib/server/storage';
+import type { Actions, PageServerLoad } from './$types';
+
+async function withLinks<T extends { id: string; thumbKey: string; displayKey: string }>(
+	list: T[]
+) {
+	return Promise.all(
+		list.map(async ({ thumbKey, displayKey, ...p }) => ({
+			...p,
+			thumbUrl: await signedUrl(thumbKey),
+			displayUrl: await signedUrl(displayKey)
+		}))
+	);
+}
+
+export const load: PageServerLoad = async (event) => {
+	const user = requireRole(event, 'owner', 'sales', 'crew');
+	const job = await orHttp(() => jobFor(user, event.params.id));
+	if (user.role === 'crew') {
+		// Built from quantities and site facts only: no price, cost or margin reaches a crew phone.
+		const view = await crewJobView(job);
+		return { role: 'crew' as const, job: { ...view, photos: await withLinks(view.photos) } };
+	}
+	const [view, balance, changeOrders, leads, conflicts] = await Promise.all([
+		officeJobView(job),
+		jobBalance(job.id),
+		listChangeOrders(job.id),
+		crewLeads(),
+		crewConflicts(job.id)
+	]);
+	return {
+		role: 'office' as const,
+		job: { ...view, photos: await withLinks(view.photos) },
+		balance,
+		changeOrders: changeOrders.map(({ tokenHash: _t, ...co }) => co),
+		crewLeads: leads,
+		conflicts
+	};
+};
+
+const idSchema = z.object({ itemId: z.string().min(1), on: z.enum(['1', '0']) });
+const stageSchema = z.object({ to: z.enum(['scheduled', 'underway', 'punch_list', 'complete']) });
+
+function lineRows(data: FormData) {
+	const descriptions = data.getAll('description').map(String);
+	return descriptions
+		.map((description, i) => ({
+			description,
+			category: String(data.getAll('category')[i] ?? 'other'),
+			unit: String(data.getAll('unit')[i] ?? 'each') || 'each',
+			quantity: String(data.getAll('quantity')[i] ?? ''),
+			unitPriceCents: dollarsToCents(String(data.getAll('unitPrice')[i] ?? ''))
+		}))
+		.filter((l) => l.description.trim() !== '' || l.quantity.trim() !== '');
+}
+
+export const actions: Actions = {
+	schedule: async (event) => {
+		const user = requireRole(event, 'owner', 'sales');
+		const data = await event.request.formData();
+		const parsed = scheduleSchema.safeParse({
+			days: data
+				.getAll('day')
+				.map(String)
+				.filter((d) => d !== ''),
+			crewLeadId: String(data.get('crewLeadId') ?? ''),
+			crewSize: String(data.get('crewSize') ?? '')
+		});
+		if (!parsed.success) {
+			return fail(400, { form: 'schedule', errors: fieldErrors(parsed.error) });
+		}
+		return jobAction(async () => {
+			const conflicts = await scheduleJob(event.params.id, parsed.data, user);
+			return { form: 'schedule', saved: true, conflicts: conflicts.length };
+		}, 'schedule');
+	},
+	ordered: async (event) => {
+		const user = requireRole(event, 'owner', 'sales');
+		const parsed = idSchema.safeParse(Object.fromEntries(await event.request.formData()));
+		if (!parsed.success) return fail(400, { form: 'materials', message: 'Pick a material' });
+		return jobAction(async () => {
+			await setMaterialFlag(
+				user,
+				event.params.id,
+				parsed.data.itemId,
+				'ordered',
+				parsed.data.on === '1'
+			);
+		}, 'materials');
+	},
+	picked: async (event) => {
+		const user = requireRole(event, 'owner', 'sales', 'crew');
+		const parsed = idSchema.safeParse(Object.fromEntries(await event.request.formData()));
+		if (!parsed.success) return fail(400, { form: 'materials', message: 'Pick a material' });
+		return jobAction(async () => {
+			await setMaterialFlag(
+				user,
+				event.params.id,
+				parsed.data.itemId,
+				'picked',
+				parsed.data.on === '1'
+			);
+		}, 'materials');
+	},
+	punch: async (event) => {
+		const user = requireRole(event, 'owner', 'sales', 'crew');
+		const parsed = punchSchema.safeParse(Object.fromEntries(await event.request.formData()));
+		if (!parsed.success) {
+			return fail(400, { form: 'punch', message: fieldErrors(parsed.error).body });
+		}
+		return jobAction(() => addPunchItem(user, event.params.id, parsed.data.body), 'punch');
+	},
+	punchDone: async (event) => {
+		const user = requireRole(event, 'owner', 'sales', 'crew');
+		const parsed = idSchema.safeParse(Object.fromEntries(await event.request.formData()));
+		if (!parsed.success) return fail(400, { form: 'punch', message: 'Pick an item' });
+		return jobAction(
+			() => setPunchDone(user, event.params.id, parsed.data.itemId, parsed.data.on === '1'),
+			'punch'
+		);
+	},
+	stage: async (event) => {
+		const user = requireRole(event, 'owner', 'sales', 'crew');
+		const parsed = stageSchema.safeParse(Object.fromEntries(await event.request.formData()));
+		if (!parsed.success) return fail(400, { form: 'stage', message: 'Pick a stage' });
+		return jobAction(() => setStage(user, event.params.id, parsed.data.to), 'stage');
+	},
+	photo: async (event) => {
+		const user = requireRole(event, 'owner', 'sales', 'crew');
+		await orHttp(() => jobFor(user, event.params.id));
+		const file = (await event.request.formData()).get('photo');
+		if (!(file instanceof File) || file.size === 0) {
+			return fail(400, { form: 'photo', message: 'Choose a photo first' });
+		}
+		try {
+			const photo = await processPhoto(file.name, new Uint8Array(await file.arrayBuffer()));
+			const displayKey = randomKey('jobs', 'display.webp');
+			const thumbKey = randomKey('jobs', 'thumb.webp');
+			await putObject(displayKey, photo.display, photo.contentType);
+			await putObject(thumbKey, photo.thumb, photo.contentType);
+			await attachJobPhoto(
+				user,
+				event.params.id,
+				{ displayKey, thumbKey, width: photo.width, height: photo.height, bytes: photo.bytes },
+				photo.originalName
+			);
+		} catch (e) {
+			if (e instanceof PhotoError) return fail(400, { form: 'photo', message: e.message });
+			if (e instanceof StorageUnavailableError) {
+				return fail(503, {
+					form: 'photo',
+					message: 'Photo storage is out of reach; try again shortly.'
+				});
+			}
+			throw e;
+		}
+		return { form: 'photo', saved: true };
+	},
+	changeOrder: async (event) => {
+		const user = requireRole(event, 'owner', 'sales');
+		const data = await event.request.formData();
+		const parsed = changeOrderSchema.safeParse({
+			title: data.get('title'),
+			note: data.get('note') ?? '',
+			lines: lineRows(data)
+		});
+		if (!parsed.success) {
+			const errors = fieldErrors(parsed.error);
+			return fail(400, {
+				form: 'changeOrder',
+				message: errors.title ?? errors.lines ?? Object.values(errors)[0]
+			});
+		}
+		return jobAction(async () => {
+			await createChangeOrder(event.params.id, parsed.data, user);
+			return { form: 'changeOrder', saved: true };
+		}, 'changeOrder');
+	},
+	sendChangeOrder: async (event) => {
+		const user = requireRole(event, 'owner', 'sales');
+		const id = String((await event.request.formData()).get('changeOrderId') ?? '');
+		if (!id) return fail(400, { form: 'changeOrder', message: 'Pick a change order' });
+		return jobAction(async () => {
+			await sendChangeOrder(event.params.id, id, user);
+			return { form: 'changeOrder', sent: true };
+		}, 'changeOrder');
+	}
+};
