@@ -15,6 +15,11 @@ const LEADS: Expect = { anonymous: 303, owner: 200, sales: 200, crew: 403 };
 
 /** Pages and endpoints by URL pattern, with the status each kind of visitor gets on GET. */
 const PAGES: Record<string, Expect> = {
+	'/office/visits': { anonymous: 303, owner: 200, sales: 200, crew: 403 },
+	'/office/visits/[id]': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/leads/[id]/visit': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/api/visits/slots': { anonymous: 401, owner: 400, sales: 400, crew: 403 },
+	'/visit/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/office': STAFF,
 	'/office/team': OWNER_ONLY,
 	'/office/settings': OWNER_ONLY,
@@ -37,6 +42,14 @@ const PAGES: Record<string, Expect> = {
 	'/testimonial/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/care/unsubscribe/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/api/health': PUBLIC_API,
+	// Payments (issue 10): owner only; the webhook is POST-only and public; token pages 404 on a bad token.
+	'/office/payments': OWNER_ONLY,
+	'/office/payments/[jobId]': { anonymous: 303, owner: 404, sales: 403, crew: 403 },
+	'/office/payments/invoices/[number]': { anonymous: 303, owner: 404, sales: 403, crew: 403 },
+	'/api/payments/webhook': { anonymous: 405, owner: 405, sales: 405, crew: 405 },
+	'/pay/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
+	'/pay/[token]/receipt': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
+	'/invoice/[token]/[number]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/api/uploads': PUBLIC_API,
 	// Leads (issue 5): owner and sales only; an unknown lead id is a 404.
 	'/office/leads': LEADS,
@@ -68,6 +81,11 @@ const ACTIONS: Record<string, Expect> = {
 	'/office/team?/disable': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
 	'/office/team?/enable': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
 	'/office/settings': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
+	'/office/payments/[jobId]?/record': { anonymous: 303, owner: 404, sales: 403, crew: 403 },
+	'/office/payments/[jobId]?/refund': { anonymous: 303, owner: 404, sales: 403, crew: 403 },
+	'/office/payments/[jobId]?/invoice': { anonymous: 303, owner: 404, sales: 403, crew: 403 },
+	'/office/payments/[jobId]?/link': { anonymous: 303, owner: 404, sales: 403, crew: 403 },
+	'/pay/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/office/price-list?/item': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
 	'/office/price-list?/remove': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
 	'/office/price-list?/pump': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
@@ -95,7 +113,7 @@ const guardedPatterns = [
 		routeFiles(resolve('src/routes'))
 			.filter(
 				(r) =>
-					/^\/(office|api|estimate|visit|change-order)(\/|$)/.test(r.pattern) &&
+					/^\/(office|api|estimate|visit|change-order|pay|invoice)(\/|$)/.test(r.pattern) &&
 					r.kind !== 'layout-server'
 			)
 			.map((r) => r.pattern)
@@ -120,7 +138,8 @@ test.afterAll(async () => {
 for (const [path, expected] of Object.entries(PAGES)) {
 	test(`GET ${path}`, async () => {
 		for (const [who, status] of Object.entries(expected) as [Who, number][]) {
-			const anonApi = who === 'anonymous' && path.startsWith('/api') && status !== 200;
+			const anonApi =
+				who === 'anonymous' && path.startsWith('/api') && status !== 200 && status !== 405;
 			const res = await contexts.get(who)!.get(path, { maxRedirects: 0 });
 			expect(res.status(), `${who} on ${path}`).toBe(anonApi ? 401 : status);
 			if (status === 303) expect(res.headers().location).toMatch(/^\/sign-in\?next=/);
