@@ -20,6 +20,8 @@ const PAGES: Record<string, Expect> = {
 	'/office/leads/[id]/visit': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	'/api/visits/slots': { anonymous: 401, owner: 400, sales: 400, crew: 403 },
 	'/visit/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
+	// Availability (issue 6): each salesperson's own; the owner picks anyone with ?person=.
+	'/office/availability': { anonymous: 303, owner: 200, sales: 200, crew: 403 },
 	'/office': STAFF,
 	'/office/team': OWNER_ONLY,
 	'/office/settings': OWNER_ONLY,
@@ -60,6 +62,11 @@ const PAGES: Record<string, Expect> = {
 
 /** Form actions (POST), with the status each gets before any validation. */
 const ACTIONS: Record<string, Expect> = {
+	// Visits (issue 6): the empty form is refused before anything is written.
+	'/office/availability?/rules': { anonymous: 303, owner: 400, sales: 400, crew: 403 },
+	'/office/availability?/addTimeOff': { anonymous: 303, owner: 400, sales: 400, crew: 403 },
+	'/office/availability?/removeTimeOff': { anonymous: 303, owner: 400, sales: 400, crew: 403 },
+	'/office/visits/[id]?/notes': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	// Jobs (issue 9): an unknown job is 404 before anything is written; office-only actions 403 crew.
 	'/office/jobs/[id]?/schedule': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	'/office/jobs/[id]?/ordered': { anonymous: 303, owner: 400, sales: 400, crew: 403 },

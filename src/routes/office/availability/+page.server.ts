@@ -1,0 +1,94 @@
+import { error, fail } from '@sveltejs/kit';
+import { fieldErrors, formValues } from '$lib/schema/auth';
+import { availabilitySchema, timeOffSchema } from '$lib/schema/visits';
+import { requireRole } from '$lib/server/access';
+import type { SessionUser } from '$lib/server/auth';
+import {
+	addTimeOff,
+	listTimeOff,
+	removeTimeOff,
+	rulesFor,
+	salespeople,
+	saveAvailability
+} from '$lib/server/visits';
+import { hoursFromForm, overlapErrors } from './hours';
+import type { Actions, PageServerLoad, RequestEvent } from './$types';
+
+/**
+ * Whose availability this request may touch: the owner any salesperson's (or their own), a
+ * salesperson only their own, whatever the form or the address says.
+ */
+async function subjectOf(event: RequestEvent | Parameters<PageServerLoad>[0], user: SessionUser) {
+	const asked = event.url.searchParams.get('person') || user.id;
+	if (user.role !== 'owner' && asked !== user.id) error(403, 'You may change only your own hours');
+	const people = await salespeople();
+	const person = people.find((p) => p.id === asked);
+	if (!person) error(404, 'No such salesperson');
+	return { person, people };
+}
+
+export const load: PageServerLoad = async (event) => {
+	const user = requireRole(event, 'owner', 'sales');
+	const { person, people } = await subjectOf(event, user);
+	const [rules, off] = await Promise.all([rulesFor(person.id), listTimeOff(person.id)]);
+	return {
+		person,
+		people: user.role === 'owner' ? people : [person],
+		rules,
+		timeOff: off.map((t) => ({
+			id: t.id,
+			startsAt: t.startsAt,
+			endsAt: t.endsAt,
+			reason: t.reason
+		}))
+	};
+};
+
+export const actions: Actions = {
+	rules: async (event) => {
+		const user = requireRole(event, 'owner', 'sales');
+		const { person } = await subjectOf(event, user);
+		const data = await event.request.formData();
+		const { hours, row } = hoursFromForm(data);
+		const parsed = availabilitySchema.safeParse({
+			...Object.fromEntries(data),
+			weeklyHours: hours
+		});
+		const errors = parsed.success ? overlapErrors(parsed.data.weeklyHours) : {};
+		if (!parsed.success) Object.assign(errors, fieldErrors(parsed.error));
+		if (!parsed.success || Object.keys(errors).length) {
+			const onRows = Object.fromEntries(Object.entries(errors).map(([k, v]) => [row(k), v]));
+			return fail(400, { form: 'rules', values: formValues(data), errors: onRows });
+		}
+		await saveAvailability(person.id, parsed.data, user.id);
+		return { form: 'rules', saved: `Saved the hours and rules of ${person.name}.` };
+	},
+	addTimeOff: async (event) => {
+		const user = requireRole(event, 'owner', 'sales');
+		const { person } = await subjectOf(event, user);
+		const data = await event.request.formData();
+		const raw = Object.fromEntries(
+			[...data].filter(([, v]) => v !== '').map(([k, v]) => [k, String(v)])
+		);
+		const parsed = timeOffSchema.safeParse(raw);
+		if (!parsed.success) {
+			return fail(400, {
+				form: 'timeOff',
+				values: formValues(data),
+				errors: fieldErrors(parsed.error)
+			});
+		}
+		await addTimeOff(person.id, parsed.data);
+		return { form: 'timeOff', saved: 'Time off added.' };
+	},
+	removeTimeOff: async (event) => {
+		const user = requireRole(event, 'owner', 'sales');
+		const { person } = await subjectOf(event, user);
+		const id = String((await event.request.formData()).get('id') ?? '');
+		if (!id) {
+			return fail(400, { form: 'timeOff', errors: { _form: 'Pick the time off to remove' } });
+		}
+		await removeTimeOff(person.id, id);
+		return { form: 'timeOff', saved: 'Time off removed.' };
+	}
+};
