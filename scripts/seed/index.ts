@@ -7,6 +7,8 @@ import { DEMO_FIRM, DEMO_STAFF } from './demo-data';
 import { appEnv, serviceConfig } from '../lib/config';
 import { seedLeads } from './leads';
 import { seedPriceList } from './pricelist';
+import { seedJobs } from './jobs';
+import { seedVisits } from './visits';
 
 export async function databaseIsEmpty(url: string): Promise<boolean> {
 	const { db, close } = scriptDb(url);
@@ -46,4 +48,18 @@ export async function seedDemo(url: string): Promise<void> {
 	const profile = url.includes(`:${serviceConfig('test').pgPort}/`) ? 'test' : 'dev';
 	const services = appEnv(profile);
 	await seedLeads(url, { s3: { endpoint: services.S3_ENDPOINT, bucket: services.S3_BUCKET } });
+	// Demo availability and two booked visits on the intake seed's "visit booked" leads (issue 6).
+	const visitsDb = scriptDb(url);
+	try {
+		await seedVisits(visitsDb.db);
+	} finally {
+		await visitsDb.close();
+	}
+	// The demo job (issue 9): a lead's accepted estimate converted and scheduled for the crew lead.
+	const jobsDb = scriptDb(url);
+	try {
+		await seedJobs(jobsDb.db);
+	} finally {
+		await jobsDb.close();
+	}
 }

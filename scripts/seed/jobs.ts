@@ -1,0 +1,168 @@
+// The demo job (issue 9): Felix Marchbank's estimate, priced from the demo price list that
+// scripts/seed/pricelist.ts writes, accepted by the homeowner through his link, then converted by
+// the jobs domain's own convertAcceptedEstimate and scheduled for crew lead Rosa Lindqvist today
+// and tomorrow (firm time), so the crew lead's demo sign-in opens on a job. Safe to run twice:
+// nothing is written when the demo lead already has an estimate.
+import { register } from 'node:module';
+import { eq } from 'drizzle-orm';
+import { estimate as runEngine } from '../../src/lib/estimating';
+import { demoCatalog, demoDesign } from '../../src/lib/estimating/demo';
+import { catalogSchema } from '../../src/lib/estimating/schema';
+import {
+	defaultChoices,
+	priceWithOverrides,
+	totalsForChoices
+} from '../../src/lib/estimating/overrides';
+import {
+	activities,
+	contacts,
+	estimateAcceptances,
+	estimates,
+	jobDays,
+	jobs,
+	leads,
+	settings,
+	users
+} from '../../src/lib/server/db/schema';
+import { newId, newToken, sha256 } from '../../src/lib/server/crypto';
+import type { scriptDb } from '../lib/db';
+
+type Db = ReturnType<typeof scriptDb>['db'];
+
+export const DEMO_JOB_LEAD_EMAIL = 'felix.marchbank@example.test';
+export const DEMO_JOB_SCOPE =
+	'Three basalt columns bubbling over a hidden gravel basin beside the deck, with a pebble topping';
+
+/** yyyy-mm-dd in the firm's time zone, `offset` days from now. */
+function firmDay(timeZone: string, offset: number): string {
+	return new Intl.DateTimeFormat('en-CA', {
+		timeZone,
+		year: 'numeric',
+		month: '2-digit',
+		day: '2-digit'
+	}).format(new Date(Date.now() + offset * 86_400_000));
+}
+
+/**
+ * The jobs domain lives in the app and reads `building` from SvelteKit's `$app/environment`;
+ * outside SvelteKit (a seed script) that module is answered here, as it is at run time.
+ */
+let hooked = false;
+async function jobsDomain() {
+	if (!hooked) {
+		hooked = true;
+		const environment =
+			'export const building = false, browser = false, dev = false, version = "seed";';
+		register(
+			`data:text/javascript,${encodeURIComponent(`
+				export async function resolve(specifier, context, next) {
+					if (specifier === '$app/environment') {
+						return { url: 'data:text/javascript,${encodeURIComponent(environment)}', shortCircuit: true };
+					}
+					return next(specifier, context);
+				}`)}`
+		);
+	}
+	// The app's database module opens its pool lazily; every query below runs in our transaction.
+	process.env.DATABASE_URL ??= 'postgres://unused@127.0.0.1:9/unused';
+	return import('../../src/lib/server/jobsite');
+}
+
+export async function seedJobs(db: Db): Promise<void> {
+	const [lead] = await db
+		.select({ id: leads.id, contactName: contacts.name })
+		.from(leads)
+		.innerJoin(contacts, eq(contacts.id, leads.contactId))
+		.where(eq(contacts.email, DEMO_JOB_LEAD_EMAIL))
+		.limit(1);
+	if (!lead) return; // the demo leads were not written (S3 or leads seed skipped)
+	const [already] = await db
+		.select({ id: estimates.id })
+		.from(estimates)
+		.where(eq(estimates.leadId, lead.id))
+		.limit(1);
+	if (already) return;
+	const staff = await db.select({ id: users.id, role: users.role, email: users.email }).from(users);
+	const sales = staff.find((u) => u.role === 'sales');
+	const owner = staff.find((u) => u.role === 'owner');
+	const rosa = staff.find((u) => u.email === 'rosa@copperleaf.example');
+	const [firm] = await db.select({ timeZone: settings.timeZone }).from(settings).limit(1);
+	const timeZone = firm?.timeZone ?? 'America/Denver';
+
+	// The same catalog the demo price list rows were written from (seedPriceList parses it too).
+	const catalog = catalogSchema.parse(demoCatalog());
+	const design = demoDesign();
+	const engine = runEngine(design, catalog);
+	if (!engine.ok) throw new Error('the demo design no longer estimates');
+	const priced = priceWithOverrides(engine, design, catalog, []);
+	const choices = defaultChoices(priced.pricing);
+	const totals = totalsForChoices(priced.pricing, choices, priced.depositPercent);
+	const json = <T>(v: T) => JSON.parse(JSON.stringify(v)) as Record<string, unknown>;
+	const { convertAcceptedEstimate, jobRef } = await jobsDomain();
+
+	const sentAt = new Date(Date.now() - 6 * 86_400_000);
+	const acceptedAt = new Date(Date.now() - 2 * 86_400_000);
+	await db.transaction(async (tx) => {
+		const estimateId = newId();
+		await tx.insert(estimates).values({
+			id: estimateId,
+			leadId: lead.id,
+			number: 1,
+			status: 'accepted',
+			design: json(design),
+			result: json({ engine, priced }),
+			catalog: json(catalog),
+			scope: DEMO_JOB_SCOPE,
+			totalCents: priced.pricing.totalCents,
+			taxCents: totals.taxCents,
+			depositCents: priced.pricing.depositCents,
+			createdBy: sales?.id ?? null,
+			updatedBy: sales?.id ?? null,
+			sentBy: sales?.id ?? null,
+			tokenHash: sha256(newToken()),
+			sentAt,
+			expiresAt: new Date(sentAt.getTime() + 30 * 86_400_000)
+		});
+		await tx.insert(estimateAcceptances).values({
+			id: newId(),
+			estimateId,
+			estimateNumber: 1,
+			typedName: lead.contactName,
+			acceptedAt,
+			ipAddress: '192.0.2.44',
+			userAgent: 'Demo phone browser',
+			revision: 1,
+			optionsChosen: choices,
+			totalCents: totals.totalCents,
+			depositCents: totals.depositCents,
+			result: json({ choices, totals, pricing: priced.pricing, lines: priced.lines })
+		});
+		await tx.insert(activities).values({
+			leadId: lead.id,
+			kind: 'estimate.accepted',
+			body: `${lead.contactName} accepted estimate v1`,
+			data: { estimateId, number: 1, totalCents: totals.totalCents, choices },
+			createdAt: acceptedAt
+		});
+		// convertAcceptedEstimate is typed with the app's client; the script's client is the same
+		// drizzle-orm postgres-js database over the same schema.
+		const { jobId, number } = await convertAcceptedEstimate(
+			estimateId,
+			tx as unknown as Parameters<typeof convertAcceptedEstimate>[1],
+			{ actorId: owner?.id ?? null }
+		);
+		const days = [firmDay(timeZone, 0), firmDay(timeZone, 1)];
+		await tx
+			.update(jobs)
+			.set({ crewLeadId: rosa?.id ?? null })
+			.where(eq(jobs.id, jobId));
+		await tx.insert(jobDays).values(days.map((day) => ({ id: newId(), jobId, day })));
+		await tx.insert(activities).values({
+			leadId: lead.id,
+			kind: 'job.scheduled',
+			actorId: owner?.id ?? null,
+			body: `Job ${jobRef(number)} scheduled for ${days.join(', ')}`,
+			data: { jobId, days, crewLeadId: rosa?.id ?? null }
+		});
+	});
+}
