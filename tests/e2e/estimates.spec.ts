@@ -33,11 +33,15 @@ test('build, send, accept on a phone, sold in the office', async ({ page, browse
 	const before = Number(await chart.getAttribute('data-operating-flow'));
 	expect(before).toBeGreaterThan(0);
 	const outlets = await page.getByTestId('outlet-row').count();
+	const saved1 = page.waitForResponse(
+		(r) => r.url().includes('/api/estimates/') && r.request().method() === 'PUT' && r.ok()
+	);
 	await page.getByRole('button', { name: 'Add an outlet' }).click();
 	await expect(page.getByTestId('outlet-row')).toHaveCount(outlets + 1);
 	await expect(chart).not.toHaveAttribute('data-operating-flow', String(before));
 	const after = Number(await chart.getAttribute('data-operating-flow'));
 	expect(after).toBeGreaterThan(before);
+	await saved1;
 	await expect(page.getByTestId('save-status')).toHaveText(/All changes saved/);
 
 	// The builder, the print document and the stored totals agree to the cent.
@@ -68,6 +72,8 @@ test('build, send, accept on a phone, sold in the office', async ({ page, browse
 	await home.goto(link);
 	await expect(home.getByRole('heading', { name: /Your estimate/ })).toBeVisible();
 	await expect(home.getByTestId('homeowner-total')).toHaveText(formatCents(saved.total_cents));
+	// Mobile first: nothing runs wider than the phone.
+	expect(await home.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(375);
 	const wall = home.getByRole('checkbox', { name: /Low retaining wall/ });
 	await wall.check();
 	await expect(home.getByTestId('homeowner-total')).not.toHaveText(formatCents(saved.total_cents));

@@ -14,7 +14,9 @@ async function csvFrom(request: Request) {
 	const file = data.get('file');
 	const text =
 		file instanceof File && file.size > 0 ? await file.text() : String(data.get('csv') ?? '');
-	return csvTextSchema.safeParse(text);
+	return csvTextSchema
+		.refine((t) => t.trim() !== '', 'Choose a file or paste the CSV')
+		.safeParse(text);
 }
 
 export const actions: Actions = {
