@@ -7,7 +7,8 @@ import {
 	estimates,
 	leads,
 	outbox,
-	priceListItems
+	priceListItems,
+	siteVisits
 } from '$lib/server/db/schema';
 import { formatCents } from '$lib/components/estimates/money';
 import { totalsForChoices } from '$lib/estimating/overrides';
@@ -94,6 +95,46 @@ describe('price list CSV', () => {
 		expect(preview.rows).toHaveLength(items.length);
 		const pipe = preview.rows.find((r) => r.sku === 'PIPE-S40-075')!.item!;
 		expect(pipe.attributes).toEqual({ pipe: { material: 'pvc-sch40', size: '3/4' } });
+	});
+});
+
+describe('starting from the visit notes', () => {
+	it('sizes the basin and the cable run from the latest notes and writes their words as scope', async () => {
+		const { sales, lead } = await salesAndLead();
+		const start = new Date(Date.now() - 86400000);
+		const end = new Date(start.getTime() + 3600000);
+		await db.insert(siteVisits).values({
+			id: 'visit-1',
+			leadId: lead.id,
+			salespersonId: sales.id,
+			status: 'booked',
+			startsAt: start,
+			endsAt: end,
+			bufferMinutes: 30,
+			blocked: `[${start.toISOString()},${end.toISOString()})`,
+			timeZone: 'America/Denver',
+			tokenHash: 'x'.repeat(64),
+			tokenExpiresAt: end,
+			notes: {
+				spotLengthFt: 9,
+				spotWidthFt: 7,
+				depthAvailableIn: 18,
+				toHouseFt: 40,
+				notes: 'Gate is 34 in wide',
+				powerLocation: 'GFCI by the back door'
+			},
+			notesUpdatedAt: end
+		} as typeof siteVisits.$inferInsert);
+		const id = (await createEstimate(lead.id, sales))!;
+		const row = (await getEstimate(id))!;
+		const design = row.design as {
+			basin: { size: { lengthFt: number; widthFt: number; depthFt: number } };
+			lighting: { runs: { fixtures: { distanceFt: number }[] }[] };
+		};
+		expect(design.basin.size).toMatchObject({ lengthFt: 7, widthFt: 5, depthFt: 1.5 });
+		expect(design.lighting.runs[0].fixtures[0].distanceFt).toBe(40);
+		expect(row.scope).toBe('Gate is 34 in wide\nPower: GFCI by the back door');
+		expect(row.result).not.toBeNull();
 	});
 });
 

@@ -86,8 +86,9 @@ const numberIn = (notes: Record<string, unknown>, ...keys: string[]) => {
 
 /**
  * A starting design: the firm's standard three-column feature, named for the lead, with the
- * measurements from the latest visit notes where they are present (a full design in
- * notes.design wins; else the spot size, the distances to power and the lift).
+ * measurements from the latest visit notes where present (issue 6's visitNotesSchema: the spot's
+ * length and width size the basin, the depth available caps its depth, the distance to the house,
+ * where the power is, sets the lighting cable run). A full design in notes.design wins.
  */
 export function starterDesign(
 	label: string,
@@ -99,13 +100,17 @@ export function starterDesign(
 	const design = demoDesign();
 	design.name = label;
 	if (!notes) return design as Record<string, unknown>;
-	const length = numberIn(notes, 'spotLengthFt', 'lengthFt', 'basinLengthFt');
-	const width = numberIn(notes, 'spotWidthFt', 'widthFt', 'basinWidthFt');
-	if (design.basin && length && width && design.basin.size.shape === 'rectangle') {
-		design.basin.size.lengthFt = Math.max(2, Math.min(length, 20));
-		design.basin.size.widthFt = Math.max(2, Math.min(width, 20));
+	const length = numberIn(notes, 'spotLengthFt');
+	const width = numberIn(notes, 'spotWidthFt');
+	const depthIn = numberIn(notes, 'depthAvailableIn');
+	const size = design.basin?.size;
+	if (size && size.shape === 'rectangle') {
+		// The basin sits inside the spot with a foot of stone edge each side (common practice, no source).
+		if (length) size.lengthFt = Math.max(2, Math.min(length - 2, 20));
+		if (width) size.widthFt = Math.max(2, Math.min(width - 2, 20));
+		if (depthIn) size.depthFt = Math.max(1, Math.min(size.depthFt, depthIn / 12));
 	}
-	const power = numberIn(notes, 'distanceToPowerFt', 'powerDistanceFt');
+	const power = numberIn(notes, 'toHouseFt');
 	const run = design.lighting?.runs[0];
 	if (run && power) {
 		const base = run.fixtures[0].distanceFt;
@@ -115,7 +120,9 @@ export function starterDesign(
 }
 
 function scopeFromNotes(notes: Record<string, unknown> | null, leadMessage: string) {
-	const text = notes && typeof notes.summary === 'string' ? notes.summary : '';
+	const text = [notes?.notes, notes?.powerLocation ? `Power: ${notes.powerLocation}` : '']
+		.filter((t): t is string => typeof t === 'string' && t.trim() !== '')
+		.join('\n');
 	return (text || leadMessage).slice(0, 2000);
 }
 
