@@ -1,3 +1,4 @@
+/// <reference path="../types/s3rver.d.ts" />
 // The local stand-ins for hosted services: s3rver for S3 and maildev for SMTP.
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
