@@ -51,7 +51,8 @@ export const intervalSchema = z
 	});
 
 export const availabilitySchema = z.object({
-	weeklyHours: z.record(
+	// partialRecord: in zod 4 a record keyed by an enum requires every key; a day off has none.
+	weeklyHours: z.partialRecord(
 		z.enum(['0', '1', '2', '3', '4', '5', '6']),
 		z.array(intervalSchema).max(4)
 	),

@@ -57,7 +57,14 @@ export const actions: Actions = {
 		const errors = parsed.success ? overlapErrors(parsed.data.weeklyHours) : {};
 		if (!parsed.success) Object.assign(errors, fieldErrors(parsed.error));
 		if (!parsed.success || Object.keys(errors).length) {
-			const onRows = Object.fromEntries(Object.entries(errors).map(([k, v]) => [row(k), v]));
+			const onRows: Record<string, string> = {};
+			for (const [k, v] of Object.entries(errors)) {
+				// A message with no field of its own (none expected) still shows, above the form.
+				const key = /^(weeklyHours\.\d\.\d\.(start|end)|[a-zA-Z]+)$/.test(row(k))
+					? row(k)
+					: '_form';
+				onRows[key] ??= v;
+			}
 			return fail(400, { form: 'rules', values: formValues(data), errors: onRows });
 		}
 		await saveAvailability(person.id, parsed.data, user.id);
