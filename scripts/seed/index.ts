@@ -7,7 +7,6 @@ import { DEMO_FIRM, DEMO_STAFF } from './demo-data';
 import { appEnv, serviceConfig } from '../lib/config';
 import { seedLeads } from './leads';
 import { seedPriceList } from './pricelist';
-import { seedVisits } from './visits';
 import { seedJobs } from './jobs';
 import { seedVisits } from './visits';
 
@@ -49,13 +48,6 @@ export async function seedDemo(url: string): Promise<void> {
 	const profile = url.includes(`:${serviceConfig('test').pgPort}/`) ? 'test' : 'dev';
 	const services = appEnv(profile);
 	await seedLeads(url, { s3: { endpoint: services.S3_ENDPOINT, bucket: services.S3_BUCKET } });
-	// Demo availability and two booked visits on the intake seed's "visit booked" leads (issue 6).
-	const visitsDb = scriptDb(url);
-	try {
-		await seedVisits(visitsDb.db);
-	} finally {
-		await visitsDb.close();
-	}
 	// Demo availability and two booked visits on the intake seed's "visit booked" leads (issue 6).
 	const visitsDb = scriptDb(url);
 	try {

@@ -10,12 +10,12 @@ export interface NavItem {
 export const OFFICE_NAV: readonly NavItem[] = [
 	{ href: '/office', label: 'Today', roles: ['owner', 'sales', 'crew'] },
 	{ href: '/office/leads', label: 'Leads', roles: ['owner', 'sales'] },
-	{ href: '/office/payments', label: 'Payments', roles: ['owner'] },
 	{ href: '/office/visits', label: 'Visits', roles: ['owner', 'sales'] },
-	{ href: '/office/availability', label: 'Availability', roles: ['owner', 'sales'] },
 	{ href: '/office/estimates', label: 'Estimates', roles: ['owner', 'sales'] },
 	{ href: '/office/jobs', label: 'Jobs', roles: ['owner', 'sales', 'crew'] },
+	{ href: '/office/payments', label: 'Payments', roles: ['owner'] },
 	{ href: '/office/price-list', label: 'Price list', roles: ['owner', 'sales'] },
+	{ href: '/office/availability', label: 'Availability', roles: ['owner', 'sales'] },
 	{ href: '/office/team', label: 'Team', roles: ['owner'] },
 	{ href: '/office/settings', label: 'Settings', roles: ['owner'] }
 ];
