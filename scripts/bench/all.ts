@@ -61,8 +61,9 @@ for (const b of benches) {
 	const file = join(resultsDir, `${b.name}.json`);
 	if (ran[b.name] === 'ran' && existsSync(file)) {
 		lines.push('| figure | value |', '| --- | --- |');
-		for (const [k, v] of flatten(JSON.parse(readFileSync(file, 'utf8'))))
-			{lines.push(`| ${k} | ${v} |`);}
+		for (const [k, v] of flatten(JSON.parse(readFileSync(file, 'utf8')))) {
+			lines.push(`| ${k} | ${v} |`);
+		}
 		lines.push('');
 	}
 }

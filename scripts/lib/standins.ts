@@ -1,3 +1,4 @@
+// eslint-disable-next-line @typescript-eslint/triple-slash-reference -- s3rver ships no types; this brings ours into every program that imports the stand-ins
 /// <reference path="../types/s3rver.d.ts" />
 // The local stand-ins for hosted services: s3rver for S3 and maildev for SMTP.
 import { mkdirSync } from 'node:fs';

@@ -210,8 +210,9 @@ for (let done = 0; done < count; done += BATCH) {
 		await tx`insert into properties ${tx(properties)}`;
 		await tx`insert into leads ${tx(leads)}`;
 	});
-	if ((done / BATCH) % 10 === 0)
-		{process.stdout.write(`\r${(done + n).toLocaleString('en-US')} leads…`);}
+	if ((done / BATCH) % 10 === 0) {
+		process.stdout.write(`\r${(done + n).toLocaleString('en-US')} leads…`);
+	}
 }
 await sql`analyze contacts`;
 await sql`analyze properties`;
