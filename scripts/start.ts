@@ -43,8 +43,17 @@ try {
 
 const app = dev
 	? spawn(
-			'npx',
-			['vite', 'dev', '--host', '127.0.0.1', '--port', String(c.appPort), '--strictPort'],
+			process.execPath,
+			// Vite itself, not through npx, so that stopping this process stops the server too.
+			[
+				'node_modules/vite/bin/vite.js',
+				'dev',
+				'--host',
+				'127.0.0.1',
+				'--port',
+				String(c.appPort),
+				'--strictPort'
+			],
 			{ stdio: 'inherit', env: { ...process.env, ...env } }
 		)
 	: spawn(process.execPath, ['build'], {

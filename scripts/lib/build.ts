@@ -30,9 +30,13 @@ export function buildIfNeeded(outDir: string, env: Record<string, string>, force
 		Math.max(...SOURCES.map(newestMtime)) > statSync(marker).mtimeMs;
 	if (!stale) return;
 	console.log(`Building the app into ${outDir}…`);
-	const result = spawnSync('npx', ['vite', 'build', '--logLevel', 'warn'], {
-		stdio: 'inherit',
-		env: { ...process.env, ...env, BUILD_DIR: outDir, NODE_ENV: 'production' }
-	});
+	const result = spawnSync(
+		process.execPath,
+		['node_modules/vite/bin/vite.js', 'build', '--logLevel', 'warn'],
+		{
+			stdio: 'inherit',
+			env: { ...process.env, ...env, BUILD_DIR: outDir, NODE_ENV: 'production' }
+		}
+	);
 	if (result.status !== 0) throw new Error('The build failed (see above).');
 }
