@@ -2,12 +2,16 @@ import { error, fail } from '@sveltejs/kit';
 import { fieldErrors, formValues } from '$lib/schema/auth';
 import { visitNotesSchema } from '$lib/schema/visits';
 import { requireRole } from '$lib/server/access';
+import type { SessionUser } from '$lib/server/auth';
+import { PhotoError } from '$lib/server/images';
+import { StorageUnavailableError } from '$lib/server/storage';
+import { storeVisitPhoto, visitPhotoLinks } from '$lib/server/visit-photos';
 import { saveNotes, visitDetail } from '$lib/server/visits';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async (event) => {
-	const user = requireRole(event, 'owner', 'sales');
-	const detail = await visitDetail(event.params.id);
+/** The visit, or a 404 for an unknown one and a 403 for another salesperson's closed visit. */
+async function visitFor(user: SessionUser, id: string) {
+	const detail = await visitDetail(id);
 	if (!detail) error(404, 'No such visit');
 	if (
 		user.role === 'sales' &&
@@ -16,7 +20,14 @@ export const load: PageServerLoad = async (event) => {
 	) {
 		error(403, 'This visit is not yours');
 	}
+	return detail;
+}
+
+export const load: PageServerLoad = async (event) => {
+	const user = requireRole(event, 'owner', 'sales');
+	const detail = await visitFor(user, event.params.id);
 	return {
+		visitPhotos: await visitPhotoLinks(detail.visit.id),
 		visit: detail.visit,
 		leadNumber: detail.leadNumber,
 		homeowner: detail.homeowner,
@@ -37,5 +48,29 @@ export const actions: Actions = {
 		}
 		if (!(await saveNotes(event.params.id, parsed.data, user.id))) error(404, 'No such visit');
 		return { saved: true };
+	},
+	photo: async (event) => {
+		const user = requireRole(event, 'owner', 'sales');
+		await visitFor(user, event.params.id);
+		const file = (await event.request.formData()).get('photo');
+		if (!(file instanceof File) || file.size === 0) {
+			return fail(400, { form: 'photo', message: 'Choose a photo first.' });
+		}
+		try {
+			const bytes = new Uint8Array(await file.arrayBuffer());
+			if (!(await storeVisitPhoto(event.params.id, file.name, bytes, user.id))) {
+				error(404, 'No such visit');
+			}
+		} catch (e) {
+			if (e instanceof PhotoError) return fail(400, { form: 'photo', message: e.message });
+			if (e instanceof StorageUnavailableError) {
+				return fail(503, {
+					form: 'photo',
+					message: 'Photo storage is out of reach; try again shortly.'
+				});
+			}
+			throw e;
+		}
+		return { form: 'photo', saved: true };
 	}
 };
