@@ -10,6 +10,7 @@ import { getObject } from '$lib/server/storage';
 import { storeVisitPhoto, visitPhotoLinks } from '$lib/server/visit-photos';
 import { bookVisit } from '$lib/server/visits';
 import { zonedInstant } from '$lib/scheduling/zone';
+import { actions } from '../../src/routes/office/visits/[id]/+page.server';
 import { resetDatabase } from '../support/database';
 import { makeUser, makeVisitLead, seedFirm, setHours } from './fixtures';
 
@@ -68,5 +69,34 @@ describe('visit photos', () => {
 		await expect(storeVisitPhoto(visit.id, 'plan.svg', svg, sales.id)).rejects.toThrow(PhotoError);
 		expect(await db.select().from(photos)).toHaveLength(0);
 		expect(await storeVisitPhoto('no-such-visit', 'x.jpg', svg, sales.id)).toBeNull();
+	});
+
+	it('the page action takes a plain multipart post and answers a bad file beside the field', async () => {
+		const { sales, visit } = await bookedVisit();
+		const post = (file: Blob, name: string) => {
+			const body = new FormData();
+			body.append('photo', file, name);
+			const url = `http://127.0.0.1/office/visits/${visit.id}?/photo`;
+			return actions.photo({
+				params: { id: visit.id },
+				locals: { user: { ...sales } },
+				url: new URL(url),
+				request: new Request(url, { method: 'POST', body })
+			} as never);
+		};
+		const png = await sharp({
+			create: { width: 640, height: 480, channels: 3, background: '#7a8f5c' }
+		})
+			.png()
+			.toBuffer();
+		expect(await post(new Blob([png]), 'edge.png')).toEqual({ form: 'photo', saved: true });
+		const bad = (await post(new Blob(['not a photo at all']), 'notes.txt')) as {
+			status: number;
+			data: { form: string; message: string };
+		};
+		expect(bad.status).toBe(400);
+		expect(bad.data.message).toContain('“notes.txt” is not a JPEG, PNG or WebP photo');
+		const rows = await db.select().from(photos).where(eq(photos.visitId, visit.id));
+		expect(rows.map((r) => [r.context, r.originalName])).toEqual([['visit', 'edge.png']]);
 	});
 });
