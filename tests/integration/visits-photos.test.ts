@@ -89,7 +89,10 @@ describe('visit photos', () => {
 		})
 			.png()
 			.toBuffer();
-		expect(await post(new Blob([png]), 'edge.png')).toEqual({ form: 'photo', saved: true });
+		expect(await post(new Blob([new Uint8Array(png)]), 'edge.png')).toEqual({
+			form: 'photo',
+			saved: true
+		});
 		const bad = (await post(new Blob(['not a photo at all']), 'notes.txt')) as {
 			status: number;
 			data: { form: string; message: string };
