@@ -2,7 +2,6 @@
 // seasonal care reminder are still recorded, their mails wait in the outbox with a queued retry,
 // and go out (once) when mail is back.
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { createServer, connect, type Server, type Socket } from 'node:net';
 import { eq, sql } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import { changeOrders, outbox } from '$lib/server/db/schema';
@@ -12,41 +11,23 @@ import { sendCareReminder } from '$lib/server/care';
 import { deliverOutboxMessage } from '$lib/server/outbox';
 import { stopQueue } from '$lib/server/queue';
 import { resetDatabase } from '../support/database';
+import { smtpRelay } from '../support/smtp-relay';
 import { allMail, clearMail, waitForMail } from '../support/mailbox';
 import { makeEstimate, makeUser, seedFirm } from './fixtures';
 
-// Mail goes through a relay in front of the SMTP stand-in that a test can switch off.
-const realSmtpPort = Number(process.env.SMTP_PORT ?? 1035);
-let relay: Server;
-let smtpDown = false;
-const sockets = new Set<Socket>();
-
-beforeAll(async () => {
-	relay = createServer((client) => {
-		if (smtpDown) return client.destroy();
-		const upstream = connect(realSmtpPort, '127.0.0.1');
-		sockets.add(client).add(upstream);
-		client.pipe(upstream).pipe(client);
-		const close = () => (client.destroy(), upstream.destroy());
-		client.on('error', close).on('close', close);
-		upstream.on('error', close).on('close', close);
-	});
-	await new Promise<void>((r) => relay.listen(0, '127.0.0.1', r));
-	const address = relay.address();
-	process.env.SMTP_PORT = String(typeof address === 'object' && address ? address.port : 0);
-});
+// Mail goes through a switchable relay in front of the SMTP stand-in, so a test can take it down.
+const relay = smtpRelay();
+beforeAll(() => relay.start());
 
 afterAll(async () => {
-	for (const s of sockets) s.destroy();
-	relay.close();
-	process.env.SMTP_PORT = String(realSmtpPort);
+	relay.stop();
 	await stopQueue();
 });
 
 beforeEach(async () => {
 	await resetDatabase();
 	await clearMail();
-	smtpDown = false;
+	relay.down = false;
 	await seedFirm();
 });
 
@@ -87,7 +68,7 @@ describe('an SMTP outage', () => {
 		);
 		const { url } = await sendChangeOrder(jobId, coId, owner);
 
-		smtpDown = true;
+		relay.down = true;
 		const token = new URL(url).pathname.split('/').pop()!;
 		expect(
 			await decideChangeOrder(
@@ -106,7 +87,7 @@ describe('an SMTP outage', () => {
 		expect(waiting).toMatchObject({ sentAt: null, attempts: 2 });
 		expect(waiting.lastError).toBeTruthy();
 
-		smtpDown = false;
+		relay.down = false;
 		expect(await deliverOutboxMessage(mail.id)).toBe('sent');
 		expect(await deliverOutboxMessage(mail.id)).toBe('already-sent');
 		const caught = await waitForMail('office@test.example', /CO-1 approved by the homeowner/);
@@ -120,7 +101,7 @@ describe('an SMTP outage', () => {
 		const { estimateId, email } = await makeEstimate({ accepted: true });
 		const { jobId } = await convertAcceptedEstimate(estimateId);
 
-		smtpDown = true;
+		relay.down = true;
 		expect(await sendCareReminder(jobId, 'shutdown-2027', { chain: false })).toBe('sent');
 		const mail = await outboxRow(`care:${jobId}:shutdown-2027`);
 		expect(await queuedSend(mail.id)).not.toHaveLength(0);
@@ -134,7 +115,7 @@ describe('an SMTP outage', () => {
 		expect(rows).toHaveLength(1);
 		expect(rows[0]).toMatchObject({ sentAt: null, attempts: 1 });
 
-		smtpDown = false;
+		relay.down = false;
 		expect(await deliverOutboxMessage(mail.id)).toBe('sent');
 		const caught = await waitForMail(email, /autumn shut-down/);
 		expect(caught.text).toMatch(/\/care\/unsubscribe\//);

@@ -1,7 +1,6 @@
 // Site visits against the real database: the exclusion constraint, twenty bookings racing for
 // one slot, refusals with their reasons, the invitations (.ics read back with ical.js), the
 // reminders, the API's 400s, and an SMTP outage that delays mail without losing the booking.
-import { createServer, connect, type Server, type Socket } from 'node:net';
 import ICAL from 'ical.js';
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
@@ -20,34 +19,16 @@ import {
 } from '$lib/server/visits';
 import { GET as slotsGET } from '../../src/routes/api/visits/slots/+server';
 import { resetDatabase } from '../support/database';
+import { smtpRelay } from '../support/smtp-relay';
 import { clearMail, waitForMail } from '../support/mailbox';
 import { makeUser, makeVisitLead, seedFirm, setHours } from './fixtures';
 
 // Mail goes through a switchable relay in front of the SMTP stand-in, so a test can take it down.
-const realSmtpPort = Number(process.env.SMTP_PORT ?? 1035);
-let relay: Server;
-let smtpDown = false;
-const sockets = new Set<Socket>();
-
-beforeAll(async () => {
-	relay = createServer((client) => {
-		if (smtpDown) return client.destroy();
-		const upstream = connect(realSmtpPort, '127.0.0.1');
-		sockets.add(client).add(upstream);
-		client.pipe(upstream).pipe(client);
-		const close = () => (client.destroy(), upstream.destroy());
-		client.on('error', close).on('close', close);
-		upstream.on('error', close).on('close', close);
-	});
-	await new Promise<void>((r) => relay.listen(0, '127.0.0.1', r));
-	const address = relay.address();
-	process.env.SMTP_PORT = String(typeof address === 'object' && address ? address.port : 0);
-});
+const relay = smtpRelay();
+beforeAll(() => relay.start());
 
 afterAll(async () => {
-	for (const s of sockets) s.destroy();
-	relay.close();
-	process.env.SMTP_PORT = String(realSmtpPort);
+	relay.stop();
 	await stopQueue();
 });
 
@@ -58,7 +39,7 @@ let sales: Awaited<ReturnType<typeof makeUser>>;
 beforeEach(async () => {
 	await resetDatabase();
 	await clearMail();
-	smtpDown = false;
+	relay.down = false;
 	await seedFirm();
 	sales = await makeUser('sales', 'teo@test.example', 'Teo Test');
 	await setHours(sales.id);
@@ -295,7 +276,7 @@ describe('reminders', () => {
 
 describe('an SMTP outage', () => {
 	it('keeps the booking and sends the invitations when mail is back', async () => {
-		smtpDown = true;
+		relay.down = true;
 		const lead = await makeVisitLead();
 		const visit = await bookVisit({
 			leadId: lead.id,
@@ -312,7 +293,7 @@ describe('an SMTP outage', () => {
 		const unsent = await mailsOf(visit.id);
 		expect(unsent.every((m) => m.sentAt === null && m.attempts === 1 && m.lastError)).toBe(true);
 
-		smtpDown = false;
+		relay.down = false;
 		for (const m of mails) expect(await deliverOutboxMessage(m.id)).toBe('sent');
 		const caught = await waitForMail(lead.email!, /Site visit booked/);
 		expect(caught.attachments?.map((a) => a.contentType)).toEqual([

@@ -1,4 +1,4 @@
-/** The price-list categories the engine knows (the same list as the catalog schema's enum). */
+/** The price-list categories the engine knows; the catalog schema validates against this list. */
 export const CATEGORIES = [
 	'pipe',
 	'fitting',

@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { FITTING_KINDS, NOMINAL_SIZES, PIPE_MATERIALS } from './pipes';
 import { ROCK_TYPES } from './stones';
 import { GAUGES } from './lighting';
+import { CATEGORIES } from './categories';
 
 const id = z.string().min(1, 'Required');
 const name = z.string().min(1, 'Required');
@@ -212,19 +213,7 @@ export type ItemUnit = (typeof ITEM_UNITS)[number];
 const itemSchema = z.object({
 	sku: id,
 	name,
-	category: z.enum([
-		'pipe',
-		'fitting',
-		'valve',
-		'pump',
-		'basin',
-		'stone',
-		'aggregate',
-		'wall',
-		'lighting',
-		'electrical',
-		'other'
-	]),
+	category: z.enum(CATEGORIES),
 	unit: z.enum(ITEM_UNITS),
 	unitCost: cents,
 	unitPrice: cents,
