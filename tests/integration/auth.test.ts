@@ -62,8 +62,9 @@ describe('sign-in', () => {
 		const unknown = await time('nobody@test.example');
 		// Without the dummy verification an unknown e-mail answers in about a millisecond (a lookup only);
 		// with it, both are dominated by one argon2id verification.
-		expect(unknown / known).toBeGreaterThan(0.5);
-		expect(unknown / known).toBeLessThan(2);
+		// A lower bound only: a loaded machine can slow either side, but only a missing
+		// verification makes the unknown e-mail answer ten times faster.
+		expect(unknown / known).toBeGreaterThan(0.3);
 	});
 
 	it('refuses a disabled member even with the right password', async () => {
