@@ -1,12 +1,25 @@
 // The payment stand-in speaks the provider's API to its official SDK, and its webhooks verify
 // with the SDK's own signature check: the same code would run against the real provider.
 import { createServer, type Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import Stripe from 'stripe';
 import { startPayStandIn } from '../../scripts/lib/pay-standin';
 
-const PAY_PORT = 55591;
-const HOOK_PORT = 55592;
+/** A port the OS has just handed out, so two test runs on one machine never collide. */
+function freePort(): Promise<number> {
+	return new Promise((resolve, reject) => {
+		const probe = createServer();
+		probe.once('error', reject);
+		probe.listen(0, '127.0.0.1', () => {
+			const { port } = probe.address() as AddressInfo;
+			probe.close(() => resolve(port));
+		});
+	});
+}
+
+const PAY_PORT = await freePort();
+const HOOK_PORT = await freePort();
 const SECRET = 'whsec_test_standin';
 let standIn: Awaited<ReturnType<typeof startPayStandIn>>;
 const received: { body: string; signature: string }[] = [];
