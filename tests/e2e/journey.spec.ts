@@ -297,6 +297,9 @@ test('the journey: inquiry to testimonial request', async ({ browser }) => {
 		await owner.locator('#pay-reference').fill(`CHQ-${tag}`);
 		await owner.getByRole('button', { name: 'Record payment' }).click();
 		await expect(balance).toHaveText('$0.00');
+		// The form clears for the next payment but keeps a date, so a second entry is not undated.
+		await expect(owner.locator('#pay-amount')).toHaveValue('');
+		await expect(owner.locator('#pay-date')).toHaveValue(/^\d{4}-\d{2}-\d{2}$/);
 		await shot(owner, 'balance-paid');
 	});
 
