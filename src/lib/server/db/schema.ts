@@ -538,6 +538,22 @@ export const siteVisits = pgTable(
 	]
 );
 
+/**
+ * Homeowner links mailed after the first one (each reschedule mail carries a fresh token, since
+ * only hashes are stored). Every link of a visit opens it until site_visits.token_expires_at.
+ */
+export const siteVisitLinks = pgTable(
+	'site_visit_links',
+	{
+		tokenHash: text('token_hash').primaryKey(),
+		visitId: text('visit_id')
+			.notNull()
+			.references(() => siteVisits.id, { onDelete: 'cascade' }),
+		createdAt: createdAt()
+	},
+	(t) => [index('site_visit_links_visit_idx').on(t.visitId)]
+);
+
 export type Availability = typeof availability.$inferSelect;
 export type TimeOff = typeof timeOff.$inferSelect;
 export type SiteVisit = typeof siteVisits.$inferSelect;
