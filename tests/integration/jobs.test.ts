@@ -30,6 +30,7 @@ import { deliverOutboxMessage } from '$lib/server/outbox';
 import type { SessionUser } from '$lib/server/auth';
 import { resetDatabase } from '../support/database';
 import { allMail, clearMail, linkIn, waitForMail } from '../support/mailbox';
+import { demoDesign } from '$lib/estimating/demo';
 import { makeEstimate, makeUser, seedFirm } from './fixtures';
 
 let owner: SessionUser;
@@ -107,6 +108,8 @@ describe('converting a sold estimate', () => {
 		expect(rows[0].crewNeeded).toBe(4);
 		expect(rows[0].depositDueCents).toBe(185420);
 		expect(rows[0].frozen.choices.alternates.topping).toBe('topping-pebble');
+		// The job is named after the design, not after the first line of the scope text.
+		expect(rows[0].title).toBe(demoDesign().name);
 	});
 
 	it('refuses an estimate that is not accepted, and one already converted, with the reason', async () => {

@@ -134,6 +134,13 @@ export function materialsFromResult(
 		.map((r, i) => ({ ...r, sortOrder: i }));
 }
 
+/** The design's own name (the builder starts it as "<homeowner> — water feature"), else the services and the lead number. */
+function jobTitle(design: unknown, lead: { services: string[] | null; number: number }): string {
+	const name = (design as { name?: unknown } | null)?.name;
+	if (typeof name === 'string' && name.trim()) return name.trim().slice(0, 120);
+	return `${(lead.services ?? []).join(', ') || 'Water feature'} for R-${lead.number}`;
+}
+
 export async function addActivity(
 	tx: Db,
 	leadId: string,
@@ -208,9 +215,7 @@ async function convertIn(tx: Tx, estimateId: string, options: ConversionOptions)
 		totalCents: acceptance.totalCents,
 		depositCents: acceptance.depositCents
 	};
-	const title =
-		(estimate.scope.split('\n')[0] ?? '').trim().slice(0, 120) ||
-		`${(lead.services ?? []).join(', ') || 'Water feature'} for R-${lead.number}`;
+	const title = jobTitle(estimate.design, lead);
 	const id = newId();
 	const inserted = await tx
 		.insert(jobs)
