@@ -30,6 +30,7 @@ import type { scriptDb } from '../lib/db';
 type Db = ReturnType<typeof scriptDb>['db'];
 
 export const DEMO_JOB_LEAD_EMAIL = 'felix.marchbank@example.test';
+export const DEMO_JOB_TITLE = 'Basalt columns beside the deck';
 export const DEMO_JOB_SCOPE =
 	'Three basalt columns bubbling over a hidden gravel basin beside the deck, with a pebble topping';
 
@@ -91,7 +92,8 @@ export async function seedJobs(db: Db): Promise<void> {
 
 	// The same catalog the demo price list rows were written from (seedPriceList parses it too).
 	const catalog = catalogSchema.parse(demoCatalog());
-	const design = demoDesign();
+	// The design's name becomes the job's title.
+	const design = { ...demoDesign(), name: DEMO_JOB_TITLE };
 	const engine = runEngine(design, catalog);
 	if (!engine.ok) throw new Error('the demo design no longer estimates');
 	const priced = priceWithOverrides(engine, design, catalog, []);

@@ -8,7 +8,7 @@ import { linkIn, waitForMail } from '../support/mailbox';
 import { signIn } from './pages/staff';
 
 const HOMEOWNER = 'felix.marchbank@example.test';
-const JOB_TITLE = /Three basalt columns bubbling over a hidden gravel basin/;
+const JOB_TITLE = /Basalt columns beside the deck/;
 
 function firmDay(offset: number): string {
 	return new Intl.DateTimeFormat('en-CA', {
@@ -60,6 +60,10 @@ test('sold estimate to scheduled job, crew phone view, change order, completion,
 	const crewContext = await browser.newContext({ viewport: { width: 390, height: 844 } });
 	const crew = await crewContext.newPage();
 	await signIn(crew, 'crew');
+	// Her Today page lists the two install days of the job.
+	const installDays = crew.locator('section[aria-labelledby="install-heading"]');
+	await expect(installDays.getByRole('link', { name: JOB_TITLE })).toHaveCount(2);
+	await expect(installDays.getByText('Today', { exact: true })).toBeVisible();
 	await crew.goto('/office/jobs');
 	const today = crew.locator('section[aria-labelledby="today-heading"]');
 	await today.getByRole('link', { name: JOB_TITLE }).click();
