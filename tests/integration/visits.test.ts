@@ -2,7 +2,7 @@
 // one slot, refusals with their reasons, the invitations (.ics read back with ical.js), the
 // reminders, the API's 400s, and an SMTP outage that delays mail without losing the booking.
 import ICAL from 'ical.js';
-import { eq } from 'drizzle-orm';
+import { eq, sql } from 'drizzle-orm';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { db } from '$lib/server/db';
 import { activities, leads, outbox, siteVisits, timeOff } from '$lib/server/db/schema';
@@ -17,6 +17,10 @@ import {
 	sendVisitReminder,
 	visitByToken
 } from '$lib/server/visits';
+import {
+	actions as homeownerActions,
+	load as homeownerLoad
+} from '../../src/routes/visit/[token]/+page.server';
 import { GET as slotsGET } from '../../src/routes/api/visits/slots/+server';
 import { resetDatabase } from '../support/database';
 import { smtpRelay } from '../support/smtp-relay';
@@ -271,6 +275,159 @@ describe('reminders', () => {
 		expect(await sendVisitReminder({ visitId: visit.id, sequence: 1 }, dayBefore)).toBe('stale');
 		const after = (await mailsOf(visit.id)).filter((m) => m.dedupeKey.includes(':reminder:'));
 		expect(after).toHaveLength(2);
+	});
+});
+
+/** The reminder jobs queued in pg-boss for a visit: [sequence, when it may run]. */
+async function reminderJobs(visitId: string) {
+	const rows = await db.execute<{ data: { sequence: number }; start_after: Date }>(
+		sql`select data, start_after from pgboss.job
+			where name = 'visit.reminder' and data->>'visitId' = ${visitId} order by start_after`
+	);
+	return rows.map((r) => [r.data.sequence, new Date(r.start_after).toISOString()]);
+}
+
+describe('reminders for a visit booked at short notice', () => {
+	const book = (leadId: string, startsAt: Date, now: Date) =>
+		bookVisit({
+			leadId,
+			salespersonId: sales.id,
+			startsAt,
+			noteForHomeowner: '',
+			actorId: sales.id,
+			now
+		});
+
+	it('queues a day-before reminder, a three-hours-before one inside a day, none a few hours ahead', async () => {
+		const now = at('2027-03-15', 8);
+		const far = await book((await makeVisitLead()).id, at('2027-03-18', 10), now);
+		const today = await book((await makeVisitLead()).id, at('2027-03-15', 15), now);
+		const soon = await book((await makeVisitLead()).id, at('2027-03-15', 11), now);
+		expect(await reminderJobs(far.id)).toEqual([[0, at('2027-03-17', 10).toISOString()]]);
+		expect(await reminderJobs(today.id)).toEqual([[0, at('2027-03-15', 12).toISOString()]]);
+		expect(await reminderJobs(soon.id)).toEqual([]);
+		// The invitation stands in for it: the homeowner of the 11:00 visit got it, with the link.
+		const soonMail = (await mailsOf(soon.id)).filter((m) => m.dedupeKey.includes(':booked:'));
+		expect(soonMail).toHaveLength(2);
+	});
+
+	it('sends the same-day reminder once, says today, and nothing stale after a move', async () => {
+		const lead = await makeVisitLead();
+		const now = at('2027-03-15', 8);
+		const visit = await book(lead.id, at('2027-03-15', 15), now);
+		const noon = at('2027-03-15', 12);
+		expect(await sendVisitReminder({ visitId: visit.id, sequence: 0 }, noon)).toBe('sent');
+		expect(await sendVisitReminder({ visitId: visit.id, sequence: 0 }, noon)).toBe('sent');
+		const reminders = (await mailsOf(visit.id)).filter((m) => m.dedupeKey.includes(':reminder:'));
+		expect(reminders).toHaveLength(2);
+		const home = reminders.find((m) => m.to === lead.email)!;
+		expect(home.subject).toMatch(/^Reminder: site visit today, Monday, March 15, 2027, 3:00/);
+		expect(home.text).toContain('811');
+
+		// Moved at 12:30 to 16:00 the same day: too close for another reminder, and the old job is stale.
+		const moved = await rescheduleVisit(visit.id, {
+			salespersonId: sales.id,
+			startsAt: at('2027-03-15', 16),
+			actorId: sales.id,
+			now: at('2027-03-15', 12, 30)
+		});
+		expect(await reminderJobs(visit.id)).toEqual([[0, noon.toISOString()]]);
+		expect(await sendVisitReminder({ visitId: visit.id, sequence: 0 }, noon)).toBe('stale');
+		// Moved again to the next morning: a reminder for the new sequence, three hours before.
+		const again = await rescheduleVisit(visit.id, {
+			salespersonId: sales.id,
+			startsAt: at('2027-03-16', 10),
+			actorId: sales.id,
+			now: at('2027-03-15', 13)
+		});
+		expect(again.sequence).toBe(moved.sequence + 1);
+		expect((await reminderJobs(visit.id)).at(-1)).toEqual([2, at('2027-03-16', 7).toISOString()]);
+		await cancelVisit(visit.id, { reason: '', actorId: sales.id, by: 'staff' });
+		expect(await sendVisitReminder({ visitId: visit.id, sequence: 2 }, at('2027-03-16', 7))).toBe(
+			'stale'
+		);
+		const after = (await mailsOf(visit.id)).filter((m) => m.dedupeKey.includes(':reminder:'));
+		expect(after).toHaveLength(2);
+	});
+});
+
+describe("the homeowner's link", () => {
+	const tokenIn = (text: string) => /\/visit\/([A-Za-z0-9_-]+)/.exec(text)![1];
+	const homeownerMail = async (visitId: string, kind: string) =>
+		(await mailsOf(visitId)).find((m) => m.dedupeKey.endsWith(`${kind}:homeowner`))!;
+
+	it('keeps the first link working after a move, at the new time, until after the new visit', async () => {
+		const lead = await makeVisitLead();
+		const visit = await bookVisit({
+			leadId: lead.id,
+			salespersonId: sales.id,
+			startsAt: at('2027-03-15', 9),
+			noteForHomeowner: '',
+			actorId: sales.id
+		});
+		const first = tokenIn((await homeownerMail(visit.id, '0:booked')).text);
+		const moved = await rescheduleVisit(visit.id, {
+			salespersonId: sales.id,
+			startsAt: at('2027-03-22', 14),
+			actorId: sales.id
+		});
+		const second = tokenIn((await homeownerMail(visit.id, '1:rescheduled')).text);
+		expect(second).not.toBe(first);
+		for (const token of [first, second]) {
+			const party = await visitByToken(token);
+			expect(party?.visit.startsAt.toISOString()).toBe(at('2027-03-22', 14).toISOString());
+		}
+		// The old expiry (a day after the first time) no longer ends it; a day after the new one does.
+		const dayAfterFirst = new Date(visit.endsAt.getTime() + 86_400_000 + 60_000);
+		expect((await visitByToken(first, dayAfterFirst))?.visit.id).toBe(visit.id);
+		expect(await visitByToken(first, new Date(moved.endsAt.getTime() + 2 * 86_400_000))).toBeNull();
+		const page = (await homeownerLoad({ params: { token: first } } as never)) as {
+			when: string;
+			status: string;
+		};
+		expect(page.status).toBe('booked');
+		expect(page.when).toContain('Monday, March 22, 2027');
+		expect(await homeownerActions.confirm({ params: { token: first } } as never)).toEqual({
+			done: 'Thank you: the visit is confirmed.'
+		});
+		const [stored] = await db.select().from(siteVisits).where(eq(siteVisits.id, visit.id));
+		expect(stored.confirmedAt).not.toBeNull();
+	});
+
+	it('shows a cancelled visit as cancelled through every link, and refuses to confirm it', async () => {
+		const lead = await makeVisitLead();
+		const visit = await bookVisit({
+			leadId: lead.id,
+			salespersonId: sales.id,
+			startsAt: at('2027-03-15', 9),
+			noteForHomeowner: '',
+			actorId: sales.id
+		});
+		const first = tokenIn((await homeownerMail(visit.id, '0:booked')).text);
+		await rescheduleVisit(visit.id, {
+			salespersonId: sales.id,
+			startsAt: at('2027-03-16', 9),
+			actorId: sales.id
+		});
+		const cancelledAt = at('2027-03-10', 12);
+		await cancelVisit(visit.id, {
+			reason: 'Plans changed',
+			actorId: sales.id,
+			by: 'staff',
+			now: cancelledAt
+		});
+		const page = (await homeownerLoad({ params: { token: first } } as never)) as {
+			status: string;
+			cancelledBy: string;
+		};
+		expect(page).toMatchObject({ status: 'cancelled', cancelledBy: 'staff' });
+		const refused = (await homeownerActions.confirm({ params: { token: first } } as never)) as {
+			status: number;
+		};
+		expect(refused.status).toBe(410);
+		// A week after the cancel it still says "cancelled" (past the day after the visit), then expires.
+		expect((await visitByToken(first, at('2027-03-17', 11)))?.visit.status).toBe('cancelled');
+		expect(await visitByToken(first, at('2027-03-17', 13))).toBeNull();
 	});
 });
 

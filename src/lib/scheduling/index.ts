@@ -1,3 +1,4 @@
 export * from './slots';
 export * from './zone';
 export { vtimezone } from './vtimezone';
+export * from './reminders';

@@ -3,6 +3,7 @@
 // outbox; the caller dispatches after its transaction commits.
 import { TZDate } from '@date-fns/tz';
 import ical, { ICalAttendeeRole, ICalCalendarMethod, ICalEventStatus } from 'ical-generator';
+import { relativeDay } from '$lib/scheduling/reminders';
 import { vtimezone } from '$lib/scheduling/vtimezone';
 import type { db } from './db';
 import type { Settings, SiteVisit } from './db/schema';
@@ -99,14 +100,26 @@ function attachment(p: VisitParty, method: 'REQUEST' | 'CANCEL') {
 
 export type VisitMailKind = 'booked' | 'rescheduled' | 'cancelled' | 'reminder';
 
-const SUBJECTS: Record<VisitMailKind, (p: VisitParty) => string> = {
+/** 'today, ' or 'tomorrow, ' as seen when the reminder is written (it may go out hours before). */
+function dayWord(p: VisitParty, now: Date): string {
+	const day = relativeDay(p.visit.startsAt, now, p.visit.timeZone);
+	return day ? `${day}, ` : '';
+}
+
+const SUBJECTS: Record<VisitMailKind, (p: VisitParty, now: Date) => string> = {
 	booked: (p) => `Site visit booked: ${whenText(p.visit)} (R-${p.leadNumber})`,
 	rescheduled: (p) => `Site visit moved: ${whenText(p.visit)} (R-${p.leadNumber})`,
 	cancelled: (p) => `Site visit cancelled (R-${p.leadNumber})`,
-	reminder: (p) => `Reminder: site visit tomorrow, ${whenText(p.visit)} (R-${p.leadNumber})`
+	reminder: (p, now) =>
+		`Reminder: site visit ${dayWord(p, now)}${whenText(p.visit)} (R-${p.leadNumber})`
 };
 
-function homeownerText(p: VisitParty, kind: VisitMailKind, link: string | null): string[] {
+function homeownerText(
+	p: VisitParty,
+	kind: VisitMailKind,
+	link: string | null,
+	now: Date
+): string[] {
 	const first = p.homeowner.name.split(' ')[0] || p.homeowner.name;
 	const lines = [`Hello ${first},`];
 	if (kind === 'cancelled') {
@@ -119,7 +132,7 @@ function homeownerText(p: VisitParty, kind: VisitMailKind, link: string | null):
 	const verb = {
 		booked: 'is booked for',
 		rescheduled: 'has moved to',
-		reminder: 'is tomorrow,'
+		reminder: `is coming up: ${dayWord(p, now)}`
 	}[kind];
 	lines.push(
 		`Your site visit with ${p.salesperson.name} from ${p.firm.firmName} ${verb} ${whenText(p.visit)}, at ${p.address}.`
@@ -134,12 +147,13 @@ function homeownerText(p: VisitParty, kind: VisitMailKind, link: string | null):
 	return lines;
 }
 
-function salespersonText(p: VisitParty, kind: VisitMailKind): string[] {
+function salespersonText(p: VisitParty, kind: VisitMailKind, now: Date): string[] {
+	const soon = dayWord(p, now).replace(', ', '');
 	const what = {
 		booked: 'Booked',
 		rescheduled: 'Moved',
 		cancelled: 'Cancelled',
-		reminder: 'Tomorrow'
+		reminder: soon ? soon[0].toUpperCase() + soon.slice(1) : 'Coming up'
 	}[kind];
 	return [
 		`${what}: site visit for R-${p.leadNumber}, ${p.homeowner.name}.`,
@@ -157,7 +171,8 @@ export async function writeVisitMails(
 	tx: Tx,
 	p: VisitParty,
 	kind: VisitMailKind,
-	homeownerToken: string | null
+	homeownerToken: string | null,
+	now = new Date()
 ): Promise<string[]> {
 	const ids: string[] = [];
 	const method = kind === 'cancelled' ? 'CANCEL' : 'REQUEST';
@@ -166,12 +181,12 @@ export async function writeVisitMails(
 	const footer = `${p.firm.firmName} · ${p.firm.phone} · ${p.firm.email}`;
 	const key = `visit:${p.visit.id}:${p.visit.sequence}:${kind}`;
 	if (p.homeowner.email) {
-		const paragraphs = homeownerText(p, kind, link);
+		const paragraphs = homeownerText(p, kind, link, now);
 		const id = await writeMail(
 			{
 				dedupeKey: `${key}:homeowner`,
 				to: p.homeowner.email,
-				subject: SUBJECTS[kind](p),
+				subject: SUBJECTS[kind](p, now),
 				text: [...paragraphs, '', footer].join('\n\n'),
 				html: htmlBody(
 					paragraphs.filter((l) => !link || !l.includes(link)),
@@ -185,12 +200,12 @@ export async function writeVisitMails(
 		);
 		if (id) ids.push(id);
 	}
-	const paragraphs = salespersonText(p, kind);
+	const paragraphs = salespersonText(p, kind, now);
 	const id = await writeMail(
 		{
 			dedupeKey: `${key}:salesperson`,
 			to: p.salesperson.email,
-			subject: SUBJECTS[kind](p),
+			subject: SUBJECTS[kind](p, now),
 			text: paragraphs.join('\n\n'),
 			html: htmlBody(paragraphs, undefined, footer),
 			attachments: files,

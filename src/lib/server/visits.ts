@@ -1,7 +1,7 @@
 // Site visits: availability, bookable slots, booking with the database as the last word on
 // double-booking (exclusion constraint site_visits_no_overlap), reschedule, cancel, the
 // homeowner's private link, reminders the day before, the agenda and the visit notes.
-import { and, asc, eq, gt, inArray, isNull, lt, ne, sql } from 'drizzle-orm';
+import { and, asc, eq, gt, inArray, isNull, lt, ne, or, sql } from 'drizzle-orm';
 import {
 	blockedSpan,
 	freeSlots,
@@ -12,6 +12,7 @@ import {
 	type Rules,
 	type Slot
 } from '$lib/scheduling/slots';
+import { reminderPlan } from '$lib/scheduling/reminders';
 import { addDays, wallTime, zonedInstant } from '$lib/scheduling/zone';
 import type { AvailabilityInput, VisitNotes } from '$lib/schema/visits';
 import { db } from './db';
@@ -24,6 +25,7 @@ import {
 	photos,
 	properties,
 	settings,
+	siteVisitLinks,
 	siteVisits,
 	timeOff,
 	users,
@@ -278,9 +280,9 @@ async function checkStart(
 	return facts;
 }
 
-async function afterCommit(outboxIds: string[], visit: SiteVisit): Promise<void> {
+async function afterCommit(outboxIds: string[], visit: SiteVisit, now: Date): Promise<void> {
 	for (const id of outboxIds) await dispatchMail(id);
-	await scheduleReminder(visit);
+	await scheduleReminder(visit, now);
 }
 
 export interface BookInput {
@@ -353,7 +355,7 @@ export async function bookVisit(input: BookInput): Promise<SiteVisit> {
 	} catch (error) {
 		throw translate(error);
 	}
-	await afterCommit(mails, visit);
+	await afterCommit(mails, visit, now);
 	return visit;
 }
 
@@ -420,7 +422,7 @@ export async function rescheduleVisit(
 					timeZone: rules.timeZone,
 					sequence: current.sequence + 1,
 					noteForHomeowner: input.noteForHomeowner ?? current.noteForHomeowner,
-					tokenHash: sha256(token),
+					// The links mailed so far keep working and follow the visit to its new time.
 					tokenExpiresAt: new Date(endsAt.getTime() + 86_400_000),
 					confirmedAt: null,
 					changeRequest: null,
@@ -428,6 +430,8 @@ export async function rescheduleVisit(
 				})
 				.where(eq(siteVisits.id, visitId))
 				.returning();
+			// Only hashes are kept, so the update mail carries a fresh link beside the old ones.
+			await tx.insert(siteVisitLinks).values({ tokenHash: sha256(token), visitId });
 			await tx
 				.update(leads)
 				.set({ lastTouchAt: now, version: sql`${leads.version} + 1` })
@@ -467,14 +471,18 @@ export async function rescheduleVisit(
 	} catch (error) {
 		throw translate(error);
 	}
-	await afterCommit(mails, visit);
+	await afterCommit(mails, visit, now);
 	return visit;
 }
 
+/** A cancelled visit's link keeps saying so for at least this long after the cancel. */
+const CANCELLED_LINK_MS = 7 * 86_400_000;
+
 export async function cancelVisit(
 	visitId: string,
-	input: { reason: string; actorId: string | null; by: 'staff' | 'homeowner' }
+	input: { reason: string; actorId: string | null; by: 'staff' | 'homeowner'; now?: Date }
 ): Promise<SiteVisit> {
+	const now = input.now ?? new Date();
 	let mails: string[] = [];
 	const visit = await db.transaction(async (tx) => {
 		const current = await lockVisit(tx, visitId);
@@ -486,7 +494,10 @@ export async function cancelVisit(
 			.set({
 				status: 'cancelled',
 				sequence: current.sequence + 1,
-				cancelledAt: new Date(),
+				tokenExpiresAt: new Date(
+					Math.max(current.tokenExpiresAt.getTime(), now.getTime() + CANCELLED_LINK_MS)
+				),
+				cancelledAt: now,
 				cancelledBy: input.by,
 				cancelReason: input.reason
 			})
@@ -496,7 +507,7 @@ export async function cancelVisit(
 			.update(leads)
 			.set({
 				stage: sql`case when ${leads.stage} = 'visit_booked' then 'contacted'::lead_stage else ${leads.stage} end`,
-				lastTouchAt: new Date(),
+				lastTouchAt: now,
 				version: sql`${leads.version} + 1`
 			})
 			.where(eq(leads.id, row.leadId));
@@ -518,16 +529,15 @@ export async function cancelVisit(
 
 // ---------------------------------------------------------------------------------------------
 // Reminders: one job per visit SEQUENCE; a job for an older sequence finds it stale and stops.
+// When it goes out (a day before, three hours before, or not at all) is reminderPlan's choice.
 
-export const REMINDER_LEAD_MS = 24 * 3_600_000;
-
-async function scheduleReminder(visit: SiteVisit): Promise<void> {
-	const startAfter = new Date(visit.startsAt.getTime() - REMINDER_LEAD_MS);
-	if (startAfter.getTime() <= Date.now()) return; // booked less than a day ahead: the invitation is the reminder
+async function scheduleReminder(visit: SiteVisit, now: Date): Promise<void> {
+	const plan = reminderPlan(visit.startsAt, now);
+	if (!plan) return; // the visit is only hours away: the invitation just sent stands in
 	await enqueue(
 		'visit.reminder',
 		{ visitId: visit.id, sequence: visit.sequence },
-		{ startAfter, singletonKey: `visit-reminder:${visit.id}:${visit.sequence}` }
+		{ startAfter: plan.at, singletonKey: `visit-reminder:${visit.id}:${visit.sequence}` }
 	);
 }
 
@@ -542,7 +552,8 @@ export async function sendVisitReminder(
 	}
 	const prefix = `visit:${visit.id}:${visit.sequence}:reminder:`;
 	await db.transaction(async (tx) => {
-		await writeVisitMails(tx, await partyFor(tx, visit), 'reminder' satisfies VisitMailKind, null);
+		const party = await partyFor(tx, visit);
+		await writeVisitMails(tx, party, 'reminder' satisfies VisitMailKind, null, now);
 	});
 	// Written once per sequence (dedupe keys); dispatch whatever of it is still unsent.
 	const unsent = await db
@@ -562,10 +573,20 @@ defineJob<{ visitId: string; sequence: number }>('visit.reminder', async (data) 
 
 export async function visitByToken(token: string, now = new Date()) {
 	if (!token || token.length > 64) return null;
+	const hash = sha256(token);
+	const laterLink = db
+		.select({ visitId: siteVisitLinks.visitId })
+		.from(siteVisitLinks)
+		.where(eq(siteVisitLinks.tokenHash, hash));
 	const [visit] = await db
 		.select()
 		.from(siteVisits)
-		.where(and(eq(siteVisits.tokenHash, sha256(token)), gt(siteVisits.tokenExpiresAt, now)));
+		.where(
+			and(
+				or(eq(siteVisits.tokenHash, hash), inArray(siteVisits.id, laterLink)),
+				gt(siteVisits.tokenExpiresAt, now)
+			)
+		);
 	if (!visit) return null;
 	return partyFor(db, visit);
 }

@@ -20,6 +20,7 @@ export const load: PageServerLoad = async ({ params }) => {
 		address: party.address,
 		salesperson: party.salesperson.name,
 		status: visit.status,
+		cancelledBy: visit.status === 'cancelled' ? (visit.cancelledBy ?? 'staff') : null,
 		confirmed: visit.confirmedAt !== null,
 		changeRequested: visit.changeRequest,
 		note: visit.noteForHomeowner
