@@ -7,10 +7,16 @@ import { db } from './db';
 import { estimatingSettings, laborRates, priceListItems, pumpModels } from './db/schema';
 import {
 	itemsToCsv,
-	previewCsv,
+	laborToCsv,
+	previewPriceList,
+	pumpsToCsv,
 	toCatalogItem,
+	withLabor,
 	type CsvPreview,
-	type ItemRecord
+	type ItemRecord,
+	type LaborRecord,
+	type PriceListKind,
+	type PumpRecord
 } from './pricelist-csv';
 
 type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
@@ -81,23 +87,110 @@ export async function upsertItems(items: ItemRecord[], tx: Tx | typeof db = db) 
 	}
 }
 
+export async function listPumps(): Promise<PumpRecord[]> {
+	const rows = await db
+		.select()
+		.from(pumpModels)
+		.where(eq(pumpModels.active, true))
+		.orderBy(asc(pumpModels.watts), asc(pumpModels.id));
+	return rows.map(({ id, name, watts, priceCents, costCents, curve }) => ({
+		id,
+		name,
+		watts,
+		priceCents,
+		costCents,
+		curve
+	}));
+}
+
+export async function listLaborRates() {
+	const rows = await db.select().from(laborRates).orderBy(asc(laborRates.id));
+	return rows.map(({ id, name, costPerHourCents, pricePerHourCents }) => ({
+		id,
+		name,
+		costPerHourCents,
+		pricePerHourCents
+	}));
+}
+
+async function upsertPumps(pumps: readonly PumpRecord[], tx: Tx) {
+	for (const pump of pumps) {
+		const values = { ...pump, active: true };
+		await tx
+			.insert(pumpModels)
+			.values(values)
+			.onConflictDoUpdate({ target: pumpModels.id, set: values });
+	}
+}
+
+/** Rates by id; task hours and the default rate into the engine's settings, in one row lock. */
+async function writeLabor(records: readonly LaborRecord[], tx: Tx) {
+	for (const r of records) {
+		if (r.kind !== 'rate') continue;
+		await tx
+			.insert(laborRates)
+			.values(r.rate)
+			.onConflictDoUpdate({ target: laborRates.id, set: r.rate });
+	}
+	if (!records.some((r) => r.kind === 'task' || r.isDefault)) return;
+	await tx.insert(estimatingSettings).values({ id: 1 }).onConflictDoNothing();
+	const [row] = await tx
+		.select()
+		.from(estimatingSettings)
+		.where(eq(estimatingSettings.id, 1))
+		.for('update');
+	const engine = withLabor(row.engine, records);
+	await tx.update(estimatingSettings).set({ engine }).where(eq(estimatingSettings.id, 1));
+}
+
 export interface ImportResult {
 	preview: CsvPreview;
 	written: number;
 }
 
 /** Writes only when every row is good; otherwise nothing, and the preview says why. */
-export async function importCsv(text: string): Promise<ImportResult> {
-	const preview = previewCsv(text);
-	if (!preview.ok) return { preview, written: 0 };
-	const items = preview.rows.map((r) => r.item!);
-	await db.transaction((tx) => upsertItems(items, tx));
-	return { preview, written: items.length };
+export async function importPriceList(
+	text: string,
+	choice: PriceListKind | 'auto' = 'auto'
+): Promise<ImportResult> {
+	const preview = previewPriceList(text, choice);
+	if (!preview.ok || preview.list === null) return { preview, written: 0 };
+	await db.transaction(async (tx) => {
+		if (preview.list === 'items') {
+			await upsertItems(
+				preview.rows.map((r) => r.item!),
+				tx
+			);
+		}
+		if (preview.list === 'pumps') {
+			await upsertPumps(
+				preview.rows.map((r) => r.pump!),
+				tx
+			);
+		}
+		if (preview.list === 'labor') {
+			await writeLabor(
+				preview.rows.map((r) => r.labor!),
+				tx
+			);
+		}
+	});
+	return { preview, written: preview.rows.length };
 }
 
-export async function exportCsv(): Promise<string> {
+/** Import with the list told by the file's header row. */
+export const importCsv = (text: string) => importPriceList(text, 'auto');
+
+export async function exportPriceList(list: PriceListKind = 'items'): Promise<string> {
+	if (list === 'pumps') return pumpsToCsv(await listPumps());
+	if (list === 'labor') {
+		const [rates, config] = await Promise.all([listLaborRates(), estimatingConfig()]);
+		return laborToCsv(rates, config.engine);
+	}
 	return itemsToCsv(await listItems());
 }
+
+export const exportCsv = () => exportPriceList('items');
 
 export async function removeItem(sku: string) {
 	await db.update(priceListItems).set({ active: false }).where(eq(priceListItems.sku, sku));

@@ -1,45 +1,55 @@
 import { fail } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/access';
-import { importCsv } from '$lib/server/pricelist';
-import { csvTextSchema, previewCsv } from '$lib/server/pricelist-csv';
+import { importPriceList } from '$lib/server/pricelist';
+import {
+	csvTextSchema,
+	LABOR_TASKS,
+	listChoiceSchema,
+	previewPriceList
+} from '$lib/server/pricelist-csv';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
 	requireRole(event, 'owner');
-	return {};
+	return { tasks: LABOR_TASKS.map(({ id, unit }) => ({ id, unit })) };
 };
 
-async function csvFrom(request: Request) {
+async function upload(request: Request) {
 	const data = await request.formData();
 	const file = data.get('file');
 	const text =
 		file instanceof File && file.size > 0 ? await file.text() : String(data.get('csv') ?? '');
-	return csvTextSchema
+	const csv = csvTextSchema
 		.refine((t) => t.trim() !== '', 'Choose a file or paste the CSV')
 		.safeParse(text);
+	const list = listChoiceSchema.safeParse(String(data.get('list') || 'auto'));
+	const values = { csv: csv.success ? csv.data : '', list: list.success ? list.data : 'auto' };
+	if (!list.success) return { ok: false, values, message: list.error.issues[0].message } as const;
+	if (!csv.success) return { ok: false, values, message: csv.error.issues[0].message } as const;
+	return { ok: true, values, csv: csv.data, list: list.data } as const;
 }
 
 export const actions: Actions = {
 	/** Reads the file and shows every row with its errors; nothing is written. */
 	preview: async (event) => {
 		requireRole(event, 'owner');
-		const text = await csvFrom(event.request);
-		if (!text.success) return fail(400, { message: text.error.issues[0].message });
-		return { preview: previewCsv(text.data), csv: text.data };
+		const input = await upload(event.request);
+		if (!input.ok) return fail(400, { ...input.values, message: input.message });
+		return { ...input.values, preview: previewPriceList(input.csv, input.list) };
 	},
 	/** Writes every row, or none when any row is bad. */
 	commit: async (event) => {
 		requireRole(event, 'owner');
-		const text = await csvFrom(event.request);
-		if (!text.success) return fail(400, { message: text.error.issues[0].message });
-		const result = await importCsv(text.data);
+		const input = await upload(event.request);
+		if (!input.ok) return fail(400, { ...input.values, message: input.message });
+		const result = await importPriceList(input.csv, input.list);
 		if (!result.written) {
 			return fail(400, {
+				...input.values,
 				preview: result.preview,
-				csv: text.data,
 				message: 'Nothing was written: fix the rows marked below'
 			});
 		}
-		return { written: result.written };
+		return { written: result.written, writtenList: result.preview.list };
 	}
 };

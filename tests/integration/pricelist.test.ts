@@ -1,0 +1,193 @@
+// The price-list CSV import and export for all three lists (items, pumps, labor) against the real
+// database: good files are written whole, a file with any bad row writes nothing, an export
+// imports back unchanged, and only the owner can import (sales may export).
+import { eq } from 'drizzle-orm';
+import { beforeEach, describe, expect, it } from 'vitest';
+import { db } from '$lib/server/db';
+import { estimatingSettings, laborRates, priceListItems, pumpModels } from '$lib/server/db/schema';
+import { estimate as runEngine, demoDesign } from '$lib/estimating';
+import { exportPriceList, importPriceList, loadCatalog } from '$lib/server/pricelist';
+import { actions } from '../../src/routes/office/price-list/import/+page.server';
+import { GET as exportRoute } from '../../src/routes/office/price-list/export/+server';
+import { resetDatabase } from '../support/database';
+import { makeUser, seedFirm } from './fixtures';
+import { seedCatalog } from './estimates-fixtures';
+
+beforeEach(async () => {
+	await resetDatabase();
+	await seedFirm();
+	await seedCatalog();
+});
+
+const PUMPS = 'pump_id,name,watts,price,cost,curve_gph_ft';
+const LABOR = 'kind,labor_id,name,unit,hours,cost_per_hour,price_per_hour,default_rate';
+
+async function snapshot() {
+	const [items, pumps, rates, settings] = await Promise.all([
+		db.select().from(priceListItems).orderBy(priceListItems.sku),
+		db.select().from(pumpModels).orderBy(pumpModels.id),
+		db.select().from(laborRates).orderBy(laborRates.id),
+		db.select().from(estimatingSettings)
+	]);
+	return { items, pumps, rates, settings };
+}
+
+function laborHoursFor(catalog: unknown, task: RegExp) {
+	const result = runEngine(demoDesign(), catalog);
+	if (!result.ok) throw new Error(JSON.stringify(result.errors));
+	return result.labor.tasks.find((t) => task.test(t.task))?.hours;
+}
+
+describe('pump models', () => {
+	it('writes new and changed pumps with their curves, and the engine can choose them', async () => {
+		const csv = [
+			PUMPS,
+			'pump-q700,"Quiet pump Q-700, 3 m cord",60,199.00,,0:9;350:7;700:0',
+			'pump-s900,Submersible pump S-900,90,250.50,131.00,0:12.5;600:8;1100:0'
+		].join('\r\n');
+		const result = await importPriceList(csv, 'pumps');
+		expect(result.preview.headerErrors).toEqual([]);
+		expect(result.written).toBe(2);
+		const [q700] = await db.select().from(pumpModels).where(eq(pumpModels.id, 'pump-q700'));
+		expect(q700).toMatchObject({
+			name: 'Quiet pump Q-700, 3 m cord',
+			watts: 60,
+			priceCents: 19900,
+			costCents: null,
+			active: true,
+			curve: [
+				{ flowGph: 0, headFt: 9 },
+				{ flowGph: 350, headFt: 7 },
+				{ flowGph: 700, headFt: 0 }
+			]
+		});
+		const catalog = await loadCatalog();
+		expect(catalog.pumps!.find((p) => p.id === 'pump-s900')).toMatchObject({
+			priceCents: 25050,
+			costCents: 13100,
+			watts: 90
+		});
+		expect(catalog.pumps).toHaveLength(5);
+	});
+
+	it('writes nothing when one row is wrong, and says which row and why', async () => {
+		const before = await snapshot();
+		const csv = [
+			PUMPS,
+			'pump-q700,Quiet pump,60,199.00,,0:9;350:7;700:0',
+			'pump-s900,Submersible pump S-900,90,250.50,131.00,0:12;600:13;1100:0'
+		].join('\n');
+		const result = await importPriceList(csv, 'auto');
+		expect(result.written).toBe(0);
+		expect(result.preview.list).toBe('pumps');
+		expect(result.preview.rows.map((r) => [r.line, r.errors])).toEqual([
+			[2, []],
+			[3, ['curve_gph_ft: point 2 “600:13”: head must not be higher than the point before']]
+		]);
+		expect(await snapshot()).toEqual(before);
+	});
+});
+
+describe('labor rates and task hours', () => {
+	it('writes rates, the default rate and task hours, keeping the other settings', async () => {
+		const before = await snapshot();
+		const csv = [
+			LABOR,
+			'rate,installer,Installer,,,40.00,90.00,no',
+			'rate,mason,Stone mason,,,48.00,120.00,yes',
+			'task,basin,Dig and set the basin,basin,9.5,,,',
+			'task,stone-team-lift,Team lift,stone,1,,,'
+		].join('\n');
+		expect(laborHoursFor(await loadCatalog(), /^Dig and set basin/)).toBe(6);
+		const result = await importPriceList(csv);
+		expect(result.written).toBe(4);
+		const rates = await db.select().from(laborRates).orderBy(laborRates.id);
+		expect(rates.map((r) => [r.id, r.costPerHourCents, r.pricePerHourCents])).toEqual([
+			['installer', 4000, 9000],
+			['mason', 4800, 12000]
+		]);
+		const catalog = await loadCatalog();
+		const engine = before.settings[0].engine as Record<string, unknown>;
+		expect(catalog.settings).toMatchObject({
+			markupPercent: engine.markupPercent,
+			taxRatePercent: engine.taxRatePercent,
+			labor: { rateId: 'mason', basinHours: 9.5, stoneHours: { 'team-lift': 1 } }
+		});
+		// The estimate a salesperson builds now uses the new hours and the mason's rate.
+		expect(laborHoursFor(catalog, /^Dig and set basin/)).toBe(9.5);
+		const priced = runEngine(demoDesign(), catalog);
+		if (!priced.ok) throw new Error('the demo design should price');
+		const { laborCents, laborHours } = priced.pricing.base;
+		expect(Math.abs(laborCents - laborHours * 12000)).toBeLessThanOrEqual(0.5);
+	});
+
+	it('writes nothing when one row is wrong', async () => {
+		const before = await snapshot();
+		const csv = [
+			LABOR,
+			'rate,mason,Stone mason,,,48.00,120.00,yes',
+			'task,basin,Dig and set the basin,basin,-2,,,'
+		].join('\n');
+		const result = await importPriceList(csv, 'labor');
+		expect(result.written).toBe(0);
+		expect(result.preview.rows[1].errors).toEqual(['hours must not be negative']);
+		expect(await snapshot()).toEqual(before);
+	});
+});
+
+describe('export and import again', () => {
+	it('gives back the same price list for each of the three lists', async () => {
+		for (const list of ['items', 'pumps', 'labor'] as const) {
+			const before = await snapshot();
+			const csv = await exportPriceList(list);
+			const result = await importPriceList(csv);
+			expect(result.preview.list).toBe(list);
+			expect(result.preview.ok).toBe(true);
+			expect(result.written).toBeGreaterThan(0);
+			expect(await exportPriceList(list)).toBe(csv);
+			const after = await snapshot();
+			const strip = (rows: Record<string, unknown>[]) =>
+				rows.map(({ updatedAt: _u, createdAt: _c, ...rest }) => rest);
+			expect(strip(after.items)).toEqual(strip(before.items));
+			expect(strip(after.pumps)).toEqual(strip(before.pumps));
+			expect(strip(after.rates)).toEqual(strip(before.rates));
+		}
+		// The labor round trip writes the engine's task hours out in full; the engine reads the same.
+		const catalog = await loadCatalog();
+		expect(laborHoursFor(catalog, /^Dig and set basin/)).toBe(6);
+	});
+});
+
+describe('who may import', () => {
+	const post = (user: { id: string; role: string }, action: 'preview' | 'commit', csv: string) => {
+		const body = new FormData();
+		body.append('csv', csv);
+		body.append('list', 'auto');
+		const url = `http://127.0.0.1/office/price-list/import?/${action}`;
+		return actions[action]({
+			locals: { user: { ...user, email: `${user.role}@test.example`, name: user.role } },
+			url: new URL(url),
+			request: new Request(url, { method: 'POST', body })
+		} as never);
+	};
+
+	it('lets the owner import through the page and refuses sales, who may still export', async () => {
+		const owner = await makeUser('owner');
+		const sales = await makeUser('sales');
+		const csv = `${PUMPS}\npump-q700,Quiet pump,60,199.00,,0:9;700:0\n`;
+		await expect(post(sales, 'commit', csv)).rejects.toMatchObject({ status: 403 });
+		await expect(post(sales, 'preview', csv)).rejects.toMatchObject({ status: 403 });
+		expect(await db.select().from(pumpModels).where(eq(pumpModels.id, 'pump-q700'))).toEqual([]);
+		expect(await post(owner, 'commit', csv)).toEqual({ written: 1, writtenList: 'pumps' });
+		expect(await db.select().from(pumpModels).where(eq(pumpModels.id, 'pump-q700'))).toHaveLength(
+			1
+		);
+		const url = new URL('http://127.0.0.1/office/price-list/export?list=pumps');
+		const res = await exportRoute({
+			locals: { user: { ...sales, name: 'sales' } },
+			url
+		} as never);
+		expect(res.headers.get('content-disposition')).toContain('price-list-pumps.csv');
+		expect(await res.text()).toContain('pump-q700,Quiet pump,60,199.00,,0:9;700:0\r\n');
+	});
+});
