@@ -16,8 +16,8 @@ import postgres from 'postgres';
 import { appEnv, databaseUrl } from '../lib/config';
 import { buildIfNeeded } from '../lib/build';
 import { DEMO_STAFF } from '../seed/demo-data';
-import { parseLeadQuery, STAGES } from '../../src/lib/schema/leads';
-import { listSql } from '../../src/lib/server/leads-sql';
+import { parseLeadQuery } from '../../src/lib/schema/leads';
+import { assembleList, listSql } from '../../src/lib/server/leads-sql';
 
 const url = process.env.DATABASE_URL ?? databaseUrl('dev');
 const POOL = 10;
@@ -47,18 +47,11 @@ if (process.argv[2] === '--baseline') {
 			return res.end(JSON.stringify({ error: parsed.error.message }));
 		}
 		const s = listSql(parsed.data, { userId });
-		const [rows, facetRows] = await Promise.all([
-			sql.unsafe(s.rows.text, s.rows.params as never[]),
-			sql.unsafe(s.facets.text, s.facets.params as never[])
-		]);
-		const facets = Object.fromEntries(STAGES.map((st) => [st, 0])) as Record<string, number>;
-		for (const r of facetRows) facets[r.stage] = r.n;
-		const counted = parsed.data.stage.length ? parsed.data.stage : STAGES;
-		const total = counted.reduce((n: number, st: string) => n + facets[st], 0);
+		// Prepared, as the app's listLeads() does.
+		const rows = await sql.unsafe(s.text, s.params as never[], { prepare: true });
+		const list = assembleList(parsed.data, rows);
 		res.writeHead(200, { 'content-type': 'application/json' });
-		res.end(
-			JSON.stringify({ rows, total, page: parsed.data.page, size: parsed.data.size, facets })
-		);
+		res.end(JSON.stringify(list));
 	}).listen(BASE_PORT, '127.0.0.1', () => console.log('baseline ready'));
 } else {
 	await main();
@@ -161,22 +154,25 @@ async function main() {
 		for (const c of CASES) {
 			const q = parseLeadQuery(new URLSearchParams(c.search));
 			const s = listSql(q.data!, { userId: user.id });
-			for (const [label, stmt] of [
-				['rows', s.rows],
-				['facets', s.facets]
-			] as const) {
-				const plan = await sql.unsafe(
-					`explain (analyze, buffers off) ${stmt.text}`,
-					stmt.params as never[]
-				);
-				const text = plan.map((r) => r['QUERY PLAN']).join('\n');
-				console.log(
-					`\n— ${c.name}, ${label} (${/Index|Bitmap/.test(text) ? 'uses an index' : 'NO INDEX'}):\n${text}`
-				);
-			}
+			const plan = await sql.unsafe(
+				`explain (analyze, buffers off) ${s.text}`,
+				s.params as never[]
+			);
+			const text = plan.map((r) => r['QUERY PLAN']).join('\n');
+			console.log(
+				`\n— ${c.name} (${/Index|Bitmap/.test(text) ? 'uses an index' : 'NO INDEX'}; ${indexesOf(text)}):\n${text}`
+			);
 		}
 	} finally {
 		stop();
 		await sql.end();
 	}
+}
+
+/** The indexes a plan reads, and its sequential scans (of small tables only, if all is well). */
+function indexesOf(plan: string): string {
+	const names = (re: RegExp) => [...new Set([...plan.matchAll(re)].map((m) => m[1]))].join(', ');
+	const used = names(/(?: using | Index Scan on )(\w+)/g);
+	const seq = names(/Seq Scan on (\w+)/g);
+	return `indexes: ${used || 'none'}${seq ? `; sequential scans: ${seq}` : ''}`;
 }

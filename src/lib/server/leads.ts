@@ -4,7 +4,15 @@
 // who changed it and when, so two people never silently overwrite each other.
 import { and, asc, eq, inArray, isNull, sql } from 'drizzle-orm';
 import { STAGES, type LeadQuery, type Stage } from '$lib/schema/leads';
-import { listSql, type ListContext } from './leads-sql';
+import {
+	assembleList,
+	exportSql,
+	leadRow,
+	listSql,
+	type LeadList,
+	type LeadRow,
+	type ListContext
+} from './leads-sql';
 import { formatWhen } from '$lib/components/leads/format';
 import { client, db } from './db';
 import { activities, contacts, leads, photos, properties, users, type Lead } from './db/schema';
@@ -15,67 +23,27 @@ type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
 
 // --- the list ----------------------------------------------------------------------------------
 
-export { listSql, searchTerms, type ListContext } from './leads-sql';
-
-export interface LeadRow {
-	id: string;
-	number: number;
-	createdAt: string;
-	stage: Stage;
-	services: string[];
-	budget: string;
-	priority: string;
-	source: string;
-	firstReplyAt: string | null;
-	lastTouchAt: string;
-	closeReason: string | null;
-	assigneeId: string | null;
-	assigneeName: string | null;
-	name: string;
-	email: string | null;
-	phone: string | null;
-	town: string | null;
-}
-
-export interface LeadList {
-	rows: LeadRow[];
-	total: number;
-	page: number;
-	size: number;
-	facets: Record<Stage, number>;
-}
+export {
+	exportSql,
+	listSql,
+	searchTerms,
+	type LeadList,
+	type LeadRow,
+	type ListContext
+} from './leads-sql';
 
 type Param = Parameters<typeof client.unsafe>[1];
 
 export async function listLeads(q: LeadQuery, ctx: ListContext): Promise<LeadList> {
 	const s = listSql(q, ctx);
-	const [rows, facetRows] = await Promise.all([
-		client.unsafe(s.rows.text, s.rows.params as Param),
-		client.unsafe(s.facets.text, s.facets.params as Param)
-	]);
-	const facets = Object.fromEntries(STAGES.map((st) => [st, 0])) as Record<Stage, number>;
-	for (const r of facetRows) facets[r.stage as Stage] = r.n as number;
-	const counted: readonly Stage[] = q.stage.length ? q.stage : STAGES;
-	const total = counted.reduce<number>((sum, st) => sum + facets[st], 0);
-	return {
-		rows: rows.map((r) => ({
-			...(r as unknown as LeadRow),
-			createdAt: new Date(r.createdAt).toISOString(),
-			lastTouchAt: new Date(r.lastTouchAt).toISOString(),
-			firstReplyAt: r.firstReplyAt ? new Date(r.firstReplyAt).toISOString() : null
-		})),
-		total,
-		page: q.page,
-		size: q.size,
-		facets
-	};
+	return assembleList(q, await client.unsafe(s.text, s.params as Param, { prepare: true }));
 }
 
 /** Every row of a filtered view (no paging), in batches, for the CSV export. */
 export async function* allLeadRows(q: LeadQuery, ctx: ListContext): AsyncGenerator<LeadRow[]> {
-	const s = listSql(q, ctx, false);
-	const cursor = client.unsafe(s.rows.text, s.rows.params as Param).cursor(500);
-	for await (const batch of cursor) yield batch as unknown as LeadRow[];
+	const s = exportSql(q, ctx);
+	const cursor = client.unsafe(s.text, s.params as Param).cursor(500);
+	for await (const batch of cursor) yield batch.map(leadRow);
 }
 
 // --- one lead ----------------------------------------------------------------------------------
