@@ -68,6 +68,7 @@ const ACTIONS: Record<string, Expect> = {
 	'/office/availability?/removeTimeOff': { anonymous: 303, owner: 400, sales: 400, crew: 403 },
 	'/office/visits/[id]?/notes': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	'/office/visits/[id]?/photo': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/visits/[id]?/deletePhoto': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	// Jobs (issue 9): an unknown job is 404 before anything is written; office-only actions 403 crew.
 	// Jobs: an empty form fails validation, and the page then renders for an unknown job or token,
 	// so a plain (no-JavaScript) post answers the load's 404.

@@ -1,5 +1,6 @@
 // Photos taken at a site visit: the intake pipeline, both sizes in the bucket, the row tied to
-// the visit and its lead with context 'visit'; a file that is not a photo stores nothing.
+// the visit and its lead with context 'visit'; a file that is not a photo stores nothing; a delete
+// removes the row and both objects, for staff only, and only the visit's own photo.
 import sharp from 'sharp';
 import { eq } from 'drizzle-orm';
 import { beforeEach, describe, expect, it } from 'vitest';
@@ -7,7 +8,7 @@ import { db } from '$lib/server/db';
 import { photos } from '$lib/server/db/schema';
 import { PhotoError } from '$lib/server/images';
 import { getObject } from '$lib/server/storage';
-import { storeVisitPhoto, visitPhotoLinks } from '$lib/server/visit-photos';
+import { agendaThumbs, storeVisitPhoto, visitPhotoLinks } from '$lib/server/visit-photos';
 import { bookVisit } from '$lib/server/visits';
 import { zonedInstant } from '$lib/scheduling/zone';
 import { actions } from '../../src/routes/office/visits/[id]/+page.server';
@@ -101,5 +102,127 @@ describe('visit photos', () => {
 		expect(bad.data.message).toContain('“notes.txt” is not a JPEG, PNG or WebP photo');
 		const rows = await db.select().from(photos).where(eq(photos.visitId, visit.id));
 		expect(rows.map((r) => [r.context, r.originalName])).toEqual([['visit', 'edge.png']]);
+	});
+});
+
+describe('deleting a visit photo', () => {
+	const jpeg = () =>
+		sharp({ create: { width: 800, height: 600, channels: 3, background: '#5c6f7a' } })
+			.jpeg()
+			.toBuffer()
+			.then((b) => new Uint8Array(b));
+
+	const del = (
+		visitId: string,
+		photoId: string,
+		user: { id: string; email: string; name: string; role: string }
+	) => {
+		const body = new FormData();
+		body.append('photoId', photoId);
+		const url = `http://127.0.0.1/office/visits/${visitId}?/deletePhoto`;
+		return actions.deletePhoto({
+			params: { id: visitId },
+			locals: { user },
+			url: new URL(url),
+			request: new Request(url, { method: 'POST', body })
+		} as never);
+	};
+
+	const gone = (key: string) =>
+		getObject(key).then(
+			() => false,
+			(e: { name?: string }) => e.name === 'NoSuchKey'
+		);
+
+	it('removes the row and both objects; the other photo stays', async () => {
+		const { sales, visit } = await bookedVisit();
+		const keep = (await storeVisitPhoto(visit.id, 'keep.jpg', await jpeg(), sales.id))!;
+		const drop = (await storeVisitPhoto(visit.id, 'drop.jpg', await jpeg(), sales.id))!;
+		expect(await del(visit.id, drop.id, sales)).toEqual({ form: 'deletePhoto', deleted: true });
+		expect((await visitPhotoLinks(visit.id)).map((p) => p.originalName)).toEqual(['keep.jpg']);
+		expect(await gone(drop.displayKey)).toBe(true);
+		expect(await gone(drop.thumbKey)).toBe(true);
+		expect(await gone(keep.thumbKey)).toBe(false);
+		// Deleting it again says it is gone.
+		const again = (await del(visit.id, drop.id, sales)) as { status: number; data: object };
+		expect(again.status).toBe(404);
+		expect(again.data).toEqual({ form: 'deletePhoto', message: 'That photo is already gone.' });
+	});
+
+	it('keeps the photo when the bucket is out of reach, and says so', async () => {
+		const { sales, visit } = await bookedVisit();
+		const photo = (await storeVisitPhoto(visit.id, 'spot.jpg', await jpeg(), sales.id))!;
+		const endpoint = process.env.S3_ENDPOINT;
+		process.env.S3_ENDPOINT = 'http://127.0.0.1:9'; // nothing listens there
+		let result: { status: number; data: { message: string } };
+		try {
+			result = (await del(visit.id, photo.id, sales)) as typeof result;
+		} finally {
+			process.env.S3_ENDPOINT = endpoint;
+		}
+		expect(result.status).toBe(503);
+		expect(result.data.message).toContain('the photo is still here');
+		expect((await visitPhotoLinks(visit.id)).map((p) => p.id)).toEqual([photo.id]);
+		expect(await gone(photo.displayKey)).toBe(false);
+	});
+
+	it('refuses a crew lead, and a photo of another visit through this one', async () => {
+		const { sales, visit } = await bookedVisit();
+		const photo = (await storeVisitPhoto(visit.id, 'spot.jpg', await jpeg(), sales.id))!;
+		const crew = await makeUser('crew', 'rosa@test.example', 'Rosa Test');
+		await expect(del(visit.id, photo.id, crew)).rejects.toMatchObject({ status: 403 });
+		const other = await makeVisitLead();
+		const otherVisit = await bookVisit({
+			leadId: other.id,
+			salespersonId: sales.id,
+			startsAt: zonedInstant('2027-04-13', 10 * 60, 'America/Denver'),
+			noteForHomeowner: '',
+			actorId: sales.id
+		});
+		const wrong = (await del(otherVisit.id, photo.id, sales)) as { status: number };
+		expect(wrong.status).toBe(404);
+		await expect(del('no-such-visit', photo.id, sales)).rejects.toMatchObject({ status: 404 });
+		expect(await db.select().from(photos).where(eq(photos.id, photo.id))).toHaveLength(1);
+		expect(await gone(photo.thumbKey)).toBe(false);
+	});
+});
+
+describe('agenda thumbnails', () => {
+	it("gives each visit its lead's intake photos and its own visit photos, with links that open", async () => {
+		const { sales, lead, visit } = await bookedVisit();
+		const other = await makeVisitLead();
+		const otherVisit = await bookVisit({
+			leadId: other.id,
+			salespersonId: sales.id,
+			startsAt: zonedInstant('2027-04-13', 10 * 60, 'America/Denver'),
+			noteForHomeowner: '',
+			actorId: sales.id
+		});
+		const bytes = new Uint8Array(
+			await sharp({ create: { width: 640, height: 480, channels: 3, background: '#8c6a3a' } })
+				.jpeg()
+				.toBuffer()
+		);
+		const atVisit = (await storeVisitPhoto(visit.id, 'at-visit.jpg', bytes, sales.id))!;
+		// An intake photo of the first lead: the same pipeline's row, context 'intake'.
+		await db.insert(photos).values({
+			...atVisit,
+			id: 'intake-1',
+			visitId: null,
+			context: 'intake',
+			originalName: 'from-inquiry.jpg',
+			createdAt: new Date(Date.now() - 60_000)
+		});
+		const thumbs = await agendaThumbs([
+			{ id: visit.id, leadId: lead.id },
+			{ id: otherVisit.id, leadId: other.id }
+		]);
+		expect(thumbs.get(visit.id)?.map((t) => [t.kind, t.name])).toEqual([
+			['intake', 'from-inquiry.jpg'],
+			['visit', 'at-visit.jpg']
+		]);
+		expect(thumbs.has(otherVisit.id)).toBe(false);
+		const res = await fetch(thumbs.get(visit.id)![1].thumbUrl);
+		expect([res.status, res.headers.get('content-type')]).toEqual([200, 'image/webp']);
 	});
 });

@@ -1,12 +1,12 @@
 // Photos taken at a site visit (issue 6, visit notes): the intake photo pipeline (processPhoto:
 // type from the bytes, pixel limit, orientation applied, metadata dropped, two sizes), stored in
 // the private bucket and in `photos` with the visit, the visit's lead and context 'visit'.
-import { and, asc, eq } from 'drizzle-orm';
+import { and, asc, eq, inArray, or } from 'drizzle-orm';
 import { db } from './db';
 import { photos, siteVisits } from './db/schema';
 import { newId } from './crypto';
 import { processPhoto } from './images';
-import { putObject, randomKey, signedUrl } from './storage';
+import { deleteObjects, putObject, randomKey, signedUrl, StorageUnavailableError } from './storage';
 
 export type VisitPhoto = typeof photos.$inferSelect;
 
@@ -67,4 +67,88 @@ export async function visitPhotoLinks(visitId: string) {
 			displayUrl: await signedUrl(p.displayKey)
 		}))
 	);
+}
+
+/**
+ * Deletes one of the visit's photos: its row and both objects. The objects go first, inside the
+ * row's transaction, so a bucket out of reach leaves the photo as it was (StorageUnavailableError).
+ * Returns false when the visit has no such photo.
+ */
+export async function deleteVisitPhoto(visitId: string, photoId: string): Promise<boolean> {
+	return db.transaction(async (tx) => {
+		const [row] = await tx
+			.delete(photos)
+			.where(and(eq(photos.id, photoId), eq(photos.visitId, visitId), eq(photos.context, 'visit')))
+			.returning({ displayKey: photos.displayKey, thumbKey: photos.thumbKey });
+		if (!row) return false;
+		try {
+			await deleteObjects([row.thumbKey, row.displayKey]);
+		} catch (error) {
+			throw new StorageUnavailableError(error);
+		}
+		return true;
+	});
+}
+
+export interface Thumb {
+	id: string;
+	kind: 'intake' | 'visit';
+	name: string;
+	thumbUrl: string;
+	displayUrl: string;
+}
+
+/** Short-lived links to the thumbnails an agenda card shows. */
+const AGENDA_LINK_SECONDS = 300;
+
+/**
+ * For each visit, the photos its lead came with (intake) and those taken at the visit, oldest
+ * first, with short-lived signed links. Keyed by visit id; a visit without photos has no entry.
+ */
+export async function agendaThumbs(
+	visits: { id: string; leadId: string }[]
+): Promise<Map<string, Thumb[]>> {
+	const byVisit = new Map<string, Thumb[]>();
+	if (visits.length === 0) return byVisit;
+	const rows = await db
+		.select()
+		.from(photos)
+		.where(
+			or(
+				and(
+					inArray(
+						photos.leadId,
+						visits.map((v) => v.leadId)
+					),
+					eq(photos.context, 'intake')
+				),
+				and(
+					inArray(
+						photos.visitId,
+						visits.map((v) => v.id)
+					),
+					eq(photos.context, 'visit')
+				)
+			)
+		)
+		.orderBy(asc(photos.createdAt));
+	for (const visit of visits) {
+		const mine = rows.filter((p) =>
+			p.context === 'visit' ? p.visitId === visit.id : p.leadId === visit.leadId
+		);
+		if (mine.length === 0) continue;
+		byVisit.set(
+			visit.id,
+			await Promise.all(
+				mine.map(async (p) => ({
+					id: p.id,
+					kind: p.context === 'visit' ? ('visit' as const) : ('intake' as const),
+					name: p.originalName,
+					thumbUrl: await signedUrl(p.thumbKey, AGENDA_LINK_SECONDS),
+					displayUrl: await signedUrl(p.displayKey, AGENDA_LINK_SECONDS)
+				}))
+			)
+		);
+	}
+	return byVisit;
 }

@@ -37,6 +37,7 @@ import { dispatchMail, writeMail } from './outbox';
 import { defineJob, enqueue } from './queue';
 import { firmSettings } from './settings';
 import { writeVisitMails, type VisitMailKind, type VisitParty } from './visit-mail';
+import { visitPhotoLinks } from './visit-photos';
 
 type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
 
@@ -765,6 +766,28 @@ export async function visitsOfLead(leadId: string) {
 		.innerJoin(users, eq(users.id, siteVisits.salespersonId))
 		.where(eq(siteVisits.leadId, leadId))
 		.orderBy(sql`${siteVisits.startsAt} desc`);
+}
+
+/**
+ * What the lead page shows of its visits' notes: every visit with notes or photos, and a booked
+ * one still waiting for them; newest first, each with its photos' short-lived links.
+ */
+export async function visitNotesOfLead(leadId: string) {
+	const visits = await visitsOfLead(leadId);
+	const withPhotos = await Promise.all(
+		visits.map(async (v) => ({ ...v, photos: await visitPhotoLinks(v.id) }))
+	);
+	return withPhotos
+		.filter((v) => v.notes !== null || v.photos.length > 0 || v.status === 'booked')
+		.map((v) => ({
+			id: v.id,
+			status: v.status,
+			startsAt: v.startsAt,
+			timeZone: v.timeZone,
+			salespersonName: v.salespersonName,
+			notes: v.notes as Partial<VisitNotes> | null,
+			photos: v.photos
+		}));
 }
 
 export async function saveNotes(

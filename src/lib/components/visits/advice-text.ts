@@ -8,3 +8,11 @@ export const VISIT_HELPS = [
 
 export const DIG_CAUTION =
 	'We never dig at a first visit. Before any digging, call 811 (or your local utility-locating service) and wait the waiting period they give for the lines to be marked.';
+
+/** For staff reading the site notes: electricity near water. */
+export const POWER_CAUTION =
+	'Pumps and lights near water need GFCI-protected outdoor circuits; mains wiring is for a licensed electrician, to the local electrical code.';
+
+/** For staff reading the site notes: buried lines before the dig. */
+export const LOCATE_CAUTION =
+	'No digging until the locate request is made (811 in the US, or the local utility-locating service), its waiting period has passed and the lines are marked; dig by hand near the marks.';

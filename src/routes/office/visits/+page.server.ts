@@ -1,5 +1,6 @@
 import { requireRole } from '$lib/server/access';
 import { addDays, isDate, zonedInstant } from '$lib/scheduling/zone';
+import { agendaThumbs } from '$lib/server/visit-photos';
 import { agenda, localDate, salespeople } from '$lib/server/visits';
 import type { PageServerLoad } from './$types';
 
@@ -19,5 +20,13 @@ export const load: PageServerLoad = async (event) => {
 		zonedInstant(addDays(day, days), 0, tz),
 		person
 	);
-	return { day, view, days, person, people: await salespeople(), visits };
+	const [people, thumbs] = await Promise.all([salespeople(), agendaThumbs(visits)]);
+	return {
+		day,
+		view,
+		days,
+		person,
+		people,
+		visits: visits.map((v) => ({ ...v, photos: thumbs.get(v.id) ?? [] }))
+	};
 };

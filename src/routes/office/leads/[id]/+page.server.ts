@@ -26,6 +26,7 @@ import {
 } from '$lib/server/leads';
 import { firmSettings } from '$lib/server/settings';
 import { signedUrl } from '$lib/server/storage';
+import { visitNotesOfLead } from '$lib/server/visits';
 import type { Actions, PageServerLoad } from './$types';
 
 /** Photo links live five minutes; the page asks for fresh ones when it reloads. */
@@ -35,11 +36,14 @@ export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'owner', 'sales');
 	const found = await getLead(event.params.id);
 	if (!found) error(404, 'No lead with that number');
-	const [staff, firm, photos] = await Promise.all([
+	// Photos taken at a visit are shown with that visit's notes, not among the inquiry's.
+	const inquiryPhotos = found.photos.filter((p) => p.context !== 'visit');
+	const [staff, firm, visitNotes, photos] = await Promise.all([
 		assignableStaff(),
 		firmSettings(),
+		visitNotesOfLead(found.lead.id),
 		Promise.all(
-			found.photos.map(async (p) => ({
+			inquiryPhotos.map(async (p) => ({
 				id: p.id,
 				width: p.width,
 				height: p.height,
@@ -58,6 +62,7 @@ export const load: PageServerLoad = async (event) => {
 		property: found.property,
 		updatedByName: found.updatedByName,
 		photos,
+		visitNotes,
 		timeline: found.timeline,
 		staff,
 		templates,

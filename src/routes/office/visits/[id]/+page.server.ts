@@ -5,7 +5,7 @@ import { requireRole } from '$lib/server/access';
 import type { SessionUser } from '$lib/server/auth';
 import { PhotoError } from '$lib/server/images';
 import { StorageUnavailableError } from '$lib/server/storage';
-import { storeVisitPhoto, visitPhotoLinks } from '$lib/server/visit-photos';
+import { deleteVisitPhoto, storeVisitPhoto, visitPhotoLinks } from '$lib/server/visit-photos';
 import { saveNotes, visitDetail } from '$lib/server/visits';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -72,5 +72,24 @@ export const actions: Actions = {
 			throw e;
 		}
 		return { form: 'photo', saved: true };
+	},
+	deletePhoto: async (event) => {
+		const user = requireRole(event, 'owner', 'sales');
+		await visitFor(user, event.params.id);
+		const photoId = String((await event.request.formData()).get('photoId') ?? '');
+		try {
+			if (!photoId || !(await deleteVisitPhoto(event.params.id, photoId))) {
+				return fail(404, { form: 'deletePhoto', message: 'That photo is already gone.' });
+			}
+		} catch (e) {
+			if (e instanceof StorageUnavailableError) {
+				return fail(503, {
+					form: 'deletePhoto',
+					message: 'Photo storage is out of reach; the photo is still here. Try again shortly.'
+				});
+			}
+			throw e;
+		}
+		return { form: 'deletePhoto', deleted: true };
 	}
 };
