@@ -8,6 +8,7 @@ import { ensureDatabase } from './lib/postgres';
 import { runMigrations } from './lib/migrate';
 import { PortBusyError, startServices, stopOnSignals } from './lib/services';
 import { seedDemo } from './seed/index';
+import { startStandInControl } from './lib/standins';
 
 const c = serviceConfig('test');
 process.env.PG_FSYNC = 'off'; // throwaway test cluster: durability is not needed, speed is
@@ -19,7 +20,12 @@ try {
 	console.error(error instanceof PortBusyError ? error.message : error);
 	process.exit(1);
 }
-stopOnSignals(services.stop);
+const control = await startStandInControl(services.standIns);
+const stopAll = async () => {
+	await control.stop();
+	await services.stop();
+};
+stopOnSignals(stopAll);
 
 const base = appEnv('test');
 const e2eDatabase = `${c.pgDatabase}_e2e`;
@@ -36,6 +42,7 @@ const shared = {
 	TEST_SMTP_PORT: String(c.smtpPort),
 	TEST_MAIL_API: `http://127.0.0.1:${c.mailWebPort}/api`,
 	E2E_DATABASE_URL: e2eUrl,
+	TEST_STANDIN_CONTROL: control.url,
 	BUILD_DIR: process.env.BUILD_DIR ?? '.test-build'
 };
 
@@ -51,7 +58,10 @@ function run(
 	return new Promise((resolve) => child.on('exit', (code) => resolve(code === 0)));
 }
 
-const only = process.argv.slice(2);
+// `npm test -- e2e tests/e2e/x.spec.ts --no-deps`: step names select steps, the rest go to Playwright.
+const STEPS = ['unit', 'integration', 'e2e'];
+const only = process.argv.slice(2).filter((a) => STEPS.includes(a));
+const playwrightArgs = process.argv.slice(2).filter((a) => !STEPS.includes(a));
 const want = (step: string) => only.length === 0 || only.includes(step);
 const results: Record<string, boolean> = {};
 
@@ -74,7 +84,9 @@ if (want('integration')) {
 }
 if (want('e2e')) {
 	try {
-		buildIfNeeded(shared.BUILD_DIR, { ...shared, DATABASE_URL: e2eUrl }, true);
+		// E2E_REUSE_BUILD=1 keeps a build that is newer than every source (handy for one spec).
+		const force = process.env.E2E_REUSE_BUILD !== '1';
+		buildIfNeeded(shared.BUILD_DIR, { ...shared, DATABASE_URL: e2eUrl }, force);
 		results.site = await run(
 			'build-output tests of the public site',
 			'npx',
@@ -84,7 +96,7 @@ if (want('e2e')) {
 		results.e2e = await run(
 			'end-to-end tests (Playwright, production build)',
 			'npx',
-			['playwright', 'test'],
+			['playwright', 'test', ...playwrightArgs],
 			{ ...shared, DATABASE_URL: e2eUrl }
 		);
 	} catch (error) {
@@ -93,7 +105,7 @@ if (want('e2e')) {
 	}
 }
 
-await services.stop();
+await stopAll();
 const failed = Object.entries(results)
 	.filter(([, ok]) => !ok)
 	.map(([name]) => name);

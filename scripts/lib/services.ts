@@ -14,9 +14,39 @@ import { portInUse } from './ports';
 import { runMigrations } from './migrate';
 import { startMail, startS3, type StandIn } from './standins';
 
+/** A stand-in that the fault tests can stop and start again under the running app. */
+export interface RestartableStandIn {
+	name: string;
+	readonly running: boolean;
+	stop(): Promise<void>;
+	start(): Promise<void>;
+}
+
 export interface RunningServices {
 	stop(): Promise<void>;
 	pgDataDir: string;
+	standIns: Record<string, RestartableStandIn>;
+}
+
+async function restartable(
+	name: string,
+	make: () => Promise<StandIn>
+): Promise<RestartableStandIn> {
+	let current: StandIn | null = await make();
+	return {
+		name,
+		get running() {
+			return current !== null;
+		},
+		async stop() {
+			const was = current;
+			current = null;
+			await was?.stop();
+		},
+		async start() {
+			current ??= await make();
+		}
+	};
 }
 
 export class PortBusyError extends Error {}
@@ -53,9 +83,9 @@ export async function startServices(
 	if (opts.fresh) rmSync(c.dataDir, { recursive: true, force: true });
 	mkdirSync(c.dataDir, { recursive: true });
 
-	const started: StandIn[] = [];
+	const started: RestartableStandIn[] = [];
 	const stop = async () => {
-		for (const s of started.reverse()) await s.stop().catch(() => {});
+		for (const s of [...started].reverse()) await s.stop().catch(() => {});
 		stopCluster(pgDir);
 	};
 	try {
@@ -64,24 +94,32 @@ export async function startServices(
 		await ensureDatabase({ dataDir: pgDir, port: c.pgPort, database: c.pgDatabase });
 		await runMigrations(process.env.DATABASE_URL ?? databaseUrl(profile));
 		log(`PostgreSQL  127.0.0.1:${c.pgPort} (database ${c.pgDatabase}, data in ${pgDir})`);
-		started.push(await startS3({ port: c.s3Port, dataDir: c.dataDir, bucket: c.s3Bucket }));
+		started.push(
+			await restartable('s3', () =>
+				startS3({ port: c.s3Port, dataDir: c.dataDir, bucket: c.s3Bucket })
+			)
+		);
 		log(`S3 stand-in http://127.0.0.1:${c.s3Port} (bucket ${c.s3Bucket})`);
 		started.push(
-			await startMail({
-				smtpPort: c.smtpPort,
-				webPort: c.mailWebPort,
-				dataDir: profile === 'dev' ? c.dataDir : undefined
-			})
+			await restartable('mail', () =>
+				startMail({
+					smtpPort: c.smtpPort,
+					webPort: c.mailWebPort,
+					dataDir: profile === 'dev' ? c.dataDir : undefined
+				})
+			)
 		);
 		log(`SMTP        127.0.0.1:${c.smtpPort}, inbox http://127.0.0.1:${c.mailWebPort}`);
 		const env = appEnv(profile);
 		started.push(
-			await startPayStandIn({
-				port: c.payPort,
-				apiKey: env.PAYMENTS_SECRET_KEY,
-				webhookSecret: env.PAYMENTS_WEBHOOK_SECRET,
-				webhookUrl: `${env.ORIGIN}/api/payments/webhook`
-			})
+			await restartable('payments', () =>
+				startPayStandIn({
+					port: c.payPort,
+					apiKey: env.PAYMENTS_SECRET_KEY,
+					webhookSecret: env.PAYMENTS_WEBHOOK_SECRET,
+					webhookUrl: `${env.ORIGIN}/api/payments/webhook`
+				})
+			)
 		);
 		log(
 			`Payments    http://127.0.0.1:${c.payPort} (provider stand-in; webhooks to ${env.ORIGIN}/api/payments/webhook)`
@@ -90,7 +128,7 @@ export async function startServices(
 		await stop();
 		throw error;
 	}
-	return { stop, pgDataDir: pgDir };
+	return { stop, pgDataDir: pgDir, standIns: Object.fromEntries(started.map((s) => [s.name, s])) };
 }
 
 /** Stops the services on Ctrl-C or SIGTERM, once. */

@@ -47,3 +47,33 @@ export async function startMail(opts: {
 	await maildev.start();
 	return { name: 'mail', stop: () => maildev.stop() };
 }
+
+/**
+ * Loopback-only control used by `npm test` so the fault tests can stop and start a stand-in
+ * under the running app: `POST /<name>/stop` and `POST /<name>/start`. Listens on a free port
+ * of 127.0.0.1; the test runner hands its address to the tests in TEST_STANDIN_CONTROL.
+ */
+export async function startStandInControl(
+	standIns: Record<string, { stop(): Promise<void>; start(): Promise<void> }>
+): Promise<{ url: string; stop(): Promise<void> }> {
+	const { createServer } = await import('node:http');
+	const server = createServer((req, res) => {
+		const [, name, verb] = (req.url ?? '').split('/');
+		const target = standIns[name];
+		if (req.method !== 'POST' || !target || (verb !== 'stop' && verb !== 'start')) {
+			res.writeHead(404).end();
+			return;
+		}
+		target[verb]().then(
+			() => res.writeHead(204).end(),
+			(error: Error) => res.writeHead(500, { 'content-type': 'text/plain' }).end(error.message)
+		);
+	});
+	await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+	const address = server.address();
+	const port = typeof address === 'object' && address ? address.port : 0;
+	return {
+		url: `http://127.0.0.1:${port}`,
+		stop: () => new Promise<void>((resolve) => server.close(() => resolve()))
+	};
+}
