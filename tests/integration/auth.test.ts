@@ -1,8 +1,8 @@
-import { beforeEach, describe, expect, it } from 'vitest';
+import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import { sessions, signInAttempts, users } from '$lib/server/db/schema';
-import { createSession, endSession, validateSessionToken } from '$lib/server/auth';
+import { cookieForToken, createSession, endSession, validateSessionToken } from '$lib/server/auth';
 import { attemptSignIn } from '$lib/server/signin';
 import { setDisabled } from '$lib/server/team';
 import { THROTTLE } from '$lib/server/throttle';
@@ -160,5 +160,39 @@ describe('sessions', () => {
 		const { token } = await createSession(user.id);
 		await db.update(sessions).set({ expiresAt: new Date(Date.now() - 1000) });
 		expect(await validateSessionToken(token)).toBeNull();
+	});
+});
+
+describe('the session cookie', () => {
+	it('is HttpOnly, SameSite=Lax and Path=/, and not Secure on an http ORIGIN (local use)', () => {
+		expect(process.env.PUBLIC_ORIGIN ?? process.env.ORIGIN ?? 'http:').toMatch(/^http:/);
+		expect(cookieForToken('token-value').attributes).toMatchObject({
+			httpOnly: true,
+			sameSite: 'lax',
+			path: '/',
+			secure: false
+		});
+	});
+
+	it('is Secure whenever ORIGIN is an https address', async () => {
+		const saved = { ORIGIN: process.env.ORIGIN, PUBLIC_ORIGIN: process.env.PUBLIC_ORIGIN };
+		process.env.ORIGIN = 'https://copperleaf.example';
+		delete process.env.PUBLIC_ORIGIN;
+		vi.resetModules();
+		try {
+			const fresh = await import('$lib/server/auth');
+			expect(fresh.cookieForToken('token-value').attributes).toMatchObject({
+				secure: true,
+				httpOnly: true,
+				sameSite: 'lax',
+				path: '/'
+			});
+		} finally {
+			for (const [k, v] of Object.entries(saved)) {
+				if (v === undefined) delete process.env[k];
+				else process.env[k] = v;
+			}
+			vi.resetModules();
+		}
 	});
 });
