@@ -4,14 +4,21 @@
 import { eq } from 'drizzle-orm';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { db } from '$lib/server/db';
-import { estimatingSettings, laborRates, priceListItems, pumpModels } from '$lib/server/db/schema';
+import {
+	estimatingSettings,
+	laborRates,
+	priceListItems,
+	pumpModels,
+	siteVisits
+} from '$lib/server/db/schema';
 import { estimate as runEngine, demoDesign } from '$lib/estimating';
 import { exportPriceList, importPriceList, loadCatalog } from '$lib/server/pricelist';
+import { createEstimate, getEstimate } from '$lib/server/estimates';
 import { actions } from '../../src/routes/office/price-list/import/+page.server';
 import { GET as exportRoute } from '../../src/routes/office/price-list/export/+server';
 import { resetDatabase } from '../support/database';
 import { makeUser, seedFirm } from './fixtures';
-import { seedCatalog } from './estimates-fixtures';
+import { makeLead, seedCatalog } from './estimates-fixtures';
 
 beforeEach(async () => {
 	await resetDatabase();
@@ -189,5 +196,61 @@ describe('who may import', () => {
 		} as never);
 		expect(res.headers.get('content-disposition')).toContain('price-list-pumps.csv');
 		expect(await res.text()).toContain('pump-q700,Quiet pump,60,199.00,,0:9;700:0\r\n');
+	});
+});
+
+describe('imported task hours and the visit notes', () => {
+	it('start the estimate with the firm’s hours for rocky soil, a steep slope and a narrow gate', async () => {
+		const csv = [LABOR, 'task,basin,Dig,basin,10,,,', 'task,stone-cart,Cart,stone,1.5,,,'].join(
+			'\n'
+		);
+		expect((await importPriceList(csv)).written).toBe(2);
+		const sales = await makeUser('sales');
+		const lead = await makeLead(sales.id);
+		const start = new Date(Date.now() - 86400000);
+		const end = new Date(start.getTime() + 3600000);
+		await db.insert(siteVisits).values({
+			id: 'visit-1',
+			leadId: lead.id,
+			salespersonId: sales.id,
+			status: 'booked',
+			startsAt: start,
+			endsAt: end,
+			bufferMinutes: 30,
+			blocked: `[${start.toISOString()},${end.toISOString()})`,
+			timeZone: 'America/Denver',
+			tokenHash: 'x'.repeat(64),
+			tokenExpiresAt: end,
+			notes: {
+				spotLengthFt: 10,
+				spotWidthFt: 8,
+				slope: 'steep',
+				soil: 'rocky',
+				accessWidthIn: 22,
+				notes: 'Side gate only'
+			},
+			notesUpdatedAt: end
+		} as typeof siteVisits.$inferInsert);
+		const row = (await getEstimate((await createEstimate(lead.id, sales))!))!;
+		const design = row.design as {
+			walls: { optionId?: string; exposedHeightIn: number }[];
+			extraLabor: { task: string; hours: number }[];
+		};
+		expect(design.walls[0]).toMatchObject({ exposedHeightIn: 30 });
+		expect(design.walls[0].optionId).toBeUndefined();
+		expect(design.extraLabor.map((t) => [t.task.split(':')[0], t.hours])).toEqual([
+			['Cut and level the pad on a steep slope', 5],
+			['Extra digging in rocky soil', 5],
+			// Half of 55 ft of cable trench at 0.02 h/ft, to the quarter hour.
+			['Extra digging in rocky soil', 0.5],
+			['Move Low basalt column in by hand', 1.5],
+			['Move Middle basalt column in by hand', 1.5],
+			['Move Tall basalt column in by hand', 2]
+		]);
+		expect(row.scope).toBe('Side gate only\nSite: steep slope, rocky soil, access 22 in wide');
+		const stored = row.result as { engine: { labor: { tasks: { task: string }[] } } };
+		expect(stored.engine.labor.tasks.map((t) => t.task)).toContain(
+			'Extra digging in rocky soil: basin'
+		);
 	});
 });

@@ -1,7 +1,7 @@
 // Estimates: versioned per lead (v1, v2, …), saved with the engine run again on the server, sent
 // to the homeowner through a private link (stored hashed), accepted once and frozen.
 import { and, desc, eq, max, ne, sql } from 'drizzle-orm';
-import { estimate as runEngine, demoDesign, type EstimateSuccess } from '$lib/estimating';
+import { estimate as runEngine, type EstimateSuccess } from '$lib/estimating';
 import {
 	cleanChoices,
 	defaultChoices,
@@ -11,6 +11,7 @@ import {
 	type LineOverride,
 	type PricedEstimate
 } from '$lib/estimating/overrides';
+import { scopeFromNotes, starterDesign } from '$lib/estimating/prefill';
 import type { SaveEstimateInput } from '$lib/schema/estimates';
 import { db } from './db';
 import {
@@ -76,55 +77,8 @@ async function latestVisitNotes(leadId: string): Promise<Record<string, unknown>
 	return rows[0]?.notes ?? null;
 }
 
-const numberIn = (notes: Record<string, unknown>, ...keys: string[]) => {
-	for (const key of keys) {
-		const v = Number(notes[key]);
-		if (typeof notes[key] !== 'boolean' && Number.isFinite(v) && v > 0) return v;
-	}
-	return undefined;
-};
-
-/**
- * A starting design: the firm's standard three-column feature, named for the lead, with the
- * measurements from the latest visit notes where present (issue 6's visitNotesSchema: the spot's
- * length and width size the basin, the depth available caps its depth, the distance to the house,
- * where the power is, sets the lighting cable run). A full design in notes.design wins.
- */
-export function starterDesign(
-	label: string,
-	notes: Record<string, unknown> | null
-): Record<string, unknown> {
-	if (notes && typeof notes.design === 'object' && notes.design) {
-		return notes.design as Record<string, unknown>;
-	}
-	const design = demoDesign();
-	design.name = label;
-	if (!notes) return design as Record<string, unknown>;
-	const length = numberIn(notes, 'spotLengthFt');
-	const width = numberIn(notes, 'spotWidthFt');
-	const depthIn = numberIn(notes, 'depthAvailableIn');
-	const size = design.basin?.size;
-	if (size && size.shape === 'rectangle') {
-		// The basin sits inside the spot with a foot of stone edge each side (common practice, no source).
-		if (length) size.lengthFt = Math.max(2, Math.min(length - 2, 20));
-		if (width) size.widthFt = Math.max(2, Math.min(width - 2, 20));
-		if (depthIn) size.depthFt = Math.max(1, Math.min(size.depthFt, depthIn / 12));
-	}
-	const power = numberIn(notes, 'toHouseFt');
-	const run = design.lighting?.runs[0];
-	if (run && power) {
-		const base = run.fixtures[0].distanceFt;
-		run.fixtures = run.fixtures.map((f) => ({ ...f, distanceFt: f.distanceFt - base + power }));
-	}
-	return design as Record<string, unknown>;
-}
-
-function scopeFromNotes(notes: Record<string, unknown> | null, leadMessage: string) {
-	const text = [notes?.notes, notes?.powerLocation ? `Power: ${notes.powerLocation}` : '']
-		.filter((t): t is string => typeof t === 'string' && t.trim() !== '')
-		.join('\n');
-	return (text || leadMessage).slice(0, 2000);
-}
+// The starting design and scope from the visit notes live in $lib/estimating/prefill (pure).
+export { starterDesign };
 
 /** Runs the engine with the current price list and prices the overrides. */
 export function compute(design: unknown, catalog: unknown, overrides: readonly LineOverride[]) {
@@ -186,7 +140,7 @@ async function insertVersion(
 export async function createEstimate(leadId: string, user: SessionUser) {
 	const found = await leadWithContact(leadId);
 	if (!found) return null;
-	const notes = await latestVisitNotes(leadId);
+	const [notes, config] = await Promise.all([latestVisitNotes(leadId), estimatingConfig()]);
 	const label = `${found.contact.name} — water feature`;
 	return db.transaction(async (tx) => {
 		await tx.execute(sql`select id from leads where id = ${leadId} for update`);
@@ -194,7 +148,7 @@ export async function createEstimate(leadId: string, user: SessionUser) {
 			tx,
 			leadId,
 			user,
-			starterDesign(label, notes),
+			starterDesign(label, notes, config.engine),
 			[],
 			scopeFromNotes(notes, found.lead.message)
 		);

@@ -1,0 +1,219 @@
+/**
+ * The estimate's starting design, read from the latest site-visit notes (visitNotesSchema in
+ * $lib/schema/visits). Pure: no I/O. The firm's standard three-column feature is sized to the
+ * spot, its lighting run to the distance to the house (where the power is), and the site's
+ * slope, soil and access width turn into a retaining wall and extra labor the salesperson sees
+ * and can change in the builder. Every trade rule here is common practice, with no source.
+ */
+import { SLOPES, SOILS } from '$lib/schema/visits';
+import { demoDesign } from './demo';
+import { designSchema, settingsSchema, type Design, type Settings } from './schema';
+import { analyseStones, type HandlingMethod } from './stones';
+
+export type Notes = Record<string, unknown>;
+type Slope = (typeof SLOPES)[number];
+type Soil = (typeof SOILS)[number];
+
+/** The first of the keys holding a number above zero (a form may have stored text). */
+export function numberIn(notes: Notes, ...keys: string[]): number | undefined {
+	for (const key of keys) {
+		const v = Number(notes[key]);
+		if (typeof notes[key] !== 'boolean' && Number.isFinite(v) && v > 0) return v;
+	}
+	return undefined;
+}
+
+export function choiceIn<T extends string>(notes: Notes, key: string, values: readonly T[]) {
+	const v = notes[key];
+	return typeof v === 'string' && (values as readonly string[]).includes(v) ? (v as T) : undefined;
+}
+
+const quarterHours = (h: number) => Math.round(h * 4) / 4;
+
+// How wide the gear that carries each kind of stone to the spot is, in inches: a stone cart or
+// heavy dolly about 24 in (a hoist's stone also rides one in, the hoist carried in parts), a
+// walk-behind compact loader about 36 in, a skid steer about 60 in (from memory; common practice,
+// no source). A person-carried or team-carried stone needs no gear.
+export const GEAR_WIDTH_IN: Partial<Record<HandlingMethod, { gear: string; widthIn: number }>> = {
+	cart: { gear: 'stone cart', widthIn: 24 },
+	hoist: { gear: 'stone cart', widthIn: 24 },
+	'compact-loader': { gear: 'compact loader', widthIn: 36 },
+	'larger-machine': { gear: 'skid steer', widthIn: 60 }
+};
+
+/**
+ * Stones whose gear does not fit through the access are moved in by hand on bars and rollers:
+ * about as long again as setting them, so their set hours once more (common practice, no source).
+ */
+export function narrowAccessLabor(design: Design, accessIn: number, settings: Settings) {
+	const parsed = designSchema.safeParse(design);
+	if (!parsed.success) return [];
+	return analyseStones(parsed.data.stones, settings).stones.flatMap((stone) => {
+		const gear = GEAR_WIDTH_IN[stone.handling.method];
+		if (!gear || accessIn >= gear.widthIn) return [];
+		const hours = quarterHours(stone.count * settings.labor.stoneHours[stone.handling.method]);
+		if (hours <= 0) return [];
+		return [
+			{
+				task: `Move ${stone.name} in by hand: the ${accessIn} in access is narrower than a ${gear.gear} (${gear.widthIn} in)`,
+				hours,
+				...(stone.optionId ? { optionId: stone.optionId } : {})
+			}
+		];
+	});
+}
+
+// Extra digging time against loam or sand: rock and clay are slow to dig, fill hides debris
+// (common practice, no source).
+export const SOIL_DIG_FACTOR: Partial<Record<Soil, number>> = {
+	rocky: 0.5,
+	clay: 0.25,
+	fill: 0.25
+};
+
+/** Extra hours for the basin hole and the lighting cable trench in hard or mixed soil. */
+export function soilLabor(design: Design, soil: Soil, settings: Settings) {
+	const factor = SOIL_DIG_FACTOR[soil];
+	if (!factor) return [];
+	const labor = settings.labor;
+	const tasks: { task: string; hours: number; optionId?: string }[] = [];
+	if (design.basin) {
+		tasks.push({ task: `Extra digging in ${soil} soil: basin`, hours: labor.basinHours * factor });
+	}
+	const trenchFt = (design.lighting?.runs ?? []).reduce(
+		(sum, run) => sum + Math.max(0, ...run.fixtures.map((f) => f.distanceFt)),
+		0
+	);
+	if (trenchFt > 0) {
+		tasks.push({
+			task: `Extra digging in ${soil} soil: cable trench`,
+			hours: trenchFt * labor.cableHoursPerFt * factor,
+			...(design.lighting?.optionId ? { optionId: design.lighting.optionId } : {})
+		});
+	}
+	return tasks.map((t) => ({ ...t, hours: quarterHours(t.hours) })).filter((t) => t.hours > 0);
+}
+
+// The fall across the spot as a grade for each slope the salesperson can pick, and the share of
+// the basin hours spent cutting and levelling the pad (common practice, no source). A gentle
+// slope is levelled within the basin's own hours.
+export const SLOPE_GRADE: Record<Slope, number> = {
+	flat: 0,
+	gentle: 0.05,
+	moderate: 0.12,
+	steep: 0.25
+};
+const SLOPE_LEVELLING: Partial<Record<Slope, number>> = { moderate: 0.25, steep: 0.5 };
+
+/**
+ * On a moderate or steep slope the design's retaining wall holds the uphill side: it leaves the
+ * options and joins the base work, as tall as the fall across the spot (whole courses, at least
+ * one), as long as the spot is wide plus a 2 ft return at each end (common practice, no source).
+ */
+export function applySlope(
+	design: Design,
+	slope: Slope,
+	spot: { lengthFt?: number; widthFt?: number },
+	settings: Settings
+) {
+	const levelling = SLOPE_LEVELLING[slope];
+	if (!levelling) return;
+	const wall = design.walls?.find((w) => w.purpose === 'retaining');
+	if (wall) {
+		const lengthFt = spot.lengthFt ?? wall.lengthFt;
+		const fallIn = SLOPE_GRADE[slope] * lengthFt * 12;
+		const courses = Math.max(1, Math.ceil(fallIn / wall.unit.heightIn - 1e-9));
+		wall.exposedHeightIn = courses * wall.unit.heightIn;
+		if (spot.widthFt) wall.lengthFt = spot.widthFt + 4;
+		wall.name = 'Retaining wall on the uphill side';
+		const optionId = wall.optionId;
+		delete wall.optionId;
+		if (optionId && !design.walls?.some((w) => w.optionId === optionId)) {
+			design.options = (design.options ?? []).filter((o) => o.id !== optionId);
+		}
+	}
+	if (design.basin) {
+		const hours = quarterHours(settings.labor.basinHours * levelling);
+		if (hours > 0) {
+			design.extraLabor = [
+				...(design.extraLabor ?? []),
+				{ task: `Cut and level the pad on a ${slope} slope`, hours }
+			];
+		}
+	}
+}
+
+function sizeToSpot(design: Design, notes: Notes) {
+	const length = numberIn(notes, 'spotLengthFt');
+	const width = numberIn(notes, 'spotWidthFt');
+	const depthIn = numberIn(notes, 'depthAvailableIn');
+	const size = design.basin?.size;
+	if (size && size.shape === 'rectangle') {
+		// The basin sits inside the spot with a foot of stone edge each side (common practice, no source).
+		if (length) size.lengthFt = Math.max(2, Math.min(length - 2, 20));
+		if (width) size.widthFt = Math.max(2, Math.min(width - 2, 20));
+		if (depthIn) size.depthFt = Math.max(1, Math.min(size.depthFt, depthIn / 12));
+	}
+	const power = numberIn(notes, 'toHouseFt');
+	const run = design.lighting?.runs[0];
+	if (run && power) {
+		const base = run.fixtures[0].distanceFt;
+		run.fixtures = run.fixtures.map((f) => ({ ...f, distanceFt: f.distanceFt - base + power }));
+	}
+}
+
+/**
+ * A starting design named for the lead, from the latest visit notes where present; a full design
+ * stored in notes.design wins. `engine` is the firm's engine settings (task hours, lifting
+ * limits); without them the engine's defaults apply.
+ */
+export function starterDesign(label: string, notes: Notes | null, engine?: unknown): Design {
+	if (notes && typeof notes.design === 'object' && notes.design) return notes.design as Design;
+	const design = demoDesign();
+	design.name = label;
+	if (!notes) return design;
+	const parsedSettings = settingsSchema.safeParse(engine ?? {});
+	const settings = parsedSettings.success ? parsedSettings.data : settingsSchema.parse({});
+	sizeToSpot(design, notes);
+	const slope = choiceIn(notes, 'slope', SLOPES);
+	if (slope) {
+		const spot = {
+			lengthFt: numberIn(notes, 'spotLengthFt'),
+			widthFt: numberIn(notes, 'spotWidthFt')
+		};
+		applySlope(design, slope, spot, settings);
+	}
+	const soil = choiceIn(notes, 'soil', SOILS);
+	const access = numberIn(notes, 'accessWidthIn');
+	design.extraLabor = [
+		...(design.extraLabor ?? []),
+		...(soil ? soilLabor(design, soil, settings) : []),
+		...(access ? narrowAccessLabor(design, access, settings) : [])
+	];
+	return design;
+}
+
+/** The site in plain words for the scope: only what the notes say. */
+function siteLine(notes: Notes) {
+	const slope = choiceIn(notes, 'slope', SLOPES);
+	const soil = choiceIn(notes, 'soil', SOILS);
+	const access = numberIn(notes, 'accessWidthIn');
+	const parts = [
+		slope ? `${slope} slope` : '',
+		soil && soil !== 'unknown' ? `${soil} soil` : '',
+		access ? `access ${access} in wide` : ''
+	].filter(Boolean);
+	return parts.length ? `Site: ${parts.join(', ')}` : '';
+}
+
+/** The scope's first words: the visit's notes, where the power is and the site; else the lead's message. */
+export function scopeFromNotes(notes: Notes | null, leadMessage: string): string {
+	const text = [
+		notes?.notes,
+		notes?.powerLocation ? `Power: ${notes.powerLocation}` : '',
+		notes ? siteLine(notes) : ''
+	]
+		.filter((t): t is string => typeof t === 'string' && t.trim() !== '')
+		.join('\n');
+	return (text || leadMessage).slice(0, 2000);
+}
