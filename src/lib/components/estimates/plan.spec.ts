@@ -1,0 +1,62 @@
+import { describe, expect, it } from 'vitest';
+import { demoDesign, designSchema } from '$lib/estimating';
+import { includedBuckets } from '$lib/estimating/pricing';
+import { inclusionFor, planOf } from './plan';
+
+const demo = () => designSchema.parse(demoDesign());
+
+describe('plan drawing layout', () => {
+	it('draws the demo with its basin, three outlets on the columns, one topping and the lights', () => {
+		const design = demo();
+		const plan = planOf(design, inclusionFor(design, includedBuckets(design)));
+		expect(plan.basin?.label).toBe('Basin 6 × 4 ft');
+		expect(plan.outlets.map((o) => o.n)).toEqual([1, 2, 3]);
+		// The alternate's other topping (slate) is not drawn; the pebble one is, at 8 × 6 ft.
+		expect(plan.toppings.map((t) => t.name)).toEqual(['River pebble topping']);
+		expect(plan.toppings[0].areaFt2).toBeCloseTo(48, 9);
+		// The wall is an option not taken: drawn, marked optional, behind everything else.
+		expect(plan.walls).toHaveLength(1);
+		expect(plan.walls[0].optional).toBe(true);
+		const wallBottom = Math.max(...plan.walls[0].points.map((p) => p[1]));
+		const toppingTop = Math.min(...plan.areas.flatMap((a) => a.points.map((p) => p[1])));
+		expect(wallBottom).toBeLessThan(toppingTop);
+		expect(plan.runs).toHaveLength(1);
+		expect(plan.runs[0].fixtures.map((f) => f.distanceFt)).toEqual([30, 36, 55]);
+		// Every outlet sits inside the basin's outline.
+		for (const o of plan.outlets) {
+			expect(Math.abs(o.at[0])).toBeLessThan(3);
+			expect(Math.abs(o.at[1])).toBeLessThan(2);
+		}
+	});
+
+	it('follows the choices: the other topping, the wall taken, lights left out with their alternate', () => {
+		const design = demo();
+		design.lighting!.optionId = 'topping-slate';
+		const chosen = new Set(['low-wall', 'topping-slate']);
+		const plan = planOf(design, inclusionFor(design, chosen));
+		expect(plan.toppings.map((t) => t.name)).toEqual(['Slate chip topping']);
+		expect(plan.walls[0].optional).toBe(false);
+		expect(plan.runs).toHaveLength(1);
+		const other = planOf(design, inclusionFor(design, new Set(['topping-pebble'])));
+		expect(other.runs).toHaveLength(0);
+	});
+
+	it('places a second topping area beside the first and keeps it in the bounds', () => {
+		const design = demo();
+		design.aggregates[0].areas.push({
+			shape: 'polygon',
+			pointsFt: [
+				[0, 0],
+				[6, 0],
+				[3, 5]
+			]
+		});
+		const plan = planOf(design, inclusionFor(design, includedBuckets(design)));
+		const [first, second] = plan.areas;
+		const firstRight = Math.max(...first.points.map((p) => p[0]));
+		const secondLeft = Math.min(...second.points.map((p) => p[0]));
+		expect(secondLeft).toBeGreaterThan(firstRight);
+		expect(plan.box.maxX).toBeGreaterThanOrEqual(Math.max(...second.points.map((p) => p[0])));
+		expect(plan.toppings[0].areaFt2).toBeCloseTo(48 + 15, 9);
+	});
+});

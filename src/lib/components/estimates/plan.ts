@@ -1,0 +1,263 @@
+// The plan drawing's layout, in feet, from the design alone. The design has sizes but no
+// positions, so the layout is a fixed arrangement: the basin in the middle with the wetted stones
+// (and their outlets) along it, dry stones in front, the toppings centred on it and beside it, walls
+// behind. Sizes are to scale; positions only show what goes where.
+import type { ParsedDesign } from '$lib/estimating';
+import type { Area, Stone } from '$lib/estimating/schema';
+import { areaFt2, boxOf, outline, type Box, type Point } from './geometry';
+
+const GAL_PER_FT3 = 7.48052; // US gallons in a cubic foot (exact by definition of the gallon)
+const GAP_FT = 1;
+
+export interface PlanArea {
+	points: Point[];
+	toppingIndex: number;
+}
+export interface PlanTopping {
+	name: string;
+	areaFt2: number;
+	depthIn: number;
+	optional: boolean;
+	pattern: number;
+}
+export interface PlanWall {
+	key: string;
+	name: string;
+	points: Point[];
+	lengthFt: number;
+	heightIn: number;
+	optional: boolean;
+}
+export interface PlanMarker {
+	n: number;
+	name: string;
+	detail: string;
+	at: Point;
+}
+export interface PlanRun {
+	n: number;
+	transformer: string;
+	fixtures: { n: number; name: string; distanceFt: number }[];
+}
+export interface Plan {
+	basin?: { points: Point[]; label: string; detail: string };
+	areas: PlanArea[];
+	toppings: PlanTopping[];
+	stones: { points: Point[]; optional: boolean }[];
+	stoneNames: string[];
+	outlets: PlanMarker[];
+	walls: PlanWall[];
+	runs: PlanRun[];
+	lightingOptional: boolean;
+	box: Box;
+}
+
+/** What a bucket means for the drawing: drawn, drawn dashed as an option not taken, or left out. */
+export type Inclusion = (bucket: string | undefined) => 'in' | 'option' | 'out';
+
+export function inclusionFor(design: ParsedDesign, chosen: ReadonlySet<string>): Inclusion {
+	const options = new Set(design.options.map((o) => o.id));
+	return (bucket) => {
+		if (!bucket || bucket === 'base' || chosen.has(bucket)) return 'in';
+		return options.has(bucket) ? 'option' : 'out';
+	};
+}
+
+const ft = (inches: number) => inches / 12;
+const fmt = (n: number) => String(Math.round(n * 10) / 10);
+const shift = (pts: readonly Point[], dx: number, dy: number): Point[] =>
+	pts.map(([x, y]) => [x + dx, y + dy] as const);
+const rect = (l: number, w: number): Point[] =>
+	outline({ shape: 'rectangle', lengthFt: l, widthFt: w });
+
+function ellipse(l: number, w: number): Point[] {
+	return Array.from({ length: 20 }, (_, k) => {
+		const t = (k / 20) * 2 * Math.PI;
+		return [(l / 2) * Math.cos(t), (w / 2) * Math.sin(t)] as const;
+	});
+}
+
+/** A stone's footprint from above, centred on the origin. */
+export function footprint(size: Stone['size']): Point[] {
+	switch (size.shape) {
+		case 'column-square':
+			return rect(ft(size.sideIn), ft(size.sideIn));
+		case 'column-rect':
+			return rect(ft(size.lengthIn), ft(size.widthIn));
+		case 'slab':
+			return rect(ft(size.lengthIn), ft(size.widthIn));
+		case 'boulder':
+			return ellipse(ft(size.lengthIn), ft(size.widthIn));
+		case 'column-hex': {
+			const r = ft(size.acrossFlatsIn) / Math.sqrt(3);
+			return Array.from({ length: 6 }, (_, k) => {
+				const t = (k / 6) * 2 * Math.PI;
+				return [r * Math.cos(t), r * Math.sin(t)] as const;
+			});
+		}
+	}
+}
+
+function basinOf(design: ParsedDesign) {
+	const b = design.basin;
+	if (!b) return undefined;
+	const s = b.size;
+	const depth = `${fmt(s.depthFt)} ft deep`;
+	if (s.shape === 'rectangle') {
+		return {
+			points: rect(s.lengthFt, s.widthFt),
+			label: `Basin ${fmt(s.lengthFt)} × ${fmt(s.widthFt)} ft`,
+			detail: depth
+		};
+	}
+	if (s.shape === 'circle') {
+		return {
+			points: outline({ shape: 'circle', diameterFt: s.diameterFt }),
+			label: `Basin ${fmt(s.diameterFt)} ft across`,
+			detail: depth
+		};
+	}
+	const side = Math.sqrt(s.gallons / GAL_PER_FT3 / s.depthFt);
+	return {
+		points: rect(side, side),
+		label: `Basin, ${Math.round(s.gallons)} gal`,
+		detail: `${depth} (outline drawn square)`
+	};
+}
+
+function stonesOf(design: ParsedDesign, include: Inclusion, basinBox: Box | undefined) {
+	const kept = design.stones.filter((s) => include(s.optionId) !== 'out');
+	const copies = (wet: boolean) =>
+		kept.filter((s) => s.wetted === wet).flatMap((s) => Array.from({ length: s.count }, () => s));
+	const lay = (list: Stone[], y: number, span: number) => {
+		const step = span / (list.length + 1);
+		return list.map((s, i) => ({
+			stone: s,
+			at: [-span / 2 + step * (i + 1), y] as const,
+			points: shift(footprint(s.size), -span / 2 + step * (i + 1), y),
+			optional: include(s.optionId) === 'option'
+		}));
+	};
+	const width = (list: Stone[]) =>
+		list.reduce((sum, s) => {
+			const b = boxOf(footprint(s.size));
+			return sum + (b.maxX - b.minX) + GAP_FT;
+		}, GAP_FT);
+	const wet = copies(true);
+	const dry = copies(false);
+	const span = basinBox ? basinBox.maxX - basinBox.minX : width(wet);
+	const front = (basinBox?.maxY ?? 1) + GAP_FT;
+	return {
+		wet: lay(wet, 0, Math.max(span, width(wet))),
+		dry: lay(dry, front, Math.max(span, width(dry)))
+	};
+}
+
+function outletsOf(design: ParsedDesign, wetAt: readonly Point[]): PlanMarker[] {
+	const n = design.outlets.length;
+	return design.outlets.map((o, i) => {
+		const detail =
+			o.kind === 'bubbler'
+				? `bubbler, ${fmt(o.bubbleHeightIn)} in high`
+				: o.kind === 'spillway'
+					? `spillway, ${fmt(o.widthIn)} in wide`
+					: `spout, ${Math.round(o.flowGph)} gph`;
+		const at = wetAt[i] ?? ([-(n - 1) / 2 + i, 0] as const);
+		return { n: i + 1, name: o.name, detail, at };
+	});
+}
+
+function toppingsOf(design: ParsedDesign, include: Inclusion) {
+	const areas: PlanArea[] = [];
+	const toppings: PlanTopping[] = [];
+	let cursor: number | undefined;
+	design.aggregates.forEach((a) => {
+		const how = include(a.optionId);
+		if (how === 'out') return;
+		const index = toppings.length;
+		toppings.push({
+			name: a.name,
+			areaFt2: a.areas.reduce((s, x: Area) => s + areaFt2(x), 0),
+			depthIn: a.depthIn,
+			optional: how === 'option',
+			pattern: index % 3
+		});
+		for (const area of a.areas) {
+			const pts = outline(area);
+			const b = boxOf(pts);
+			const dx = cursor === undefined ? 0 : cursor + GAP_FT - b.minX;
+			areas.push({ points: shift(pts, dx, 0), toppingIndex: index });
+			cursor = Math.max(cursor ?? -Infinity, b.maxX + dx);
+		}
+	});
+	return { areas, toppings };
+}
+
+function wallsOf(design: ParsedDesign, include: Inclusion, top: number): PlanWall[] {
+	let y = top - GAP_FT;
+	return design.walls.flatMap((w, i) => {
+		const how = include(w.optionId);
+		if (how === 'out') return [];
+		const depth = ft(w.unit.depthIn);
+		const points = shift(rect(w.lengthFt, depth), 0, y - depth / 2);
+		y -= depth + GAP_FT * 1.5;
+		return [
+			{
+				key: `${w.id}-${i}`,
+				name: w.name,
+				points,
+				lengthFt: w.lengthFt,
+				heightIn: w.exposedHeightIn,
+				optional: how === 'option'
+			}
+		];
+	});
+}
+
+function runsOf(design: ParsedDesign): PlanRun[] {
+	const l = design.lighting;
+	if (!l) return [];
+	const names = new Map(l.fixtures.map((f) => [f.id, f.name]));
+	const tx = new Map(l.transformers.map((t) => [t.id, t.name]));
+	let n = 0;
+	return l.runs.map((r, i) => ({
+		n: i + 1,
+		transformer: tx.get(r.transformerId) ?? 'Transformer',
+		fixtures: [...r.fixtures]
+			.sort((a, b) => a.distanceFt - b.distanceFt)
+			.map((f) => ({ n: ++n, name: names.get(f.fixtureId) ?? 'Light', distanceFt: f.distanceFt }))
+	}));
+}
+
+export function planOf(design: ParsedDesign, include: Inclusion): Plan {
+	const basin = basinOf(design);
+	const basinBox = basin ? boxOf(basin.points) : undefined;
+	const stones = stonesOf(design, include, basinBox);
+	const outlets = outletsOf(
+		design,
+		stones.wet.map((s) => s.at)
+	);
+	const { areas, toppings } = toppingsOf(design, include);
+	const everything = [
+		...(basin?.points ?? []),
+		...areas.flatMap((a) => a.points),
+		...[...stones.wet, ...stones.dry].flatMap((s) => s.points),
+		...outlets.map((o) => o.at)
+	];
+	const top = everything.length ? boxOf(everything).minY : 0;
+	const walls = wallsOf(design, include, top);
+	const all = [...everything, ...walls.flatMap((w) => w.points)];
+	const kept = design.stones.filter((s) => include(s.optionId) !== 'out');
+	return {
+		basin,
+		areas,
+		toppings,
+		stones: [...stones.wet, ...stones.dry].map((s) => ({ points: s.points, optional: s.optional })),
+		stoneNames: kept.map((s) => (s.count > 1 ? `${s.count} × ${s.name}` : s.name)),
+		outlets,
+		walls,
+		runs: include(design.lighting?.optionId) === 'out' ? [] : runsOf(design),
+		lightingOptional: include(design.lighting?.optionId) === 'option',
+		box: all.length ? boxOf(all) : { minX: -2, minY: -2, maxX: 2, maxY: 2 }
+	};
+}
