@@ -32,8 +32,8 @@ const PAGES: Record<string, Expect> = {
 	'/office/price-list/import': { anonymous: 303, owner: 200, sales: 403, crew: 403 },
 	'/office/leads/[id]/estimate': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	'/api/estimates/[id]': { anonymous: 401, owner: 404, sales: 404, crew: 403 },
-	// The homeowner's link: an unknown token is a plain page for everyone.
-	'/estimate/[token]': PUBLIC_API,
+	// The homeowner's link: an unknown (or expired, or replaced) token is a plain 404 for everyone.
+	'/estimate/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/office/jobs': STAFF,
 	'/office/jobs/settings': OWNER_ONLY,
 	// No lead named: 404 for staff who may sell; crew may not sell by hand.
@@ -107,9 +107,10 @@ const ACTIONS: Record<string, Expect> = {
 	'/office/leads/[id]/estimate?/create': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	'/office/leads/[id]/estimate?/send': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	'/office/leads/[id]/estimate?/newVersion': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
-	'/estimate/[token]?/accept': { anonymous: 400, owner: 400, sales: 400, crew: 400 },
-	'/estimate/[token]?/decline': { anonymous: 400, owner: 400, sales: 400, crew: 400 },
-	'/estimate/[token]?/question': { anonymous: 400, owner: 400, sales: 400, crew: 400 },
+	// The empty form is refused (400), then the page re-renders and its load 404s on the token.
+	'/estimate/[token]?/accept': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
+	'/estimate/[token]?/decline': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
+	'/estimate/[token]?/question': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	// The action refuses the empty form (400), then the page of an unknown lead renders as 404.
 	'/office/leads/[id]?/stage': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	'/office/leads/[id]?/assign': { anonymous: 303, owner: 404, sales: 404, crew: 403 },

@@ -1,4 +1,4 @@
-import { fail } from '@sveltejs/kit';
+import { error, fail } from '@sveltejs/kit';
 import { fieldErrors } from '$lib/schema/auth';
 import { acceptSchema, declineSchema, questionSchema } from '$lib/schema/estimates';
 import { HOMEOWNER_CAUTIONS } from '$lib/components/estimates/labels';
@@ -8,12 +8,15 @@ import {
 	leadWithContact,
 	openByToken
 } from '$lib/server/estimates';
+import { designSchema } from '$lib/estimating';
+import { yardPhotos } from '$lib/server/estimate-photos';
 import { estimatingConfig } from '$lib/server/pricelist';
 import { firmSettings } from '$lib/server/settings';
 import type { Actions, PageServerLoad } from './$types';
 
 // The homeowner's private page: no sign-in, the token is the key. Wrong, expired and superseded
-// links all show the same page, so nothing hints that other estimates exist.
+// links all answer the same 404 (as the visit and change-order links do), so nothing hints that
+// other estimates exist or that this one ever did.
 export const load: PageServerLoad = async ({ params, setHeaders }) => {
 	setHeaders({ 'cache-control': 'private, no-store', 'x-robots-tag': 'noindex' });
 	const firm = await firmSettings();
@@ -24,7 +27,12 @@ export const load: PageServerLoad = async ({ params, setHeaders }) => {
 		timeZone: firm.timeZone
 	};
 	const view = await openByToken(params.token);
-	if (view.kind === 'unavailable') return { brand, view: { kind: 'unavailable' as const } };
+	if (view.kind === 'unavailable') {
+		error(404, {
+			message: `It may have expired, been replaced by a newer link, or been copied incompletely. Call us at ${firm.phone} or write to ${firm.email} and we will send you a fresh one.`,
+			code: 'estimate-link'
+		});
+	}
 	const found = await leadWithContact(view.estimate.leadId);
 	const reference = `R-${found?.lead.number ?? ''} v${view.estimate.number}`;
 	if (view.kind === 'accepted') {
@@ -43,7 +51,11 @@ export const load: PageServerLoad = async ({ params, setHeaders }) => {
 	}
 	if (view.kind === 'declined') return { brand, view: { kind: 'declined' as const, reference } };
 	const { engine, priced } = view.stored;
-	const config = await estimatingConfig();
+	const [config, photos] = await Promise.all([
+		estimatingConfig(),
+		yardPhotos(view.estimate.leadId)
+	]);
+	const design = designSchema.safeParse(view.estimate.design);
 	return {
 		brand,
 		view: {
@@ -52,6 +64,8 @@ export const load: PageServerLoad = async ({ params, setHeaders }) => {
 			homeowner: found?.contact.name ?? '',
 			scope: view.estimate.scope,
 			designName: String(view.estimate.design.name ?? ''),
+			design: design.success ? design.data : null,
+			photos,
 			expiresAt: view.estimate.expiresAt!.toISOString(),
 			lines: priced.lines.map((l) => ({
 				key: l.key,
