@@ -15,7 +15,9 @@ const benches: { name: string; script: string; needsApp: boolean; args?: string[
 	{ name: 'estimate', script: 'scripts/bench/estimate.ts', needsApp: false },
 	{ name: 'photos', script: 'scripts/bench/photos.ts', needsApp: false },
 	{ name: 'site', script: 'scripts/bench/site.ts', needsApp: true, args: [baseUrl] },
-	{ name: 'leads', script: 'scripts/bench/leads.ts', needsApp: true }
+	{ name: 'leads', script: 'scripts/bench/leads.ts', needsApp: true },
+	// Starts its own services and app on ports of its own (see the script's header).
+	{ name: 'load', script: 'scripts/bench/load.ts', needsApp: false }
 ];
 
 const ran: Record<string, string> = {};
