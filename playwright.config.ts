@@ -37,7 +37,8 @@ export default defineConfig({
 		}
 	],
 	webServer: {
-		command: `node ${process.env.BUILD_DIR ?? '.test-build'}`,
+		// scripts/serve.js: the build's handler plus the security headers on prerendered pages too.
+		command: `node scripts/serve.js ${process.env.BUILD_DIR ?? '.test-build'}`,
 		url: `${baseURL}/sign-in`,
 		reuseExistingServer: false,
 		timeout: 60_000,

@@ -56,7 +56,7 @@ const app = dev
 			],
 			{ stdio: 'inherit', env: { ...process.env, ...env } }
 		)
-	: spawn(process.execPath, ['build'], {
+	: spawn(process.execPath, ['scripts/serve.js', 'build'], {
 			stdio: 'inherit',
 			env: { ...process.env, ...env, NODE_ENV: 'production' }
 		});

@@ -28,3 +28,17 @@ test('the sign-in page runs under its content security policy without violations
 	await expect(page.getByRole('button', { name: 'Sign in' })).toBeEnabled();
 	expect(violations).toEqual([]);
 });
+
+// Prerendered pages are files adapter-node serves before the hooks run: scripts/serve.js adds
+// the headers to them.
+for (const path of ['/', '/work', '/about', '/robots.txt']) {
+	test(`security headers on the prerendered ${path}`, async ({ request }) => {
+		const res = await request.get(path);
+		expect(res.status()).toBe(200);
+		const h = res.headers();
+		expect(h['x-content-type-options']).toBe('nosniff');
+		expect(h['referrer-policy']).toBe('strict-origin-when-cross-origin');
+		expect(h['x-frame-options']).toBe('DENY');
+		expect(h['content-security-policy']).toContain("frame-ancestors 'none'");
+	});
+}
