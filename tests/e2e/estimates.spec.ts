@@ -1,9 +1,13 @@
 // A salesperson builds an estimate, sees the pump chart move when an outlet is added, and sends it;
-// the homeowner opens the link on a phone, takes an option and accepts; the office sees it sold.
-import { expect, test } from '@playwright/test';
+// the homeowner opens the link on a phone, sees the plan and their yard photo, takes an option and
+// accepts; the office sees it sold. The builder's topping polygon and a second lighting run change
+// the takeoff; wrong and expired links answer 404.
+import { expect, test, type Locator, type Page } from '@playwright/test';
 import postgres from 'postgres';
+import sharp from 'sharp';
 import { randomBytes } from 'node:crypto';
 import { formatCents } from '../../src/lib/components/estimates/money';
+import { putObject, randomKey } from '../../src/lib/server/storage';
 import { linkIn, waitForMail } from '../support/mailbox';
 import { demoUser, signIn } from './pages/staff';
 
@@ -22,8 +26,33 @@ async function makeLead() {
 	return { id: 'l-' + tag, email, name: `Ada Fernhill ${tag}` };
 }
 
+/** A yard photo sent with the inquiry, stored as the intake pipeline stores it. */
+async function addYardPhoto(leadId: string) {
+	const jpeg = await sharp({
+		create: { width: 480, height: 360, channels: 3, background: '#6b7f45' }
+	})
+		.jpeg()
+		.toBuffer();
+	const displayKey = randomKey('e2e', 'display.jpg');
+	const thumbKey = randomKey('e2e', 'thumb.jpg');
+	await putObject(displayKey, jpeg, 'image/jpeg');
+	await putObject(thumbKey, jpeg, 'image/jpeg');
+	await sql`insert into photos (id, lead_id, context, display_key, thumb_key, width, height, bytes, original_name)
+		values (${'p-' + randomBytes(6).toString('hex')}, ${leadId}, 'intake', ${displayKey}, ${thumbKey}, 480, 360, ${jpeg.length}, 'yard.jpg')`;
+}
+
+const savedOnce = (page: Page) =>
+	page.waitForResponse(
+		(r) => r.url().includes('/api/estimates/') && r.request().method() === 'PUT' && r.ok()
+	);
+
+/** The quantity cell of the takeoff row that names `text`. */
+const qty = (page: Page, text: string): Locator =>
+	page.getByTestId('takeoff').getByRole('row').filter({ hasText: text }).locator('td').nth(1);
+
 test('build, send, accept on a phone, sold in the office', async ({ page, browser }) => {
 	const lead = await makeLead();
+	await addYardPhoto(lead.id);
 	await signIn(page, 'sales');
 	await page.goto(`/office/leads/${lead.id}/estimate`);
 	await page.getByRole('button', { name: 'Start the estimate' }).click();
@@ -74,9 +103,28 @@ test('build, send, accept on a phone, sold in the office', async ({ page, browse
 	await expect(home.getByTestId('homeowner-total')).toHaveText(formatCents(saved.total_cents));
 	// Mobile first: nothing runs wider than the phone.
 	expect(await home.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(375);
+	// At 390 × 844 the plan and the yard photo are there, and the plan follows the choices.
+	await home.setViewportSize({ width: 390, height: 844 });
+	const plan = home.getByTestId('plan-drawing');
+	await expect(plan.getByRole('img', { name: /^Plan of the feature from above/ })).toBeVisible();
+	await expect(
+		plan.getByRole('listitem').filter({ hasText: 'Basin 6 × 4 ft, 2 ft deep' })
+	).toBeVisible();
+	await expect(plan.getByTestId('plan-run')).toHaveCount(1);
+	await expect(plan.getByText(/Dashed bar: Low retaining wall/)).toBeVisible();
+	const photo = home.getByTestId('yard-photo');
+	await expect(photo).toHaveCount(1);
+	await photo.scrollIntoViewIfNeeded();
+	await expect
+		.poll(() => photo.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth))
+		.toBeGreaterThan(0);
+	expect(await home.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+	await plan.scrollIntoViewIfNeeded();
+	await home.screenshot({ path: test.info().outputPath('homeowner-plan-390.png'), fullPage: true });
 	const wall = home.getByRole('checkbox', { name: /Low retaining wall/ });
 	await wall.check();
 	await expect(home.getByTestId('homeowner-total')).not.toHaveText(formatCents(saved.total_cents));
+	await expect(plan.getByText(/Cross-hatched bar: Low retaining wall/)).toBeVisible();
 	const chosenTotal = await home.getByTestId('homeowner-total').textContent();
 	const chosenDeposit = await home.getByTestId('homeowner-deposit').textContent();
 	await home.getByLabel('Your full name').fill(lead.name);
@@ -105,10 +153,107 @@ test('build, send, accept on a phone, sold in the office', async ({ page, browse
 	await waitForMail(demoUser('owner').email, /^Accepted:/);
 });
 
-test('a wrong link shows a plain page', async ({ page }) => {
-	await page.goto('/estimate/not-a-real-token-0123456789');
+test('the builder takes a polygon topping and a second lighting run; an expired link is a 404', async ({
+	page
+}) => {
+	const lead = await makeLead();
+	await signIn(page, 'sales');
+	await page.goto(`/office/leads/${lead.id}/estimate`);
+	await page.getByRole('button', { name: 'Start the estimate' }).click();
+	await expect(page.getByTestId('takeoff')).toBeVisible();
+
+	// A polygon topping: its area is shown from the corners and the takeoff prices it.
+	const toppings = page.getByTestId('topping');
+	const before = await toppings.count();
+	await page.getByRole('button', { name: 'Add a topping' }).click();
+	const topping = toppings.nth(before);
+	const name = `Topping ${before + 1}`;
+	await topping.getByLabel('Material').selectOption({ label: 'River pebble, 1–2 in' });
+	await topping.getByLabel('Area 1', { exact: true }).selectOption('polygon');
+	await expect(topping.getByLabel('Corner 4 y (ft)')).toHaveValue('4');
+	await expect(topping.getByTestId('area-ft2')).toHaveText('Area 24.0 ft²');
+	const rect = await qty(page, name).textContent();
+	await topping.getByLabel('Corner 3 y (ft)').fill('8');
+	await expect(topping.getByTestId('area-ft2')).toHaveText('Area 36.0 ft²');
+	await topping.getByRole('button', { name: 'Add a corner' }).click();
+	await topping.getByLabel('Corner 5 x (ft)').fill('-3');
+	// The trapezoid (6 ft wide, sides 4 and 8 ft) is 36 ft²; the fifth corner adds a 4 × 3 ft
+	// triangle of 6 ft² (shoelace, by hand).
+	await expect(topping.getByTestId('area-ft2')).toHaveText('Area 42.0 ft²');
+	await expect(
+		topping.getByRole('img', { name: /^Area 1: 5 corners, 9 ft by 8 ft/ })
+	).toBeVisible();
+	await expect(qty(page, name)).not.toHaveText(rect!);
+	// An engine field error sits beside its field, and goes when the value is fixed.
+	await topping.getByLabel('Depth (in)').fill('0');
+	await expect(topping.getByText('Must be greater than zero')).toBeVisible();
+	await expect(page.getByTestId('engine-errors')).toBeVisible();
+	await topping.getByLabel('Depth (in)').fill('3');
+	await expect(topping.getByText('Must be greater than zero')).toHaveCount(0);
+
+	// A second run on a second transformer: more cable, two transformers, two runs in the plan.
+	const cable = await qty(page, 'Direct-burial cable').textContent();
+	await expect(qty(page, 'Low-voltage transformer')).toHaveText('1');
+	await page.getByRole('button', { name: 'Add a transformer' }).click();
+	await page.getByRole('button', { name: 'Add a lighting run' }).click();
+	const run2 = page.getByTestId('lighting-run').nth(1);
+	await run2.getByLabel('Fed from').selectOption({ label: 'Transformer 2, 150 VA' });
+	await run2.getByLabel('Cable to it (ft)').fill('40');
+	await run2.getByRole('button', { name: 'Add a light to run 2' }).click();
+	await expect(run2.getByTestId('run-fixture')).toHaveCount(2);
+	await expect(qty(page, 'Low-voltage transformer')).toHaveText('2');
+	await expect(qty(page, 'Direct-burial cable')).not.toHaveText(cable!);
+	expect(Number(await qty(page, 'Direct-burial cable').textContent())).toBeGreaterThan(
+		Number(cable) + 40
+	);
+	await expect(page.getByTestId('plan-drawing').getByTestId('plan-run')).toHaveCount(2);
+	await page.screenshot({ path: test.info().outputPath('builder-polygon.png'), fullPage: true });
+
+	const saved = savedOnce(page);
+	await page.getByLabel('Design', { exact: true }).fill('Columns, pebbles and two light runs');
+	await saved;
+	await expect(page.getByTestId('save-status')).toHaveText(/All changes saved/);
+	const [row] = await sql`select id, design from estimates where lead_id = ${lead.id}`;
+	const design = row.design as {
+		aggregates: { name: string; areas: { shape: string; pointsFt?: number[][] }[] }[];
+		lighting: { runs: unknown[]; transformers: unknown[] };
+	};
+	const stored = design.aggregates.find((a) => a.name === name)!;
+	expect(stored.areas[0]).toEqual({
+		shape: 'polygon',
+		pointsFt: [
+			[0, 0],
+			[6, 0],
+			[6, 8],
+			[0, 4],
+			[-3, 2]
+		]
+	});
+	expect(design.lighting.runs).toHaveLength(2);
+	expect(design.lighting.transformers).toHaveLength(2);
+
+	// Sent, then past its date: the link answers 404 with the plain page.
+	await page.getByRole('button', { name: /^Send to/ }).click();
+	await expect(page.getByTestId('estimate-status')).toHaveText('Sent');
+	const mail = await waitForMail(lead.email, /Your estimate from/);
+	const link = linkIn(mail, /^\/estimate\/[A-Za-z0-9_-]+$/);
+	await sql`update estimates set expires_at = now() - interval '1 minute' where id = ${row.id}`;
+	const res = await page.goto(link);
+	expect(res?.status()).toBe(404);
 	await expect(
 		page.getByRole('heading', { name: 'This link does not open an estimate' })
 	).toBeVisible();
 	await expect(page.getByText(/R-\d+/)).toHaveCount(0);
+});
+
+test('a wrong link answers 404 with a plain page', async ({ page }) => {
+	for (const token of ['not-a-real-token-0123456789', randomBytes(20).toString('base64url')]) {
+		const res = await page.goto(`/estimate/${token}`);
+		expect(res?.status()).toBe(404);
+		await expect(
+			page.getByRole('heading', { name: 'This link does not open an estimate' })
+		).toBeVisible();
+		await expect(page.getByText(/R-\d+/)).toHaveCount(0);
+		await expect(page.getByText(/Call us at/)).toBeVisible();
+	}
 });

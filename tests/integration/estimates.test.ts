@@ -1,4 +1,5 @@
 import { eq } from 'drizzle-orm';
+import { isHttpError } from '@sveltejs/kit';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { db } from '$lib/server/db';
 import {
@@ -7,6 +8,7 @@ import {
 	estimates,
 	leads,
 	outbox,
+	photos,
 	priceListItems,
 	siteVisits
 } from '$lib/server/db/schema';
@@ -26,6 +28,7 @@ import {
 import { exportCsv, importCsv, loadCatalog } from '$lib/server/pricelist';
 import { previewCsv } from '$lib/server/pricelist-csv';
 import { estimate as runEngine } from '$lib/estimating';
+import { load as homeownerLoad } from '../../src/routes/estimate/[token]/+page.server';
 import { resetDatabase } from '../support/database';
 import { makeUser, seedFirm } from './fixtures';
 import { makeLead, seedCatalog } from './estimates-fixtures';
@@ -260,6 +263,64 @@ describe('sending, tokens and the freeze', () => {
 				)
 			).kind
 		).toBe('unavailable');
+	});
+});
+
+describe("the homeowner's page", () => {
+	type Loaded = Exclude<Awaited<ReturnType<typeof homeownerLoad>>, void>;
+	const open = (token: string) =>
+		homeownerLoad({ params: { token }, setHeaders: () => {} } as never) as Promise<Loaded>;
+	const statusOf = (token: string) =>
+		open(token).then(
+			() => 200,
+			(e: unknown) => (isHttpError(e) ? e.status : 500)
+		);
+
+	it('answers 404 for wrong, expired and replaced links, with the same message', async () => {
+		const { sales, row } = await draft();
+		const sent = await sendEstimate(row.id, sales);
+		if (sent.kind !== 'sent') throw new Error(sent.kind);
+		expect(await statusOf(sent.token)).toBe(200);
+		const renewed = await sendEstimate(row.id, sales);
+		if (renewed.kind !== 'sent') throw new Error(renewed.kind);
+		const messages: string[] = [];
+		for (const token of ['not-a-real-token-at-all-xyz', sent.token]) {
+			const e = await open(token).catch((x: unknown) => x);
+			expect(isHttpError(e) && e.status).toBe(404);
+			messages.push(isHttpError(e) ? e.body.message : '');
+		}
+		await db
+			.update(estimates)
+			.set({ expiresAt: new Date(Date.now() - 1000) })
+			.where(eq(estimates.id, row.id));
+		expect(await statusOf(renewed.token)).toBe(404);
+		expect(new Set(messages).size).toBe(1);
+		expect(messages[0]).not.toMatch(/R-\d|v\d/);
+	});
+
+	it('shows the intake photos of the lead through short-lived signed links, and the design', async () => {
+		const { sales, row, lead } = await draft();
+		const photo = (id: string, context: string) => ({
+			id,
+			leadId: lead.id,
+			context,
+			displayKey: `intake/${id}/display.webp`,
+			thumbKey: `intake/${id}/thumb.webp`,
+			width: 2048,
+			height: 1536,
+			bytes: 1000
+		});
+		await db.insert(photos).values([photo('yard-1', 'intake'), photo('visit-1', 'visit')]);
+		const sent = await sendEstimate(row.id, sales);
+		if (sent.kind !== 'sent') throw new Error(sent.kind);
+		const data = await open(sent.token);
+		if (data.view.kind !== 'open') throw new Error(data.view.kind);
+		expect(data.view.photos.map((p) => p.id)).toEqual(['yard-1']);
+		const thumb = new URL(data.view.photos[0].thumbUrl);
+		expect(thumb.pathname).toContain('intake/yard-1/thumb.webp');
+		expect(thumb.searchParams.get('X-Amz-Expires')).toBe('600');
+		expect(data.view.photos[0].fullUrl).toContain('intake/yard-1/display.webp');
+		expect(data.view.design?.basin?.size).toMatchObject({ shape: 'rectangle' });
 	});
 });
 

@@ -41,6 +41,21 @@ describe('plan drawing layout', () => {
 		expect(other.runs).toHaveLength(0);
 	});
 
+	it('spreads the outlets along the basin when they outnumber the wetted stones', () => {
+		const design = demo();
+		design.outlets.push({
+			id: 'col-4',
+			name: 'Fourth',
+			kind: 'bubbler',
+			bubbleHeightIn: 3,
+			boreIn: 0.8
+		});
+		const plan = planOf(design, inclusionFor(design, includedBuckets(design)));
+		const xs = plan.outlets.map((o) => o.at[0]);
+		// Four outlets over a 6 ft basin: every 1.2 ft from -1.8 to 1.8, none on top of another.
+		expect(xs.map((x) => Math.round(x * 10) / 10)).toEqual([-1.8, -0.6, 0.6, 1.8]);
+	});
+
 	it('places a second topping area beside the first and keeps it in the bounds', () => {
 		const design = demo();
 		design.aggregates[0].areas.push({

@@ -153,8 +153,10 @@ function stonesOf(design: ParsedDesign, include: Inclusion, basinBox: Box | unde
 	};
 }
 
-function outletsOf(design: ParsedDesign, wetAt: readonly Point[]): PlanMarker[] {
+/** An outlet per wetted stone when the counts match; otherwise evenly along the basin. */
+function outletsOf(design: ParsedDesign, wetAt: readonly Point[], span: number): PlanMarker[] {
 	const n = design.outlets.length;
+	const even = (i: number) => [-span / 2 + (span / (n + 1)) * (i + 1), 0] as const;
 	return design.outlets.map((o, i) => {
 		const detail =
 			o.kind === 'bubbler'
@@ -162,7 +164,7 @@ function outletsOf(design: ParsedDesign, wetAt: readonly Point[]): PlanMarker[] 
 				: o.kind === 'spillway'
 					? `spillway, ${fmt(o.widthIn)} in wide`
 					: `spout, ${Math.round(o.flowGph)} gph`;
-		const at = wetAt[i] ?? ([-(n - 1) / 2 + i, 0] as const);
+		const at = wetAt.length === n ? wetAt[i] : even(i);
 		return { n: i + 1, name: o.name, detail, at };
 	});
 }
@@ -233,9 +235,11 @@ export function planOf(design: ParsedDesign, include: Inclusion): Plan {
 	const basin = basinOf(design);
 	const basinBox = basin ? boxOf(basin.points) : undefined;
 	const stones = stonesOf(design, include, basinBox);
+	const span = basinBox ? basinBox.maxX - basinBox.minX : Math.max(design.outlets.length, 2);
 	const outlets = outletsOf(
 		design,
-		stones.wet.map((s) => s.at)
+		stones.wet.map((s) => s.at),
+		span
 	);
 	const { areas, toppings } = toppingsOf(design, include);
 	const everything = [
