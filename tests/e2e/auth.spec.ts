@@ -1,4 +1,4 @@
-import { expect, test } from '@playwright/test';
+import { expect, request, test } from '@playwright/test';
 import { clearMail, linkIn, waitForMail } from '../support/mailbox';
 import { demoUser, signIn } from './pages/staff';
 
@@ -147,4 +147,119 @@ test('a forgotten password is reset through the e-mailed link', async ({ page })
 	await expect(page).toHaveURL(/\/office$/);
 	await page.goto(link);
 	await expect(page.getByRole('heading', { name: 'This link no longer works' })).toBeVisible();
+});
+
+test('the session cookie is HttpOnly, SameSite=Lax and Path=/, with a long random token', async ({
+	baseURL
+}) => {
+	const user = demoUser('crew');
+	const ctx = await request.newContext({
+		baseURL,
+		extraHTTPHeaders: { origin: baseURL!, accept: 'text/html' }
+	});
+	const res = await ctx.post('/sign-in', {
+		form: { email: user.email, password: user.password },
+		maxRedirects: 0
+	});
+	expect(res.status()).toBe(303);
+	const header = res
+		.headersArray()
+		.filter((h) => h.name.toLowerCase() === 'set-cookie')
+		.map((h) => h.value)
+		.find((v) => v.startsWith('rs_session='))!;
+	const attributes = header.split(';').map((a) => a.trim().toLowerCase());
+	expect(attributes).toContain('httponly');
+	expect(attributes).toContain('samesite=lax');
+	expect(attributes).toContain('path=/');
+	// ORIGIN is http here, so no Secure (tests/integration/auth.test.ts covers https).
+	expect(new URL(baseURL!).protocol).toBe('http:');
+	expect(attributes).not.toContain('secure');
+	// The token is long and random: at least 120 bits.
+	expect(header.split(';')[0].slice('rs_session='.length).length).toBeGreaterThanOrEqual(20);
+	await ctx.dispose();
+});
+
+test('a session cookie planted before sign-in is never adopted (no session fixation)', async ({
+	browser,
+	baseURL
+}) => {
+	// The attacker signs in with their own account and plants that token in the victim's browser.
+	const attacker = await browser.newContext();
+	await signIn(await attacker.newPage(), 'crew');
+	const planted = (await attacker.cookies()).find((c) => c.name === 'rs_session')!;
+
+	// The victim's browser sends its credentials with the planted cookie still in the jar.
+	const victim = await browser.newContext();
+	await victim.addCookies([planted]);
+	const owner = demoUser('owner');
+	const res = await victim.request.post('/sign-in', {
+		form: { email: owner.email, password: owner.password },
+		headers: { origin: baseURL!, accept: 'text/html' },
+		maxRedirects: 0
+	});
+	expect(res.status()).toBe(303);
+	const issued = (await victim.cookies()).find((c) => c.name === 'rs_session')!;
+	expect(issued.value).not.toBe(planted.value);
+	const page = await victim.newPage();
+	await page.goto('/office');
+	await expect(page.getByText('Mara Quill · Owner').first()).toBeVisible();
+
+	// The planted token was ended by that sign-in: it opens nothing, least of all the owner's office.
+	const attackerPage = await attacker.newPage();
+	await attackerPage.goto('/office/team');
+	await expect(attackerPage).toHaveURL(/\/sign-in/);
+
+	// A made-up value is cleared at once and never becomes a session either.
+	const guess = await browser.newContext();
+	await guess.addCookies([{ ...planted, value: 'attacker-chosen-value-0123456789' }]);
+	const guessPage = await guess.newPage();
+	await guessPage.goto('/office');
+	await expect(guessPage).toHaveURL(/\/sign-in/);
+	expect((await guess.cookies()).find((c) => c.name === 'rs_session')?.value ?? '').toBe('');
+	await signIn(guessPage, 'sales');
+	const fresh = (await guess.cookies()).find((c) => c.name === 'rs_session')!;
+	expect(fresh.value).not.toBe('attacker-chosen-value-0123456789');
+
+	for (const c of [attacker, victim, guess]) await c.close();
+});
+
+test('a form posted from another site is refused, even with a valid session (CSRF)', async ({
+	baseURL
+}) => {
+	const user = demoUser('owner');
+	const foreign = await request.newContext({
+		baseURL,
+		extraHTTPHeaders: { origin: 'http://evil.example', accept: 'text/html' }
+	});
+	const signInRes = await foreign.post('/sign-in', {
+		form: { email: user.email, password: user.password },
+		maxRedirects: 0
+	});
+	expect(signInRes.status()).toBe(403);
+
+	// Signed in for real, then a cross-site post carrying that cookie changes nothing.
+	const ctx = await request.newContext({
+		baseURL,
+		extraHTTPHeaders: { origin: baseURL!, accept: 'text/html' }
+	});
+	expect(
+		(
+			await ctx.post('/sign-in', {
+				form: { email: user.email, password: user.password },
+				maxRedirects: 0
+			})
+		).status()
+	).toBe(303);
+	const before = await (await ctx.get('/office/team')).text();
+	const forged = await ctx.post('/office/team?/invite', {
+		form: { name: 'Mallory Forge', email: `forged-${Date.now()}@evil.example`, role: 'owner' },
+		headers: { origin: 'http://evil.example' },
+		maxRedirects: 0
+	});
+	expect(forged.status()).toBe(403);
+	const after = await (await ctx.get('/office/team')).text();
+	expect(before).not.toContain('Mallory Forge');
+	expect(after).not.toContain('Mallory Forge');
+	await foreign.dispose();
+	await ctx.dispose();
 });
