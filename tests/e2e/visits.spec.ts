@@ -1,8 +1,10 @@
 // Site visits (issue 6): the salesperson (demo Teo) books a visit on a demo lead, the homeowner
 // confirms through the link in the invitation, the visit is moved and cancelled, every mail carries
-// an .ics invitation; the visit notes are typed at a phone viewport and saved; availability is
-// each salesperson's own.
-import { expect, test, type Page } from '@playwright/test';
+// an .ics invitation; the visit notes are typed at a phone viewport and saved, with a photo whose
+// thumbnail shows on the agenda card and with the notes on the lead page; the first mailed link
+// survives the move and says "cancelled" at the end; availability is each salesperson's own.
+import sharp from 'sharp';
+import { expect, test, type Locator, type Page } from '@playwright/test';
 import { clearMail, linkIn, waitForMail } from '../support/mailbox';
 import { demoUser, signIn } from './pages/staff';
 
@@ -17,6 +19,17 @@ function hasIcs(mail: { attachments?: Attached[] }): boolean {
 			/\.ics$/.test(a.fileName ?? a.generatedFileName ?? '') &&
 			a.contentType.startsWith('text/calendar')
 	);
+}
+
+/** The demo firm's zone (scripts/seed): the agenda's ?day= is a date there. */
+const FIRM_TZ = 'America/Denver';
+
+/** An image that is really on screen: loaded through its signed link, not a broken icon. */
+async function expectLoaded(img: Locator): Promise<void> {
+	await expect(img).toBeVisible();
+	await expect
+		.poll(() => img.evaluate((el) => (el as HTMLImageElement).naturalWidth))
+		.toBeGreaterThan(0);
 }
 
 async function pickSlot(page: Page, notThis = ''): Promise<string> {
@@ -64,7 +77,7 @@ test('sales books, the homeowner confirms, sales moves and cancels; notes on a p
 
 	// Move it to another free time.
 	await expect(page.getByRole('heading', { name: 'Move the visit' })).toBeVisible();
-	await pickSlot(page, first);
+	const second = await pickSlot(page, first);
 	await page.getByRole('button', { name: 'Move the visit' }).click();
 	await expect(page.getByRole('status')).toContainText('Visit moved');
 	const moved = await waitForMail(HOMEOWNER.email, /^Site visit moved/);
@@ -91,8 +104,61 @@ test('sales books, the homeowner confirms, sales moves and cancels; notes on a p
 	await expect(page.getByLabel('Where power is')).toHaveValue('Outlet on the garage wall, 40 ft');
 	await expect(page.getByLabel('Slope', { exact: true })).toHaveValue('gentle');
 
-	// Cancel from the booking page.
+	// A photo of the spot, taken on the phone.
+	const png = await sharp({
+		create: { width: 900, height: 600, channels: 3, background: '#6f8f5a' }
+	})
+		.png()
+		.toBuffer();
+	await page
+		.locator('input[name="photo"]')
+		.setInputFiles({ name: 'side-gate.png', mimeType: 'image/png', buffer: png });
+	await page.getByRole('button', { name: 'Upload photo' }).click();
+	await expect(page.getByText('Photo added.')).toBeVisible();
+	await expectLoaded(page.getByRole('img', { name: 'Visit photo side-gate.png' }));
+	const notesPath = new URL(page.url()).pathname; // the plain upload post left ?/photo on it
+
+	// The agenda card of that day shows the thumbnail, still at phone width.
+	const day = new Intl.DateTimeFormat('en-CA', { timeZone: FIRM_TZ }).format(new Date(second));
+	await page.goto(`/office/visits?day=${day}&view=day&person=all`);
+	const card = page.locator('article').filter({ hasText: HOMEOWNER.name });
+	await expectLoaded(card.getByRole('img', { name: 'Visit photo: side-gate.png' }));
+	const agendaWidth = await page.evaluate(() => document.documentElement.scrollWidth);
+	expect(agendaWidth, 'agenda fits 390 px with thumbnails').toBeLessThanOrEqual(390);
+	await page.screenshot({ path: test.info().outputPath('agenda-390.png'), fullPage: true });
+	await page.emulateMedia({ media: 'print' });
+	await expect(card.getByRole('img', { name: 'Visit photo: side-gate.png' })).toBeHidden();
+	await expect(card).toContainText(HOMEOWNER.name);
+	await page.emulateMedia({ media: 'screen' });
+
+	// The lead page shows the notes, read-only, with the cautions and the photo.
 	await page.setViewportSize({ width: 1280, height: 900 });
+	await page.goto(`/office/leads?q=${encodeURIComponent(HOMEOWNER.name)}`);
+	await page.getByRole('link', { name: HOMEOWNER.name }).click();
+	const summary = page.getByRole('region', { name: 'Site visit notes' });
+	await expect(summary).toContainText('14 ft long × 9.5 ft wide');
+	await expect(summary).toContainText('Outlet on the garage wall, 40 ft');
+	await expect(summary).toContainText('gentle');
+	await expect(summary).toContainText('Gate 38 in wide; a mini loader fits.');
+	await expect(summary).toContainText('Locate request not made yet.');
+	await expect(summary).toContainText('licensed electrician');
+	await expectLoaded(summary.getByRole('img', { name: 'Visit photo: side-gate.png' }));
+	await summary.screenshot({ path: test.info().outputPath('lead-visit-notes.png') });
+	// Not also among the inquiry's photos.
+	await expect(
+		page.getByRole('region', { name: 'Photos of the spot' }).getByRole('img')
+	).toHaveCount(0);
+	await summary.getByRole('link', { name: 'Open the visit notes' }).click();
+	await expect(page).toHaveURL((url) => url.pathname === notesPath);
+
+	// Delete the photo again: the first tap only asks.
+	await page.getByText('Delete…').click();
+	await page.getByRole('button', { name: 'Yes, delete it' }).click();
+	await expect(page.getByText('Photo deleted.')).toBeVisible();
+	await expect(page.getByRole('img', { name: 'Visit photo side-gate.png' })).toHaveCount(0);
+	await expect(page.getByText('No photos from this visit yet.')).toBeVisible();
+
+	// Cancel from the booking page.
 	await page.getByRole('link', { name: 'Move or cancel' }).click();
 	await page.getByLabel(/Reason for cancelling/).fill('Homeowner travelling; will call back');
 	await page.getByRole('button', { name: 'Cancel the visit' }).click();
@@ -101,6 +167,13 @@ test('sales books, the homeowner confirms, sales moves and cancels; notes on a p
 	const cancelled = await waitForMail(HOMEOWNER.email, /^Site visit cancelled/);
 	expect(hasIcs(cancelled)).toBe(true);
 	expect(hasIcs(await waitForMail(teo.email, /^Site visit cancelled/))).toBe(true);
+
+	// The link from the very first e-mail survived the move and now says the visit is cancelled.
+	const late = await page.context().browser()!.newPage();
+	await late.goto(linkIn(booked, /^\/visit\//));
+	await expect(late.getByRole('heading', { name: 'This visit is cancelled' })).toBeVisible();
+	await expect(late.getByRole('button', { name: 'Confirm the visit' })).toHaveCount(0);
+	await late.close();
 });
 
 test('a salesperson edits their own availability, with messages beside the fields', async ({
