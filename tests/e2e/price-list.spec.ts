@@ -56,6 +56,8 @@ test('sales reads and exports the price list but has no import', async ({ page }
 	await page.goto('/office/price-list');
 	await expect(page.getByRole('link', { name: 'Export pumps CSV' })).toBeVisible();
 	await expect(page.getByRole('link', { name: 'Import CSV' })).toHaveCount(0);
+	const basin = page.getByTestId('task-hours').getByRole('row', { name: /Dig and set the basin/ });
+	await expect(basin).toContainText(/\d/);
 	const labor = await page.request.get('/office/price-list/export?list=labor');
 	expect(labor.status()).toBe(200);
 	expect((await labor.text()).split('\r\n')[0]).toBe(

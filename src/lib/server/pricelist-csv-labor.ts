@@ -173,9 +173,15 @@ export function rowToLabor(cells: Record<string, string>, line: number): LaborRo
 	return { line, key, label: '', detail: '', errors: [`kind “${kind}” must be rate or task`] };
 }
 
+/** The engine's labor settings with defaults filled in (the defaults alone if the row is unreadable). */
+function laborSettings(engine: unknown): LaborHours {
+	const parsed = settingsSchema.safeParse(engine ?? {});
+	return (parsed.success ? parsed.data : settingsSchema.parse({})).labor;
+}
+
 /** Task hours read out of the engine's settings (defaults filled in). */
 export function taskHours(engine: unknown): { spec: LaborTaskSpec; hours: number }[] {
-	const labor = settingsSchema.parse(engine ?? {}).labor;
+	const labor = laborSettings(engine);
 	return LABOR_TASKS.map((spec) => ({
 		spec,
 		hours: spec.path.length === 1 ? (labor[spec.path[0]] as number) : labor.stoneHours[spec.path[1]]
@@ -198,7 +204,7 @@ export function withLabor(engine: Record<string, unknown>, records: readonly Lab
 }
 
 export function laborToCsv(rates: readonly LaborRateRecord[], engine: unknown): string {
-	const wanted = settingsSchema.parse(engine ?? {}).labor.rateId;
+	const wanted = laborSettings(engine).rateId;
 	const defaultId = rates.find((r) => r.id === wanted)?.id ?? rates[0]?.id;
 	return toCsv([
 		LABOR_COLUMNS,

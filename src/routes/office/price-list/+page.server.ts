@@ -16,7 +16,7 @@ import {
 	settingsFormSchema,
 	upsertItems
 } from '$lib/server/pricelist';
-import { CSV_COLUMNS, rowToItem } from '$lib/server/pricelist-csv';
+import { CSV_COLUMNS, rowToItem, taskHours } from '$lib/server/pricelist-csv';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -27,7 +27,13 @@ export const load: PageServerLoad = async (event) => {
 		db.select().from(laborRates).orderBy(asc(laborRates.id)),
 		estimatingConfig()
 	]);
-	return { items, pumps, rates, config, canEdit: user.role === 'owner' };
+	const hours = taskHours(config.engine).map(({ spec, hours }) => ({
+		id: spec.id,
+		label: spec.label,
+		unit: spec.unit,
+		hours
+	}));
+	return { items, pumps, rates, config, taskHours: hours, canEdit: user.role === 'owner' };
 };
 
 export const actions: Actions = {
