@@ -32,6 +32,16 @@ describe('price-list CSV', () => {
 			])
 		);
 	});
+	it('says a negative price is negative, and an unknown unit which units it takes', () => {
+		const p = previewCsv(
+			'sku,name,category,unit,unit_cost,unit_price\nA,Thing,other,furlong,-1.00,2.5.0\n'
+		);
+		expect(p.rows[0].errors).toEqual([
+			'unit “furlong” is not one of each, ft, ft2, ft3, yd3, ton, lb, bag, load',
+			'unit_cost must not be negative',
+			'unit_price must be dollars and cents, such as 24.00'
+		]);
+	});
 	it('checks engine attributes through the engine schema', () => {
 		const p = previewCsv(
 			'sku,name,category,unit,unit_cost,unit_price,pipe_material,pipe_size\nP,Pipe,pipe,ft,1.00,2.00,pvc-sch40,9/8\n'

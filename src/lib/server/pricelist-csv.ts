@@ -97,8 +97,12 @@ export function rowToItem(cells: Record<string, string>, line: number): RowResul
 	}
 	const cost = parseDollars(get('unit_cost'));
 	const price = parseDollars(get('unit_price'));
-	if (cost === null) errors.push('unit_cost must be dollars and cents, such as 12.50');
-	if (price === null) errors.push('unit_price must be dollars and cents, such as 24.00');
+	const money = (col: string, example: string) =>
+		get(col).startsWith('-')
+			? `${col} must not be negative`
+			: `${col} must be dollars and cents, such as ${example}`;
+	if (cost === null) errors.push(money('unit_cost', '12.50'));
+	if (price === null) errors.push(money('unit_price', '24.00'));
 	const taxableText = get('taxable').toLowerCase() || 'yes';
 	if (!['yes', 'no', 'true', 'false', '1', '0'].includes(taxableText)) {
 		errors.push('taxable must be yes or no');
