@@ -9,9 +9,10 @@ import { photos } from '$lib/server/db/schema';
 import { PhotoError } from '$lib/server/images';
 import { getObject } from '$lib/server/storage';
 import { agendaThumbs, storeVisitPhoto, visitPhotoLinks } from '$lib/server/visit-photos';
-import { bookVisit } from '$lib/server/visits';
+import { bookVisit, saveNotes } from '$lib/server/visits';
 import { zonedInstant } from '$lib/scheduling/zone';
 import { actions } from '../../src/routes/office/visits/[id]/+page.server';
+import { load as leadLoad } from '../../src/routes/office/leads/[id]/+page.server';
 import { resetDatabase } from '../support/database';
 import { makeUser, makeVisitLead, seedFirm, setHours } from './fixtures';
 
@@ -224,5 +225,47 @@ describe('agenda thumbnails', () => {
 		expect(thumbs.has(otherVisit.id)).toBe(false);
 		const res = await fetch(thumbs.get(visit.id)![1].thumbUrl);
 		expect([res.status, res.headers.get('content-type')]).toEqual([200, 'image/webp']);
+	});
+});
+
+describe('the lead page', () => {
+	it("shows the visit's notes and photos read-only, and keeps visit photos out of the inquiry's", async () => {
+		const { sales, lead, visit } = await bookedVisit();
+		const bytes = new Uint8Array(
+			await sharp({ create: { width: 640, height: 480, channels: 3, background: '#4f6a8c' } })
+				.jpeg()
+				.toBuffer()
+		);
+		await storeVisitPhoto(visit.id, 'north-corner.jpg', bytes, sales.id);
+		await saveNotes(
+			visit.id,
+			{
+				spotLengthFt: 14,
+				slope: 'gentle',
+				locateRequested: 'no',
+				powerLocation: 'Garage',
+				notes: 'Roots'
+			},
+			sales.id
+		);
+		const data = (await leadLoad({
+			params: { id: lead.id },
+			locals: { user: { ...sales } },
+			url: new URL(`http://127.0.0.1/office/leads/${lead.id}`)
+		} as never)) as {
+			photos: unknown[];
+			visitNotes: {
+				id: string;
+				notes: Record<string, unknown>;
+				photos: { originalName: string; thumbUrl: string }[];
+			}[];
+		};
+		expect(data.photos).toEqual([]);
+		expect(data.visitNotes).toHaveLength(1);
+		const [shown] = data.visitNotes;
+		expect(shown.id).toBe(visit.id);
+		expect(shown.notes).toMatchObject({ spotLengthFt: 14, slope: 'gentle', locateRequested: 'no' });
+		expect(shown.photos.map((p) => p.originalName)).toEqual(['north-corner.jpg']);
+		expect((await fetch(shown.photos[0].thumbUrl)).status).toBe(200);
 	});
 });
