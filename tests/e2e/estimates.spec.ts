@@ -209,6 +209,22 @@ test('the builder takes a polygon topping and a second lighting run; an expired 
 	await expect(page.getByTestId('plan-drawing').getByTestId('plan-run')).toHaveCount(2);
 	await page.screenshot({ path: test.info().outputPath('builder-polygon.png'), fullPage: true });
 
+	// A second wall, then an alternate that holds it: its lines move under the alternate's choice.
+	const walls = await page.getByTestId('wall').count();
+	await page.getByRole('button', { name: 'Add a wall' }).click();
+	const wall = page.getByTestId('wall').nth(walls);
+	const wallName = `Wall ${walls + 1}`;
+	await expect(qty(page, `${wallName} units`)).toBeVisible();
+	await page.getByRole('button', { name: 'Add an alternate' }).click();
+	const alternate = page.getByTestId('alternate').last();
+	await alternate.getByLabel('Alternate name').fill('Edge');
+	await alternate.getByLabel('Choice 1', { exact: true }).fill('Boulders only');
+	await alternate.getByLabel('Choice 2', { exact: true }).fill('Second wall');
+	await wall.getByLabel('Part of').selectOption({ label: 'Edge: Second wall' });
+	const takeoff = page.getByTestId('takeoff');
+	const group = takeoff.locator('tbody').filter({ hasText: 'Edge: Second wall' });
+	await expect(group.getByRole('row').filter({ hasText: `${wallName} units` })).toBeVisible();
+
 	const saved = savedOnce(page);
 	await page.getByLabel('Design', { exact: true }).fill('Columns, pebbles and two light runs');
 	await saved;
@@ -231,6 +247,9 @@ test('the builder takes a polygon topping and a second lighting run; an expired 
 	});
 	expect(design.lighting.runs).toHaveLength(2);
 	expect(design.lighting.transformers).toHaveLength(2);
+	expect(
+		(row.design as { alternates: { name: string }[] }).alternates.map((a) => a.name)
+	).toContain('Edge');
 
 	// Sent, then past its date: the link answers 404 with the plain page.
 	await page.getByRole('button', { name: /^Send to/ }).click();
