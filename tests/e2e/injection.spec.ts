@@ -260,6 +260,23 @@ test('lead notes, calls, details and the close note keep the strings and show th
 	]);
 });
 
+test('the leads CSV export neutralises formulas and keeps the other strings as text', async ({
+	baseURL
+}) => {
+	const formula = `=HYPERLINK("http://evil.example","csv${tag}")`;
+	await makeLead(formula);
+	const owner = await apiAs(baseURL!, 'owner');
+	const res = await owner.get(
+		`/office/leads/export.csv?${new URLSearchParams({ q: `csv${tag}` })}`
+	);
+	expect(res.status()).toBe(200);
+	const lines = (await res.text()).trim().split('\r\n');
+	expect(lines).toHaveLength(2);
+	// A spreadsheet opening the file shows the text instead of running it.
+	expect(lines[1]).toContain(`"'=HYPERLINK(""http://evil.example"",""csv${tag}"")"`);
+	await owner.dispose();
+});
+
 test('visit notes keep the strings and show them as text', async ({ baseURL, page }) => {
 	const [visit] =
 		await sql`select id from site_visits where status = 'booked' order by starts_at desc limit 1`;

@@ -85,12 +85,15 @@ test('mail written while SMTP is down waits in the outbox and arrives once it is
 		const shownAt = Date.now();
 		await fillInquiry(page, email);
 		await send(page, shownAt);
-		// The lead is saved and its acknowledgement is queued, not lost.
+		// The lead is saved; its acknowledgement was tried, failed, and waits in the outbox.
 		await expect(async () => {
-			const queued = await sql`select sent_at, attempts from outbox where "to" = ${email}`;
+			const queued =
+				await sql`select sent_at, attempts, last_error from outbox where "to" = ${email}`;
 			expect(queued).toHaveLength(1);
 			expect(queued[0].sent_at).toBeNull();
-		}).toPass({ timeout: 20_000 });
+			expect(queued[0].attempts).toBeGreaterThan(0);
+			expect(queued[0].last_error).not.toBeNull();
+		}).toPass({ timeout: 30_000 });
 	});
 	const number = (await page.getByText(/^R-\d+$/).textContent())!;
 	// pg-boss retries with backoff (5 s doubling): allow for a few rounds.
