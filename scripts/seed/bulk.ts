@@ -132,8 +132,15 @@ const STAGES: [string, number][] = [
 const REASONS = ['not_a_fit', 'no_reply', 'budget', 'timing', 'chose_another_firm', 'other'];
 
 // A small seeded generator, so two runs make the same shape of data.
+// mulberry32 in 32-bit integer arithmetic: the earlier LCG multiplied past 2^53 in floating
+// point and fell into a cycle of 473 values, so the bulk data repeated the same 473 leads.
 let seed = 20270401;
-const rnd = () => (seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648;
+const rnd = () => {
+	seed = (seed + 0x6d2b79f5) | 0;
+	let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
+	t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
+	return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+};
 const pick = <T>(a: readonly T[]) => a[Math.floor(rnd() * a.length)];
 const id = () => randomBytes(12).toString('base64url');
 const run = randomBytes(3).toString('hex');
