@@ -106,9 +106,10 @@ async function main() {
 		['--import', 'tsx', import.meta.filename, '--baseline', user.id],
 		{ env: { ...process.env, DATABASE_URL: url }, stdio: ['ignore', 'ignore', 'inherit'] }
 	);
+	// SIGKILL: the app keeps its database pool open after SIGTERM and would linger.
 	const stop = () => {
-		app.kill();
-		base.kill();
+		app.kill('SIGKILL');
+		base.kill('SIGKILL');
 	};
 	process.on('exit', stop);
 	try {
@@ -150,6 +151,12 @@ async function main() {
 			);
 			console.log(lines.slice(-5).join('\n'));
 		}
+		// The app's fixed cost per request, without the list query: the session lookup, the role
+		// check and SvelteKit, answered with a 400 for an unknown parameter before any list SQL.
+		const floor = await cannon(`${appUrl}/api/leads?bench=floor`, { cookie });
+		console.log(
+			`app floor (session lookup + role check + a 400, no list SQL): p50 ${floor.latency.p50} ms   p99 ${floor.latency.p99} ms   ${floor.requests.average.toFixed(0)} req/s\n`
+		);
 		console.log('Query plans (EXPLAIN ANALYZE):');
 		for (const c of CASES) {
 			const q = parseLeadQuery(new URLSearchParams(c.search));
