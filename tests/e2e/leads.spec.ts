@@ -159,3 +159,45 @@ test('crew is refused the leads page and API, and sees no Leads link', async ({ 
 	const api = await page.request.get('/api/leads');
 	expect(api.status()).toBe(403);
 });
+
+test.describe('on a tablet', () => {
+	test.use({ viewport: { width: 1024, height: 768 }, hasTouch: true });
+
+	test('the table fits the screen without sideways scrolling and a tap opens the lead', async ({
+		page
+	}) => {
+		await signIn(page, 'owner');
+		await page.goto(`/office/leads?stage=new&q=${token}&sort=name&dir=asc`);
+		const rows = page.locator('tbody tr[data-lead]');
+		await expect(rows.first()).toContainText(`Pondfinder 01 ${run}`);
+		const overflow = (selector: string) =>
+			page
+				.locator(selector)
+				.first()
+				.evaluate((el) => el.scrollWidth - el.clientWidth);
+		expect(await overflow('html')).toBe(0);
+		expect(await overflow('table >> xpath=..')).toBe(0);
+		await expect(page.getByRole('columnheader', { name: 'Reply wait' })).toBeInViewport();
+		await rows.first().getByText('Alder Crossing').tap();
+		await expect(page.getByRole('heading', { level: 1 })).toHaveText(`Pondfinder 01 ${run}`);
+	});
+});
+
+test.describe('on a tablet held upright', () => {
+	test.use({ viewport: { width: 768, height: 1024 }, hasTouch: true });
+
+	test('the leads and their reply wait fit the width of the page', async ({ page }) => {
+		await signIn(page, 'owner');
+		await page.goto(`/office/leads?stage=new&q=${token}&sort=name&dir=asc`);
+		const first = page.locator('tbody tr[data-lead]').first();
+		await expect(first).toContainText(`Pondfinder 01 ${run}`);
+		const main = page.locator('#office-main');
+		expect(await main.evaluate((el) => el.scrollWidth - el.clientWidth)).toBe(0);
+		expect(
+			await page.locator('table >> xpath=..').evaluate((el) => el.scrollWidth - el.clientWidth)
+		).toBe(0);
+		// The eighth cell is the reply wait: every lead of this run has waited three days.
+		await expect(first.locator('td').nth(7)).toContainText('waiting');
+		await expect(first.locator('td').nth(7)).toBeInViewport();
+	});
+});
