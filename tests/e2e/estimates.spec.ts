@@ -83,6 +83,12 @@ test('build, send, accept on a phone, sold in the office', async ({ page, browse
 	expect(await page.getByTestId('print-deposit').textContent()).toBe(
 		formatCents(saved.deposit_cents)
 	);
+	// The printed estimate carries the plan too.
+	await page.emulateMedia({ media: 'print' });
+	await expect(page.getByTestId('print-plan').getByRole('img').first()).toBeVisible();
+	await expect(page.getByTestId('plan-drawing')).toBeHidden();
+	await page.screenshot({ path: test.info().outputPath('print.png'), fullPage: true });
+	await page.emulateMedia({ media: 'screen' });
 
 	await page.getByRole('button', { name: /^Send to/ }).click();
 	await expect(page.getByTestId('estimate-status')).toHaveText('Sent');
