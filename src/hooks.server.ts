@@ -6,13 +6,18 @@ import { handleGuard } from '$lib/server/hooks/guard';
 import { handleHeaders } from '$lib/server/hooks/headers';
 import { handleOutage, handleServerError } from '$lib/server/hooks/outage';
 import { handleSession } from '$lib/server/hooks/session';
+import { MissingSecretError, missingSecrets } from '$lib/server/env';
 
 export const handle = sequence(handleHeaders, handleOutage, handleSession, handleGuard);
 export const handleError = handleServerError;
 
 /** Starts the queue workers in each app process; the app keeps serving if the queue cannot start yet. */
 export const init: ServerInit = async () => {
-	if (building || process.env.RILLSTONE_WORKERS === 'off') return;
+	if (building) return;
+	// Refuse to start rather than run on a guessable secret; `npm start`/`npm test` pass local ones.
+	const [missing] = missingSecrets();
+	if (missing) throw new MissingSecretError(missing);
+	if (process.env.RILLSTONE_WORKERS === 'off') return;
 	const tryStart = () =>
 		startWorkers().catch((error) => {
 			console.error('[queue] workers not started, retrying in 10 s:', (error as Error).message);

@@ -74,6 +74,8 @@ export function appEnv(profile: Profile): Record<string, string> {
 		HOST: c.host,
 		PORT: String(c.appPort),
 		BODY_SIZE_LIMIT: process.env.BODY_SIZE_LIMIT ?? '64M',
+		// Local values for the stand-ins only: the app itself has no default for any secret.
+		FORM_SECRET: process.env.FORM_SECRET ?? `rillstone-local-form-${profile}`,
 		PAYMENTS_SECRET_KEY: process.env.PAYMENTS_SECRET_KEY ?? 'sk_test_rillstone_local',
 		PAYMENTS_WEBHOOK_SECRET: process.env.PAYMENTS_WEBHOOK_SECRET ?? 'whsec_rillstone_local',
 		PAYMENTS_API_HOST: process.env.PAYMENTS_API_HOST ?? c.host,

@@ -16,7 +16,7 @@ import { fieldErrors } from '$lib/schema/auth';
 import { db } from './db';
 import { activities, contacts, leads, photos, properties, users } from './db/schema';
 import { newId, newToken } from './crypto';
-import { env, origin } from './env';
+import { env, origin, requireSecret } from './env';
 import { PhotoError, checkPhotoSize, processPhoto, type ProcessedPhoto } from './images';
 import { acknowledgment, ownerAlert } from './intake-mail';
 import { isDatabaseUnavailable } from './outage';
@@ -154,7 +154,7 @@ function statusOf(error: PhotoError): number {
 export const HONEYPOT = 'website';
 
 function secret(): string {
-	return env.FORM_SECRET ?? `rillstone-form:${env.DATABASE_URL ?? ''}`;
+	return requireSecret('FORM_SECRET');
 }
 
 const sign = (value: string) => createHmac('sha256', secret()).update(value).digest('base64url');

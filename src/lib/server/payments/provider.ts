@@ -2,12 +2,12 @@
 // stand-in (host, port, protocol from the environment); with real keys and no overrides it
 // talks to the provider itself, with no code change.
 import Stripe from 'stripe';
-import { env } from '../env';
+import { env, requireSecret } from '../env';
 
 let client: Stripe | null = null;
 
 export function paymentsClient(): Stripe {
-	client ??= new Stripe(env.PAYMENTS_SECRET_KEY ?? 'sk_test_rillstone_local', {
+	client ??= new Stripe(requireSecret('PAYMENTS_SECRET_KEY'), {
 		host: env.PAYMENTS_API_HOST,
 		port: env.PAYMENTS_API_PORT ? Number(env.PAYMENTS_API_PORT) : undefined,
 		protocol: (env.PAYMENTS_API_PROTOCOL as 'http' | 'https' | undefined) ?? undefined,
@@ -18,7 +18,7 @@ export function paymentsClient(): Stripe {
 }
 
 export function webhookSecret(): string {
-	return env.PAYMENTS_WEBHOOK_SECRET ?? 'whsec_rillstone_local';
+	return requireSecret('PAYMENTS_WEBHOOK_SECRET');
 }
 
 export interface CheckoutRequest {
