@@ -15,8 +15,10 @@ import {
 	cancelVisit,
 	rescheduleVisit,
 	sendVisitReminder,
+	saveNotes,
 	visitByToken
 } from '$lib/server/visits';
+import { actions as visitPageActions } from '../../src/routes/office/visits/[id]/+page.server';
 import {
 	actions as homeownerActions,
 	load as homeownerLoad
@@ -499,5 +501,56 @@ describe('GET /api/visits/slots', () => {
 			label: '10:00 AM EDT'
 		});
 		expect(ok.body.slots).toHaveLength(17);
+	});
+});
+
+describe("a visit's notes", () => {
+	const postNotes = async (visitId: string, user: { id: string; role: string }, notes: string) => {
+		const body = new FormData();
+		body.set('notes', notes);
+		const url = `http://127.0.0.1/office/visits/${visitId}?/notes`;
+		try {
+			return await visitPageActions.notes({
+				params: { id: visitId },
+				locals: { user: { email: 'x@test.example', name: 'X', ...user } },
+				url: new URL(url),
+				request: new Request(url, { method: 'POST', body })
+			} as never);
+		} catch (e) {
+			return { status: (e as { status: number }).status };
+		}
+	};
+
+	it("refuses another salesperson's closed visit and keeps its notes; its own salesperson and the owner may save", async () => {
+		const other = await makeUser('sales', 'una@test.example', 'Una Test');
+		const owner = await makeUser('owner', 'olive@test.example', 'Olive Test');
+		const lead = await makeVisitLead();
+		const visit = await bookVisit({
+			leadId: lead.id,
+			salespersonId: sales.id,
+			startsAt: at('2027-03-15', 9),
+			noteForHomeowner: '',
+			actorId: sales.id
+		});
+		await saveNotes(visit.id, { notes: 'Big cottonwood roots by the fence' }, sales.id);
+		await cancelVisit(visit.id, { reason: '', actorId: sales.id, by: 'staff' });
+
+		expect(await postNotes(visit.id, other, 'Overwritten')).toEqual({ status: 403 });
+		const notesNow = async () =>
+			(await db.select().from(siteVisits).where(eq(siteVisits.id, visit.id)))[0].notes;
+		await expect(notesNow()).resolves.toMatchObject({
+			notes: 'Big cottonwood roots by the fence'
+		});
+
+		expect(await postNotes(visit.id, sales, 'Roots by the fence, north side')).toEqual({
+			saved: true
+		});
+		expect(
+			await postNotes(visit.id, owner, 'Roots by the fence, north side; owner checked')
+		).toEqual({ saved: true });
+		await expect(notesNow()).resolves.toMatchObject({
+			notes: 'Roots by the fence, north side; owner checked'
+		});
+		expect(await postNotes('no-such-visit', owner, 'x')).toEqual({ status: 404 });
 	});
 });

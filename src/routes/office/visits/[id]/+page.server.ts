@@ -41,6 +41,7 @@ export const load: PageServerLoad = async (event) => {
 export const actions: Actions = {
 	notes: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
+		await visitFor(user, event.params.id);
 		const data = await event.request.formData();
 		const parsed = visitNotesSchema.safeParse(Object.fromEntries(data));
 		if (!parsed.success) {
