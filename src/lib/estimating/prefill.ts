@@ -9,6 +9,7 @@ import { SLOPES, SOILS } from '$lib/schema/visits';
 import { demoDesign } from './demo';
 import { designSchema, settingsSchema, type Design, type Settings } from './schema';
 import { analyseStones, type HandlingMethod } from './stones';
+import { starterFromCatalog } from './starter';
 
 export type Notes = Record<string, unknown>;
 type Slope = (typeof SLOPES)[number];
@@ -165,11 +166,17 @@ function sizeToSpot(design: Design, notes: Notes) {
 /**
  * A starting design named for the lead, from the latest visit notes where present; a full design
  * stored in notes.design wins. `engine` is the firm's engine settings (task hours, lifting
- * limits); without them the engine's defaults apply.
+ * limits); without them the engine's defaults apply. `catalog` is the firm's price list: the
+ * standard feature takes its items (see starter.ts); without one it keeps the demo's items.
  */
-export function starterDesign(label: string, notes: Notes | null, engine?: unknown): Design {
+export function starterDesign(
+	label: string,
+	notes: Notes | null,
+	engine?: unknown,
+	catalog?: unknown
+): Design {
 	if (notes && typeof notes.design === 'object' && notes.design) return notes.design as Design;
-	const design = demoDesign();
+	const design = catalog === undefined ? demoDesign() : starterFromCatalog(catalog).design;
 	design.name = label;
 	if (!notes) return design;
 	const parsedSettings = settingsSchema.safeParse(engine ?? {});

@@ -12,6 +12,7 @@ import {
 	type PricedEstimate
 } from '$lib/estimating/overrides';
 import { scopeFromNotes, starterDesign } from '$lib/estimating/prefill';
+import { starterFromCatalog, starterScopeNote } from '$lib/estimating/starter';
 import type { SaveEstimateInput } from '$lib/schema/estimates';
 import { db } from './db';
 import {
@@ -140,17 +141,26 @@ async function insertVersion(
 export async function createEstimate(leadId: string, user: SessionUser) {
 	const found = await leadWithContact(leadId);
 	if (!found) return null;
-	const [notes, config] = await Promise.all([latestVisitNotes(leadId), estimatingConfig()]);
+	const [notes, config, catalog] = await Promise.all([
+		latestVisitNotes(leadId),
+		estimatingConfig(),
+		loadCatalog()
+	]);
 	const label = `${found.contact.name} — water feature`;
+	const gaps = starterScopeNote(starterFromCatalog(catalog).notes);
+	const scope = [scopeFromNotes(notes, found.lead.message), gaps]
+		.filter(Boolean)
+		.join('\n\n')
+		.slice(0, 5000);
 	return db.transaction(async (tx) => {
 		await tx.execute(sql`select id from leads where id = ${leadId} for update`);
 		const id = await insertVersion(
 			tx,
 			leadId,
 			user,
-			starterDesign(label, notes, config.engine),
+			starterDesign(label, notes, config.engine, catalog),
 			[],
-			scopeFromNotes(notes, found.lead.message)
+			scope
 		);
 		await tx
 			.update(leads)
