@@ -160,7 +160,7 @@ describe('branch head adds up', () => {
 		);
 	});
 
-	it('a spillway loses the pipe velocity head on discharge into its reservoir', () => {
+	it('a spillway loses the pipe velocity head on discharge into its reservoir (0.5 in light sheet: common practice, no source)', () => {
 		const outlet: Outlet = {
 			id: 's',
 			name: 'Spillway',
@@ -177,6 +177,71 @@ describe('branch head adds up', () => {
 		);
 		const b = r.branches[0];
 		expect(b.outletHeadM).toBeCloseTo(feet(0.5 / 12) + velocityHead(b.velocityMs), 12);
+	});
+});
+
+describe('one branch worked by hand in US units', () => {
+	// 10 gpm (600 gph) through 20 ft of 3/4 in Schedule 40 PVC (ID 0.824 in, ASTM D1785), C = 150,
+	// two 90° elbows and a ball valve, 2 ft of lift, ending in a spout with a 0.824 in nozzle.
+	// Worked independently of pipes.ts (which uses the SI form, 10.67), in US units:
+	// - Hazen-Williams as NFPA 13 writes it: p = 4.52 Q^1.85 / (C^1.85 d^4.87) psi per ft, Q in gpm,
+	//   d in in: 4.52 × 70.79 / (10 622 × 0.3891) = 0.0774 psi/ft; at 2.307 ft of water per psi
+	//   (6894.757 Pa / 2988.98 Pa) that is 17.86 ft per 100 ft, 3.57 ft over 20 ft.
+	//   Cross-check, Engineering ToolBox's US form, 0.2083 (100/C)^1.852 q^1.852 / d^4.8655 = 17.93 ft
+	//   per 100 ft. The published forms round their constants differently and agree within 1%.
+	// - Velocity v = Q / A = (10 × 231 / 1728 / 60 ft³/s) / (π/4 × (0.824/12)² ft²) = 6.02 ft/s
+	//   (231 in³ to the US gallon, NIST Handbook 44); velocity head v²/2g with g = 32.174 ft/s²
+	//   = 0.5625 ft.
+	// - Minor losses, Crane TP-410 (from memory): K = fT × L/D with fT = 0.025 for 3/4 in:
+	//   elbow 30 → 0.75 each, ball valve 3 → 0.075; (2 × 0.75 + 0.075) × 0.5625 = 0.886 ft.
+	// - The free jet at the nozzle needs its own velocity head: 0.5625 ft (Bernoulli).
+	// Total from the manifold: 2 + 3.57 + 0.886 + 0.5625 = 7.02 ft.
+	const gpm = 10;
+	const dIn = 0.824;
+	const c = 150;
+	const lengthFt = 20;
+	const nfpaPsiPerFt = (4.52 * gpm ** 1.85) / (c ** 1.85 * dIn ** 4.87);
+	const nfpaPer100Ft = nfpaPsiPerFt * 100 * 2.307;
+	const toolboxPer100Ft = (0.2083 * (100 / c) ** 1.852 * gpm ** 1.852) / dIn ** 4.8655;
+	const cfs = (gpm * 231) / 1728 / 60;
+	const vFtS = cfs / ((Math.PI / 4) * (dIn / 12) ** 2);
+	const hvFt = vFtS ** 2 / (2 * 32.174);
+	const within = (actual: number, expected: number, share: number) =>
+		expect(Math.abs(actual - expected) / expected).toBeLessThan(share);
+
+	const r = analyseHydraulics(
+		[{ id: 's', name: 'Spout', kind: 'spout', flowGph: gpm * 60, nozzleIn: dIn }],
+		[branch('b', 's', lengthFt, 2)],
+		undefined,
+		settings(),
+		'us'
+	);
+	const b = r.branches[0];
+
+	it('the hand figures are the ones in the comment', () => {
+		expect(nfpaPsiPerFt).toBeCloseTo(0.0774, 4);
+		expect(nfpaPer100Ft).toBeCloseTo(17.86, 1);
+		expect(toolboxPer100Ft).toBeCloseTo(17.93, 1);
+		expect(vFtS).toBeCloseTo(6.02, 2);
+		expect(hvFt).toBeCloseTo(0.5625, 3);
+	});
+
+	it('velocity 6.02 ft/s and velocity head 0.5625 ft', () => {
+		expect(toFeet(b.velocityMs)).toBeCloseTo(vFtS, 6);
+		expect(toFeet(velocityHead(b.velocityMs))).toBeCloseTo(hvFt, 4);
+	});
+
+	it('friction about 17.9 ft per 100 ft and 3.57 ft over 20 ft, within 1% of both US forms', () => {
+		within(b.lossPer100, nfpaPer100Ft, 0.01);
+		within(b.lossPer100, toolboxPer100Ft, 0.01);
+		within(toFeet(b.frictionLossM), 3.57, 0.01);
+	});
+
+	it('fittings and valve 0.886 ft, the nozzle 0.5625 ft, and 7.02 ft in all from the manifold', () => {
+		expect(toFeet(b.fittingsLossM + b.valveLossM)).toBeCloseTo(0.886, 3);
+		expect(toFeet(b.outletHeadM)).toBeCloseTo(0.5625, 3);
+		within(toFeet(b.headM), 7.02, 0.01);
+		expect(toFeet(r.requiredHeadM)).toBeCloseTo(toFeet(b.headM), 9);
 	});
 });
 
