@@ -50,20 +50,26 @@ describe('basin capacity (US gallon = 231 in³, NIST Handbook 44)', () => {
 	});
 });
 
-describe('daily loss and top-ups', () => {
-	it('evaporation is surface × rate: 24 ft² at 0.25 in/day = 0.5 ft³ = 3.74 gal a day', () => {
+// Evaporation 0.25 in/day, splash 0.05 %/day of the water circulated over a 12 h run, a 1 mm wet
+// film and a minimum of 3 days between top-ups are the schema's defaults: invented defaults, no source.
+describe('daily loss and top-ups (invented defaults, no source)', () => {
+	it('evaporation is surface × rate (invented default, no source): 24 ft² at 0.25 in/day = 0.5 ft³ = 3.74 gal a day', () => {
 		expect(toGal(budget(rect()).evaporationM3PerDay)).toBeCloseTo((0.5 * 1728) / 231, 6);
 	});
 
-	it('splash is a share of the water circulated: 1000 gph × 12 h × 0.05% = 6 gal a day', () => {
+	it('splash is a share of the water circulated (invented default, no source): 1000 gph × 12 h × 0.05% = 6 gal a day', () => {
 		expect(toGal(budget(rect(), { flowM3s: gph(1000) }).splashM3PerDay)).toBeCloseTo(6, 9);
 	});
 
-	it('days between top-ups = reserve / daily loss, and a warning under the minimum', () => {
+	it('days between top-ups = reserve / daily loss, and a warning under the 3-day minimum (invented default, no source)', () => {
 		const b = budget(rect({ fill: { kind: 'gravel', voidFraction: 0.35 } }), {
 			flowM3s: gph(6000)
 		});
-		expect(b.daysBetweenTopUps!).toBeCloseTo(b.usableReserveM3 / b.dailyLossM3, 12);
+		// Worked by hand (231 in³ to the gallon, NIST Handbook 44):
+		// reserve 32 ft³ × 0.35 voids = 11.2 ft³ = 11.2 × 1728 / 231 = 83.78 gal;
+		// evaporation 24 ft² × 0.25 in = 0.5 ft³ = 3.74 gal a day (the whole plan, gravel or not);
+		// splash 6000 gph × 12 h × 0.05 % = 36 gal a day; 83.78 / 39.74 = 2.108 days.
+		expect(b.daysBetweenTopUps!).toBeCloseTo(2.108, 3);
 		expect(b.daysBetweenTopUps!).toBeLessThan(3);
 		expect(b.warnings.join(' ')).toMatch(/days between top-ups/);
 	});
@@ -81,7 +87,7 @@ describe('daily loss and top-ups', () => {
 	});
 });
 
-describe('drain-back', () => {
+describe('drain-back (1 mm wet film: invented default, no source)', () => {
 	it('counts pipe water, a film on wetted stone, and extra volume, and warns on overflow', () => {
 		const basin = rect({ fill: { kind: 'gravel', voidFraction: 0.3 }, extraDrainBackGal: 10 });
 		const b = budget(basin, { pipeDrainBackM3: toSI(2, 'volume', 'gal'), wettedStoneAreaM2: 2 });
