@@ -116,13 +116,18 @@ describe('NIOSH Revised Lifting Equation (NIOSH publication 94-110)', () => {
 	});
 });
 
-describe('handling plan', () => {
+// The NIOSH 23 kg load constant is NIOSH 94-110. The two-thirds team factor is UK HSE L23 guidance
+// (from memory). The 120 lb team-lift limit, the team of at most 4, the 500/1000/1500 lb cart, hoist
+// and loader limits and the machine crew of 2 are invented defaults, no source (schema.ts).
+describe('handling plan (team factor UK HSE L23, from memory; limits invented defaults, no source)', () => {
 	it('one person, then a team sized at two-thirds efficiency, then machines', () => {
 		expect(handlingPlan(20, settings)).toEqual({ method: 'one-person', people: 1 });
 		expect(handlingPlan(40, settings)).toEqual({ method: 'team-lift', people: 3 });
 		// Each member counts for 23 × 2/3 = 15.3 kg: 30 kg takes two, 33 kg already three.
 		expect(handlingPlan(30, settings).people).toBe(2);
 		expect(handlingPlan(33, settings).people).toBe(3);
+		// 150 kg = 331 lb ≤ 500 lb cart; 300 kg = 661 lb ≤ 1000 lb hoist; 600 kg = 1323 lb ≤ 1500 lb
+		// loader; 800 kg = 1764 lb past it (invented defaults, no source).
 		expect(handlingPlan(150, settings).method).toBe('cart');
 		expect(handlingPlan(300, settings).method).toBe('hoist');
 		expect(handlingPlan(600, settings).method).toBe('compact-loader');
@@ -171,7 +176,15 @@ describe('handling plan', () => {
 			wetted: false
 		};
 		const r = analyseStones([small, big], settings);
-		expect(r.crewNeeded).toBe(r.stones[1].handling.people);
+		// Worked by hand from handlingPlan's documented rule (stones.ts): a 48 × 36 × 30 in boulder is an
+		// ellipsoid of semi-axes 24, 18, 15 in, 4/3 π × 6480 in³ = 27 143 in³ = 0.4448 m³; granite at
+		// 2.65 g/cm³ (midpoint of 2.6–2.7, Alden) gives 1179 kg = 2599 lb, past the 1500 lb loader
+		// limit, so a larger machine. People: the largest team still guides it; team capacity is
+		// min(120 lb = 54.4 kg, 4 × 23 kg × 2/3 = 61.3 kg) = 54.4 kg, which takes ⌈54.4 / 15.33⌉ = 4
+		// people, more than the machine crew of 2 (limits: invented defaults, no source).
+		expect(r.stones[1].weightKg).toBeCloseTo(1178.7, 0);
+		expect(r.stones[1].handling).toEqual({ method: 'larger-machine', people: 4 });
+		expect(r.crewNeeded).toBe(4);
 		expect(r.warnings[0]).toMatch(/Big boulder/);
 		expect(r.totalWeightKg).toBeCloseTo(r.stones[0].weightKg * 2 + r.stones[1].weightKg, 9);
 	});
