@@ -86,7 +86,7 @@ describe('volume and weight (1 yd³ = 27 ft³, NIST Handbook 44)', () => {
 		sku: 'P'
 	};
 
-	it('10 × 10 ft at 3 in is 25 ft³ = 0.926 yd³ in place; 10% waste makes it 27.5 ft³', () => {
+	it('10 × 10 ft at 3 in is 25 ft³ = 0.926 yd³ in place; 10% waste (invented default, no source) makes it 27.5 ft³', () => {
 		const r = aggregateResult(bed, pebble, 10);
 		expect(fromSI(r.netVolumeM3, 'volume', 'ft3')).toBeCloseTo(25, 9);
 		expect(fromSI(r.netVolumeM3, 'volume', 'yd3')).toBeCloseTo(25 / 27, 9);

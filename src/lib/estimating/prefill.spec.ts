@@ -14,7 +14,9 @@ function run(design: Design) {
 
 const spot = { spotLengthFt: 10, spotWidthFt: 8, depthAvailableIn: 30, toHouseFt: 40 };
 
-describe('starting design from the visit notes', () => {
+// Every rule checked here is a trade rule of thumb written in prefill.ts: common practice, no source.
+// Hours come from the schema's defaults (invented defaults, no source).
+describe('starting design from the visit notes (common practice, no source; see prefill.ts)', () => {
 	it('is the standard feature named for the lead without notes, and a stored design wins', () => {
 		const plain = starterDesign('Ada — water feature', null);
 		expect(plain).toEqual({ ...demoDesign(), name: 'Ada — water feature' });
@@ -29,7 +31,11 @@ describe('starting design from the visit notes', () => {
 			depthAvailableIn: 18,
 			toHouseFt: 40
 		});
+		// The basin is the spot less 1 ft of stone edge each side: 9 − 2 = 7, 7 − 2 = 5; 18 in deep
+		// (common practice, no source).
 		expect(design.basin?.size).toMatchObject({ lengthFt: 7, widthFt: 5, depthFt: 1.5 });
+		// The demo run's fixture spacing (invented, no source), shifted so the first sits at the
+		// 40 ft to the house.
 		expect(design.lighting?.runs[0].fixtures.map((f) => f.distanceFt)).toEqual([40, 46, 65]);
 		expect(design.extraLabor).toEqual([]);
 	});
@@ -38,7 +44,8 @@ describe('starting design from the visit notes', () => {
 		const hours = (soil: string) =>
 			run(starterDesign('x', { ...spot, soil })).labor.summary.totalHours;
 		const rocky = starterDesign('x', { ...spot, soil: 'rocky' });
-		// Half the basin's 6 h, and half of 65 ft of trench at 0.02 h/ft (0.65 h, to the quarter hour).
+		// Rocky soil digs at ×0.5 extra (common practice, no source): half the basin's 6 h, and half of
+		// 65 ft of trench at 0.02 h/ft (0.65 h, to the quarter hour; hours are invented defaults, no source).
 		expect(rocky.extraLabor).toEqual([
 			{ task: 'Extra digging in rocky soil: basin', hours: 3 },
 			{ task: 'Extra digging in rocky soil: cable trench', hours: 0.75 }
@@ -55,7 +62,9 @@ describe('starting design from the visit notes', () => {
 
 		const steep = starterDesign('x', { ...spot, slope: 'steep' });
 		const wall = steep.walls![0];
-		// A 25% grade across 10 ft falls 30 in: five 6 in courses; 8 ft wide plus two 2 ft returns.
+		// Steep = a 25% grade and 2 ft returns (common practice, no source): 25% across 10 ft falls
+		// 30 in, five 6 in courses; 8 ft wide plus two 2 ft returns = 12 ft. Levelling the pad takes
+		// half the basin's 6 h (common practice, no source).
 		expect(wall).toMatchObject({
 			exposedHeightIn: 30,
 			lengthFt: 12,
@@ -80,8 +89,10 @@ describe('starting design from the visit notes', () => {
 	});
 
 	it('moves stones in by hand when the access is narrower than the cart or loader they need', () => {
-		// The demo's columns ride a stone cart (24 in) or come in for a hoist; the accent boulders
-		// are a team lift and need no gear.
+		// Gear widths: stone cart 24 in, compact loader 36 in (from memory; common practice, no
+		// source). Moving a stone in by hand takes its set hours once more (common practice, no
+		// source). The demo's columns ride a stone cart (24 in) or come in for a hoist; the accent
+		// boulders are a team lift and need no gear.
 		const narrow = starterDesign('x', { ...spot, accessWidthIn: 20 });
 		expect(narrow.extraLabor).toEqual([
 			{
@@ -103,7 +114,7 @@ describe('starting design from the visit notes', () => {
 		);
 	});
 
-	it('counts a loader boulder behind a 30 in gate, with the firm’s own set hours and its option', () => {
+	it('counts a loader boulder behind a 30 in gate, with the firm’s own set hours and its option (36 in loader width: from memory, no source)', () => {
 		const design: Design = {
 			stones: [
 				{

@@ -205,7 +205,7 @@ describe('pump choice', () => {
 		[3500, 0]
 	]);
 
-	it('picks the smallest pump that gives the flow plus the 15% margin at the required head', () => {
+	it('picks the smallest pump that gives the flow plus the 15% margin (common practice, no source) at the required head', () => {
 		// Needs 1000 gph at 7 ft: small gives under 6 ft at 1150 gph (no); medium gives over 10 ft there.
 		const match = matchPump(
 			[large, small, medium],

@@ -14,7 +14,9 @@ const run = (
 	return result;
 };
 
-describe('takeoff lines', () => {
+// Quantities come from the demo design and demo catalog (invented, no source); rounding rules are
+// takeoff.ts's own (invented default, no source).
+describe('takeoff lines (demo catalog, invented defaults, no source)', () => {
 	const result = run();
 	const line = (sku: string) => result.pricing.lines.find((l) => l.sku === sku)!;
 
@@ -23,13 +25,13 @@ describe('takeoff lines', () => {
 		expect(line('PIPE-S40-075').description).toMatch(/Low column.*Middle column.*Tall column/);
 	});
 
-	it('counts fittings and valves from the branches: two elbows and one ball valve per column', () => {
+	it('counts fittings and valves from the branches: a tee, two elbows and one ball valve per column (demo design, invented, no source)', () => {
 		expect(line('FIT-ELL-075').quantity).toBe(6);
 		expect(line('VALVE-BALL-075').quantity).toBe(3);
 		expect(line('FIT-TEE-075').quantity).toBe(3);
 	});
 
-	it('weighs priced-by-ton stone and rounds up to tenths: three basalt columns ≈ 0.71 t → 0.8 t', () => {
+	it('weighs priced-by-ton stone and rounds up to tenths (invented default, no source): three basalt columns ≈ 0.71 t → 0.8 t', () => {
 		const tons = fromSI(
 			result.stones.stones.slice(0, 3).reduce((s, x) => s + x.totalWeightKg, 0),
 			'mass',
@@ -40,11 +42,13 @@ describe('takeoff lines', () => {
 		expect(line('STONE-BASALT-COL').quantity).toBe(0.8);
 	});
 
-	it('fills the basin with gravel by its gross volume: 48 ft³ at 100 lb/ft³ = 2.4 t', () => {
+	it('fills the basin with gravel by its gross volume: 48 ft³ at 100 lb/ft³ = 2.4 t (demo catalog density, invented default, no source)', () => {
+		// 48 ft³ × 100 lb/ft³ = 4800 lb = 2.4 short tons (2000 lb, NIST Handbook 44).
 		expect(line('AGG-GRAVEL-WASHED').quantity).toBe(2.4);
 	});
 
-	it('sells slate chips by the 0.5 ft³ bag: 8 × 6 ft at 2 in + 10% = 8.8 ft³ = 18 bags', () => {
+	it('sells slate chips by the 0.5 ft³ bag: 8 × 6 ft at 2 in + 10% = 8.8 ft³ = 18 bags (10% waste and bag size: invented defaults, no source)', () => {
+		// 48 ft² × 2/12 ft = 8 ft³; + 10% = 8.8 ft³; 8.8 / 0.5 = 17.6 → 18 bags.
 		const slate = result.pricing.lines.find((l) => l.sku === 'AGG-SLATE-CHIP')!;
 		expect(slate.bucket).toBe('topping-slate');
 		expect(slate.quantity).toBe(18);

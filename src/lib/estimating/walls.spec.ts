@@ -42,12 +42,12 @@ describe('courses and units (common practice, no source: bury 6 in or H/8, at le
 	});
 });
 
-describe('base and drainage', () => {
-	it('levelling pad: 40 ft × (12 + 12 in) × 6 in = 40 ft³', () => {
+describe('base and drainage (pad 6 in deep and 12 in wider, 12 in drainage zone: common practice, no source)', () => {
+	it('levelling pad: 40 ft × (12 + 12 in) × 6 in = 40 ft³ (common practice, no source)', () => {
 		expect(fromSI(wallTakeoff(wall(), settings).padVolumeM3, 'volume', 'ft3')).toBeCloseTo(40, 9);
 	});
 
-	it('drainage stone: 12 in deep behind the full built height, 40 ft × 1 ft × 2 ft = 80 ft³', () => {
+	it('drainage stone: 12 in deep behind the full built height, 40 ft × 1 ft × 2 ft = 80 ft³ (common practice, no source)', () => {
 		expect(fromSI(wallTakeoff(wall(), settings).drainVolumeM3, 'volume', 'ft3')).toBeCloseTo(80, 9);
 	});
 });

@@ -5,8 +5,9 @@ import { zonedInstant } from './zone';
 const TZ = 'America/Denver';
 const at = (date: string, hh: number, mm = 0) => zonedInstant(date, hh * 60 + mm, TZ);
 
-describe('reminderPlan', () => {
-	it('sends a day before when the visit is more than 26 hours away', () => {
+// The 24 h, 3 h, 2 h and 5 h lead times are reminders.ts's own (common practice, no source).
+describe('reminderPlan (lead times: common practice, no source)', () => {
+	it('sends a day before when the visit is more than 26 hours away (24 h lead: common practice, no source)', () => {
 		const start = at('2027-03-18', 10);
 		expect(reminderPlan(start, at('2027-03-15', 8))).toEqual({
 			at: at('2027-03-17', 10),
@@ -14,7 +15,7 @@ describe('reminderPlan', () => {
 		});
 	});
 
-	it('sends three hours before when a day-before reminder would come within two hours of the booking', () => {
+	it('sends three hours before when a day-before reminder would come within two hours of the booking (3 h and 2 h: common practice, no source)', () => {
 		// Booked at 08:00 for 09:00 tomorrow: the day-before time (09:00 today) is one hour away.
 		expect(reminderPlan(at('2027-03-16', 9), at('2027-03-15', 8))).toEqual({
 			at: at('2027-03-16', 6),
@@ -26,7 +27,7 @@ describe('reminderPlan', () => {
 		);
 	});
 
-	it('sends none when the visit is under five hours away: the invitation stands in', () => {
+	it('sends none when the visit is under five hours away: the invitation stands in (5 h: common practice, no source)', () => {
 		expect(reminderPlan(at('2027-03-15', 12, 59), at('2027-03-15', 8))).toBeNull();
 		expect(reminderPlan(at('2027-03-15', 10), at('2027-03-15', 8))).toBeNull();
 		expect(reminderPlan(at('2027-03-15', 13), at('2027-03-15', 8))?.leadMinutes).toBe(180);
