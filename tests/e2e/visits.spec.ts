@@ -91,7 +91,16 @@ test('sales books, the homeowner confirms, sales moves and cancels; notes on a p
 	await page.getByLabel('Spot length (ft)').fill('14');
 	await page.getByLabel('Spot width (ft)').fill('9.5');
 	await page.getByLabel('Distance to patio (ft)').fill('6');
+	const form = page.locator('form[action="?/notes"]');
+	await expect(form).toContainText('Local codes and licensed practice come first');
+	await page.getByLabel('Slope', { exact: true }).selectOption('steep');
+	await expect(form).toContainText('A steep slope is levelled with a retaining wall');
 	await page.getByLabel('Slope', { exact: true }).selectOption('gentle');
+	await expect(form).not.toContainText('Retaining wall height');
+	await page.getByLabel('Access width for machines and stones (in)').fill('38');
+	await expect(form).toContainText(
+		'brought in through the 38 in access weigh more than one person'
+	);
 	await page.getByLabel('Locate request (811) made').selectOption('no');
 	await page.getByLabel('Where power is').fill('Outlet on the garage wall, 40 ft');
 	await page.getByLabel('Notes', { exact: true }).fill('Gate 38 in wide; a mini loader fits.');
@@ -142,6 +151,8 @@ test('sales books, the homeowner confirms, sales moves and cancels; notes on a p
 	await expect(summary).toContainText('Gate 38 in wide; a mini loader fits.');
 	await expect(summary).toContainText('Locate request not made yet.');
 	await expect(summary).toContainText('licensed electrician');
+	await expect(summary).toContainText('Heavy stones: lift safely');
+	await expect(summary).toContainText('Local codes and licensed practice come first');
 	await expectLoaded(summary.getByRole('img', { name: 'Visit photo: side-gate.png' }));
 	await summary.screenshot({ path: test.info().outputPath('lead-visit-notes.png') });
 	// Not also among the inquiry's photos.

@@ -16,3 +16,11 @@ export const POWER_CAUTION =
 /** For staff reading the site notes: buried lines before the dig. */
 export const LOCATE_CAUTION =
 	'No digging until the locate request is made (811 in the US, or the local utility-locating service), its waiting period has passed and the lines are marked; dig by hand near the marks.';
+
+/** Before the wall-height caution when the notes record a moderate or steep slope. */
+export const slopeWallReason = (slope: string) =>
+	`A ${slope} slope is levelled with a retaining wall about as tall as the fall; measure the fall and confirm the local height limits before building.`;
+
+/** Who the heavy-stone caution names when the access width is recorded. */
+export const accessStones = (inches: number) =>
+	`Stones and boulders brought in through the ${inches} in access`;
