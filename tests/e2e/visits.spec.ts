@@ -103,6 +103,14 @@ test('sales books, the homeowner confirms, sales moves and cancels; notes on a p
 	);
 	await page.getByLabel('Locate request (811) made').selectOption('no');
 	await page.getByLabel('Where power is').fill('Outlet on the garage wall, 40 ft');
+	// Too long a note is refused beside the field, and everything typed stays.
+	await page.getByLabel('Notes', { exact: true }).fill('x'.repeat(2001));
+	await page.getByRole('button', { name: 'Save notes' }).click();
+	await expect(page.getByText('Keep this under 2000 characters')).toBeVisible();
+	await expect(page.getByLabel('Notes', { exact: true })).toHaveAttribute('aria-invalid', 'true');
+	await expect(page.getByLabel('Spot width (ft)')).toHaveValue('9.5');
+	await expect(page.getByLabel('Slope', { exact: true })).toHaveValue('gentle');
+	await expect(page.getByLabel('Where power is')).toHaveValue('Outlet on the garage wall, 40 ft');
 	await page.getByLabel('Notes', { exact: true }).fill('Gate 38 in wide; a mini loader fits.');
 	const width = await page.evaluate(() => document.documentElement.scrollWidth);
 	expect(width, 'no sideways scrolling at 390 px').toBeLessThanOrEqual(390);

@@ -521,7 +521,7 @@ describe("a visit's notes", () => {
 		}
 	};
 
-	it("refuses another salesperson's closed visit and keeps its notes; its own salesperson and the owner may save", async () => {
+	it("refuses another salesperson's closed visit and keeps its notes; its own salesperson and the owner may save; too long a note comes back with its message and the text", async () => {
 		const other = await makeUser('sales', 'una@test.example', 'Una Test');
 		const owner = await makeUser('owner', 'olive@test.example', 'Olive Test');
 		const lead = await makeVisitLead();
@@ -552,5 +552,12 @@ describe("a visit's notes", () => {
 			notes: 'Roots by the fence, north side; owner checked'
 		});
 		expect(await postNotes('no-such-visit', owner, 'x')).toEqual({ status: 404 });
+		const tooLong = (await postNotes(visit.id, sales, 'y'.repeat(2001))) as {
+			status: number;
+			data: { values: Record<string, string>; errors: Record<string, string> };
+		};
+		expect(tooLong.status).toBe(400);
+		expect(tooLong.data.errors.notes).toBe('Keep this under 2000 characters');
+		expect(tooLong.data.values.notes).toHaveLength(2001);
 	});
 });
