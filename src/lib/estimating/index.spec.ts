@@ -97,9 +97,33 @@ describe('the demo estimate', () => {
 		expect(result.quantities.find((q) => q.id === 'total-flow')!.display).toMatch(/gph$/);
 	});
 
-	it('uses no brand names in the demo: only the invented firm', () => {
+	it('uses no brand names in the demo: every name is made of plain trade words', () => {
 		const text = JSON.stringify([demoDesign(), demoCatalog()]);
 		expect(text).not.toMatch(/®|™/);
+		// A brand name would need a word outside this generic vocabulary; adding one here is a
+		// deliberate, reviewed act. Model letters and sizes (S-900, 16 in) are not words.
+		const generic = new Set(
+			(
+				'a accent and bag ball basalt base basin behind boulder boulders brass burial cable cap ' +
+				'chip chips clean column columns compactable core crushed direct drainage drilled drilling ' +
+				'elbow feature ft granite gravel in installer kit led light liner low manifold middle multi ' +
+				'over path pebble pipe port pump pvc retaining river road round s schedule segmental slate ' +
+				'stone submersible tall tap the three through topping transformer underlayment unit ' +
+				'uplight va valve voltage wall washed'
+			).split(' ')
+		);
+		const names: string[] = [];
+		const collect = (value: unknown, key = ''): void => {
+			if (typeof value === 'string' && key === 'name') names.push(value);
+			else if (Array.isArray(value)) value.forEach((v) => collect(v));
+			else if (value && typeof value === 'object') {
+				for (const [k, v] of Object.entries(value)) collect(v, k);
+			}
+		};
+		collect([demoDesign(), demoCatalog()]);
+		expect(names.length).toBeGreaterThan(40);
+		const words = names.flatMap((n) => n.toLowerCase().match(/[a-z]+/g) ?? []);
+		expect(words.filter((w) => !generic.has(w))).toEqual([]);
 	});
 });
 
