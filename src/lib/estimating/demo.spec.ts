@@ -27,7 +27,16 @@ describe('demo data', () => {
 
 	it('prices in whole cents, with price at or above cost', () => {
 		const c = catalogSchema.parse(demoCatalog());
-		for (const item of c.items) expect(item.unitPrice).toBeGreaterThanOrEqual(item.unitCost);
+		expect(c.items.length).toBeGreaterThan(0);
+		for (const item of c.items) {
+			expect(Number.isInteger(item.unitPrice), item.sku).toBe(true);
+			expect(Number.isInteger(item.unitCost), item.sku).toBe(true);
+			expect(item.unitPrice).toBeGreaterThanOrEqual(item.unitCost);
+		}
 		for (const pump of c.pumps) expect(Number.isInteger(pump.priceCents)).toBe(true);
+		for (const rate of c.laborRates) {
+			expect(Number.isInteger(rate.pricePerHourCents)).toBe(true);
+			expect(Number.isInteger(rate.costPerHourCents)).toBe(true);
+		}
 	});
 });

@@ -108,7 +108,8 @@ describe('bucket totals, worked by hand', () => {
 			...settings,
 			taxAppliesTo: 'all'
 		});
-		expect(t.taxCents).toBe(roundCents(18000 * 1.1 * 0.08));
+		// 10000 materials + 1 h at 8000 = 18000; × 1.10 markup = 19800; × 8% tax = 1584.
+		expect(t.taxCents).toBe(1584);
 	});
 });
 
