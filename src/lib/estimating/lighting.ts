@@ -6,7 +6,8 @@ export const GAUGES = ['16', '14', '12', '10', '8'] as const;
 export type Gauge = (typeof GAUGES)[number];
 
 // NEC (NFPA 70) Chapter 9, Table 8, DC resistance at 75 °C, uncoated stranded copper,
-// ohms per 1000 ft. 12 AWG 1.98 as quoted in the brief; the others from memory (the table's solid
+// ohms per 1000 ft. 12 AWG stranded uncoated 1.98 Ω/kft (NEC (NFPA 70) Chapter 9 Table 8); the
+// others from memory (the table's solid
 // column, 3.07 / 1.93 / 1.21 / 0.764 for 14 / 12 / 10 / 8 AWG, is reprinted at voltdropcalc.com).
 export const COPPER_OHMS_PER_KFT: Record<Gauge, number> = {
 	'16': 4.99,
