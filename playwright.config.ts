@@ -9,6 +9,7 @@ export default defineConfig({
 	fullyParallel: false,
 	workers: 1,
 	retries: 0,
+	forbidOnly: true,
 	timeout: 60_000,
 	reporter: [['list']],
 	use: {

@@ -9,6 +9,8 @@ export default defineConfig({
 	preview: { host: '127.0.0.1' },
 	test: {
 		expect: { requireAssertions: true },
+		// A committed .only fails the run instead of silently skipping the rest.
+		allowOnly: false,
 		projects: [
 			{
 				extends: './vite.config.ts',
