@@ -396,6 +396,45 @@ describe("the homeowner's link", () => {
 		expect(stored.confirmedAt).not.toBeNull();
 	});
 
+	it('refuses a cancel reason over 500 characters beside the field, keeps it and the visit', async () => {
+		const lead = await makeVisitLead();
+		const visit = await bookVisit({
+			leadId: lead.id,
+			salespersonId: sales.id,
+			startsAt: at('2027-03-15', 9),
+			noteForHomeowner: '',
+			actorId: sales.id
+		});
+		const token = tokenIn((await homeownerMail(visit.id, '0:booked')).text);
+		const cancel = (reason: string) => {
+			const body = new FormData();
+			body.set('reason', reason);
+			const url = `http://127.0.0.1/visit/${token}?/cancel`;
+			return homeownerActions.cancel({
+				params: { token },
+				request: new Request(url, { method: 'POST', body })
+			} as never);
+		};
+		const tooLong = 'We are moving away. '.repeat(26);
+		const refused = (await cancel(tooLong)) as {
+			status: number;
+			data: { values: { reason: string }; errors: { reason: string } };
+		};
+		expect(refused.status).toBe(400);
+		expect(refused.data.errors.reason).toBe('Keep the reason under 500 characters');
+		expect(refused.data.values.reason).toBe(tooLong);
+		const still = async () =>
+			(await db.select().from(siteVisits).where(eq(siteVisits.id, visit.id)))[0];
+		expect((await still()).status).toBe('booked');
+		expect(await cancel('  We are moving away.  ')).toEqual({
+			done: 'The visit is cancelled. Call us any time to book again.'
+		});
+		expect(await still()).toMatchObject({
+			status: 'cancelled',
+			cancelReason: 'We are moving away.'
+		});
+	});
+
 	it('shows a cancelled visit as cancelled through every link, and refuses to confirm it', async () => {
 		const lead = await makeVisitLead();
 		const visit = await bookVisit({

@@ -1,5 +1,7 @@
 import { error, fail } from '@sveltejs/kit';
 import { z } from 'zod';
+import { fieldErrors, formValues } from '$lib/schema/auth';
+import { cancelSchema } from '$lib/schema/visits';
 import {
 	cancelByHomeowner,
 	confirmByHomeowner,
@@ -52,10 +54,11 @@ export const actions: Actions = {
 	},
 	cancel: async ({ params, request }) => {
 		const data = await request.formData();
-		const reason = String(data.get('reason') ?? '')
-			.trim()
-			.slice(0, 500);
-		if (!(await cancelByHomeowner(params.token, reason))) {
+		const parsed = cancelSchema.safeParse({ reason: data.get('reason') ?? '' });
+		if (!parsed.success) {
+			return fail(400, { values: formValues(data), errors: fieldErrors(parsed.error) });
+		}
+		if (!(await cancelByHomeowner(params.token, parsed.data.reason))) {
 			return fail(410, { message: 'This visit is already cancelled.' });
 		}
 		return { done: 'The visit is cancelled. Call us any time to book again.' };
