@@ -13,10 +13,10 @@ import {
 	saveEstimatingSettings,
 	saveLaborRate,
 	savePump,
-	settingsFormSchema,
-	upsertItems
+	settingsFormSchema
 } from '$lib/server/pricelist';
-import { CSV_COLUMNS, rowToItem, taskHours } from '$lib/server/pricelist-csv';
+import { taskHours } from '$lib/server/pricelist-csv';
+import { itemFormSchema, saveItem } from '$lib/server/pricelist-item-form';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -40,11 +40,16 @@ export const actions: Actions = {
 	item: async (event) => {
 		requireRole(event, 'owner');
 		const data = await event.request.formData();
-		const cells = Object.fromEntries(CSV_COLUMNS.map((c) => [c, String(data.get(c) ?? '')]));
-		const row = rowToItem(cells, 0);
-		if (!row.item) return fail(400, { form: 'item', values: cells, errors: row.errors });
-		await upsertItems([row.item]);
-		return { form: 'item', saved: row.item.sku };
+		const values = formValues(data);
+		const parsed = itemFormSchema.safeParse(values);
+		if (!parsed.success) {
+			return fail(400, { form: 'item', values, fieldErrors: fieldErrors(parsed.error) });
+		}
+		const saved = await saveItem(parsed.data);
+		if ('fieldErrors' in saved) {
+			return fail(400, { form: 'item', values, fieldErrors: saved.fieldErrors });
+		}
+		return { form: 'item', saved: saved.item.sku };
 	},
 	remove: async (event) => {
 		requireRole(event, 'owner');
