@@ -3,6 +3,7 @@
  * licensed practice; none of them is advice for a particular site.
  */
 import type { Project } from './index';
+import type { FeatureType } from './types';
 
 export const cautions = {
 	dig: {
@@ -39,4 +40,22 @@ export function cautionsFor(project: Pick<Project, 'types' | 'facts'>): CautionK
 	if (types.includes('walls')) out.push('walls');
 	if (types.includes('ponds') || (facts.maxDepthIn ?? 0) > 0) out.push('water');
 	return out;
+}
+
+// Which cautions each kind of work calls for, before any particular site is known: every type here
+// digs (a basin, a channel, a cable trench, a footing, a planting hole); water features put a pump
+// in water and set heavy stones; ponds (and streams, which can pool) are open water.
+const SERVICE_CAUTIONS: Record<CautionKind, readonly FeatureType[]> = {
+	dig: ['fountains', 'streams', 'ponds', 'lighting', 'walls', 'paths', 'planting', 'dry-creeks'],
+	electric: ['fountains', 'streams', 'ponds', 'lighting'],
+	stones: ['fountains', 'streams', 'ponds', 'dry-creeks'],
+	walls: ['walls'],
+	water: ['ponds']
+};
+
+/** The cautions a service page shows for the kinds of work the service covers, in a fixed order. */
+export function cautionsForService(service: { types: readonly FeatureType[] }): CautionKind[] {
+	return (Object.keys(SERVICE_CAUTIONS) as CautionKind[]).filter((kind) =>
+		SERVICE_CAUTIONS[kind].some((type) => service.types.includes(type))
+	);
 }

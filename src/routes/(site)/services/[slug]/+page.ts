@@ -1,5 +1,6 @@
 import { error } from '@sveltejs/kit';
 import { projects, serviceBySlug, services } from '$lib/content';
+import { cautionsForService } from '$lib/content/cautions';
 import type { EntryGenerator, PageLoad } from './$types';
 
 export const prerender = true;
@@ -11,5 +12,5 @@ export const load: PageLoad = ({ params }) => {
 	const service = serviceBySlug(params.slug);
 	if (!service) error(404, 'No such service');
 	const examples = projects.filter((p) => p.services.includes(service.slug)).slice(0, 3);
-	return { service, examples };
+	return { service, examples, cautions: cautionsForService(service) };
 };
