@@ -434,13 +434,26 @@ describe('invoices', () => {
 	it('are numbered without gaps under concurrency, one per job and kind', async () => {
 		const made = [];
 		for (let i = 0; i < 6; i++) made.push(await makePaymentJob());
-		const calls = made.flatMap(({ job }) => [
-			ensureInvoice(job.id, 'deposit'),
-			ensureInvoice(job.id, 'deposit'),
-			ensureInvoice(job.id, 'final'),
-			ensureInvoice('no-such-job', 'final').catch(() => null)
-		]);
-		await Promise.all(calls);
+		// A call for a job that does not exist races with the others; it must fail without taking
+		// a number. Its outcome is kept and asserted after the race, not thrown away.
+		const missing: Promise<unknown>[] = [];
+		const calls = made.flatMap(({ job }) => {
+			missing.push(ensureInvoice('no-such-job', 'final'));
+			return [
+				ensureInvoice(job.id, 'deposit'),
+				ensureInvoice(job.id, 'deposit'),
+				ensureInvoice(job.id, 'final')
+			];
+		});
+		const [, missed] = await Promise.all([Promise.all(calls), Promise.allSettled(missing)]);
+		expect(missed).toHaveLength(6);
+		for (const outcome of missed) {
+			expect(outcome.status).toBe('rejected');
+			const reason = (outcome as PromiseRejectedResult).reason;
+			expect(reason).toBeInstanceOf(PaymentError);
+			expect(reason).toMatchObject({ code: 'not_found', message: 'There is no such job.' });
+		}
+		await expect(ensureInvoice('no-such-job', 'final')).rejects.toThrow('There is no such job.');
 		const rows = await db.select().from(invoices);
 		expect(rows).toHaveLength(12);
 		expect(rows.map((r) => r.number).sort((a, b) => a - b)).toEqual(
