@@ -19,6 +19,7 @@ import {
 	visitByToken
 } from '$lib/server/visits';
 import { actions as visitPageActions } from '../../src/routes/office/visits/[id]/+page.server';
+import { actions as leadVisitActions } from '../../src/routes/office/leads/[id]/visit/+page.server';
 import {
 	actions as homeownerActions,
 	load as homeownerLoad
@@ -598,5 +599,60 @@ describe("a visit's notes", () => {
 		expect(tooLong.status).toBe(400);
 		expect(tooLong.data.errors.notes).toBe('Keep this under 2000 characters');
 		expect(tooLong.data.values.notes).toHaveLength(2001);
+	});
+});
+
+describe("a lead's visit page", () => {
+	const post = async (
+		action: 'reschedule' | 'cancel',
+		leadId: string,
+		fields: Record<string, string>
+	) => {
+		const body = new FormData();
+		for (const [k, v] of Object.entries(fields)) body.set(k, v);
+		const url = `http://127.0.0.1/office/leads/${leadId}/visit?/${action}`;
+		return (await leadVisitActions[action]({
+			params: { id: leadId },
+			locals: { user: { ...sales } },
+			url: new URL(url),
+			request: new Request(url, { method: 'POST', body })
+		} as never)) as { status: number; data: { message?: string; errors?: Record<string, string> } };
+	};
+
+	it("refuses to move or cancel a visit of another lead through this lead's page", async () => {
+		const lead = await makeVisitLead();
+		const other = await makeVisitLead();
+		const visit = await bookVisit({
+			leadId: lead.id,
+			salespersonId: sales.id,
+			startsAt: at('2027-03-15', 9),
+			noteForHomeowner: '',
+			actorId: sales.id
+		});
+		const moveTo = at('2027-03-16', 10).toISOString();
+		const moved = await post('reschedule', other.id, {
+			visitId: visit.id,
+			salespersonId: sales.id,
+			startsAt: moveTo
+		});
+		expect(moved.status).toBe(404);
+		expect(moved.data.message).toBe('That visit is not one of this lead’s visits.');
+		const cancelled = await post('cancel', other.id, { visitId: visit.id, reason: 'x' });
+		expect(cancelled.status).toBe(404);
+		const missing = await post('cancel', lead.id, { reason: 'x' });
+		expect(missing.status).toBe(400);
+		expect(missing.data.errors?.visitId).toBe('Pick the visit to change');
+		const [stored] = await db.select().from(siteVisits).where(eq(siteVisits.id, visit.id));
+		expect(stored.status).toBe('booked');
+		expect(stored.startsAt.toISOString()).toBe(at('2027-03-15', 9).toISOString());
+
+		// Through its own lead's page it moves.
+		expect(
+			await post('reschedule', lead.id, {
+				visitId: visit.id,
+				salespersonId: sales.id,
+				startsAt: moveTo
+			})
+		).toEqual({ done: 'Visit moved. Updated invitations are on their way.' });
 	});
 });

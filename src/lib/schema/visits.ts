@@ -42,6 +42,15 @@ export const cancelSchema = z.object({
 	reason: z.string().trim().max(500, 'Keep the reason under 500 characters').default('')
 });
 
+const visitIdField = z
+	.string({ message: 'Pick the visit to change' })
+	.trim()
+	.min(1, 'Pick the visit to change')
+	.max(64, 'Not a visit');
+/** The staff forms on a lead's visit page name the visit they change. */
+export const rescheduleFormSchema = rescheduleSchema.extend({ visitId: visitIdField });
+export const cancelFormSchema = cancelSchema.extend({ visitId: visitIdField });
+
 const clock = z.string().refine((v) => parseClock(v) !== null, 'Use a time such as 08:30');
 export const intervalSchema = z
 	.object({ start: clock, end: clock })

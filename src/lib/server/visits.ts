@@ -382,9 +382,13 @@ function whenShort(visit: Pick<SiteVisit, 'startsAt' | 'timeZone'>): string {
 	}).format(visit.startsAt);
 }
 
-async function lockVisit(tx: Tx, visitId: string): Promise<SiteVisit> {
+/** The visit, locked; with `leadId`, a visit of another lead is refused as if it did not exist. */
+async function lockVisit(tx: Tx, visitId: string, leadId?: string): Promise<SiteVisit> {
 	const [row] = await tx.select().from(siteVisits).where(eq(siteVisits.id, visitId)).for('update');
 	if (!row) throw new VisitError('not_found', 'That visit does not exist.');
+	if (leadId !== undefined && row.leadId !== leadId) {
+		throw new VisitError('not_found', 'That visit is not one of this lead’s visits.');
+	}
 	return row;
 }
 
@@ -396,6 +400,8 @@ export async function rescheduleVisit(
 		noteForHomeowner?: string;
 		actorId: string | null;
 		now?: Date;
+		/** Refuse unless the visit belongs to this lead (the page's lead). */
+		leadId?: string;
 	}
 ): Promise<SiteVisit> {
 	const now = input.now ?? new Date();
@@ -404,7 +410,7 @@ export async function rescheduleVisit(
 	let visit: SiteVisit;
 	try {
 		visit = await db.transaction(async (tx) => {
-			const current = await lockVisit(tx, visitId);
+			const current = await lockVisit(tx, visitId, input.leadId);
 			if (current.status !== 'booked') {
 				throw new VisitError('closed', 'This visit was cancelled: book a new one.');
 			}
@@ -481,12 +487,18 @@ const CANCELLED_LINK_MS = 7 * 86_400_000;
 
 export async function cancelVisit(
 	visitId: string,
-	input: { reason: string; actorId: string | null; by: 'staff' | 'homeowner'; now?: Date }
+	input: {
+		reason: string;
+		actorId: string | null;
+		by: 'staff' | 'homeowner';
+		now?: Date;
+		leadId?: string;
+	}
 ): Promise<SiteVisit> {
 	const now = input.now ?? new Date();
 	let mails: string[] = [];
 	const visit = await db.transaction(async (tx) => {
-		const current = await lockVisit(tx, visitId);
+		const current = await lockVisit(tx, visitId, input.leadId);
 		if (current.status !== 'booked') {
 			throw new VisitError('closed', 'This visit is already cancelled.');
 		}

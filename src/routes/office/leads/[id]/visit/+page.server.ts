@@ -1,6 +1,6 @@
 import { error, fail } from '@sveltejs/kit';
 import { fieldErrors, formValues } from '$lib/schema/auth';
-import { bookSchema, cancelSchema, rescheduleSchema } from '$lib/schema/visits';
+import { bookSchema, cancelFormSchema, rescheduleFormSchema } from '$lib/schema/visits';
 import { requireRole } from '$lib/server/access';
 import {
 	VisitError,
@@ -28,6 +28,9 @@ export const load: PageServerLoad = async (event) => {
 };
 
 function refused(e: unknown, data: FormData) {
+	if (e instanceof VisitError && e.code === 'not_found') {
+		return fail(404, { values: formValues(data), message: e.message });
+	}
 	if (e instanceof VisitError) {
 		return fail(e.code === 'taken' ? 409 : 422, {
 			values: formValues(data),
@@ -62,20 +65,17 @@ export const actions: Actions = {
 	reschedule: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
 		const data = await event.request.formData();
-		const parsed = rescheduleSchema.safeParse(Object.fromEntries(data));
-		const visitId = String(data.get('visitId') ?? '');
-		if (!parsed.success || !visitId) {
-			return fail(400, {
-				values: formValues(data),
-				errors: parsed.success ? { startsAt: 'Pick a time' } : fieldErrors(parsed.error)
-			});
+		const parsed = rescheduleFormSchema.safeParse(Object.fromEntries(data));
+		if (!parsed.success) {
+			return fail(400, { values: formValues(data), errors: fieldErrors(parsed.error) });
 		}
 		try {
-			await rescheduleVisit(visitId, {
+			await rescheduleVisit(parsed.data.visitId, {
 				salespersonId: parsed.data.salespersonId,
 				startsAt: new Date(parsed.data.startsAt),
 				noteForHomeowner: parsed.data.noteForHomeowner,
-				actorId: user.id
+				actorId: user.id,
+				leadId: event.params.id
 			});
 		} catch (e) {
 			return refused(e, data);
@@ -85,14 +85,21 @@ export const actions: Actions = {
 	cancel: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
 		const data = await event.request.formData();
-		const parsed = cancelSchema.safeParse(Object.fromEntries(data));
-		const visitId = String(data.get('visitId') ?? '');
-		if (!parsed.success || !visitId) {
-			return fail(400, { values: formValues(data), errors: { reason: 'Check the reason' } });
+		const parsed = cancelFormSchema.safeParse(Object.fromEntries(data));
+		if (!parsed.success) {
+			return fail(400, { values: formValues(data), errors: fieldErrors(parsed.error) });
 		}
 		try {
-			await cancelVisit(visitId, { reason: parsed.data.reason, actorId: user.id, by: 'staff' });
+			await cancelVisit(parsed.data.visitId, {
+				reason: parsed.data.reason,
+				actorId: user.id,
+				by: 'staff',
+				leadId: event.params.id
+			});
 		} catch (e) {
+			if (e instanceof VisitError && e.code === 'closed') {
+				return fail(422, { values: formValues(data), errors: { reason: e.message } });
+			}
 			return refused(e, data);
 		}
 		return { done: 'Visit cancelled. Both of you get a cancellation.' };
