@@ -108,6 +108,14 @@ test('sold estimate to scheduled job, crew phone view, change order, completion,
 	await co.getByLabel('Kind').first().selectOption('lighting');
 	await co.getByLabel('Quantity').first().fill('1');
 	await co.getByLabel('Unit price $').first().fill('185');
+	// A quantity in words is refused beside its line; everything typed stays.
+	await co.getByLabel('Quantity').first().fill('two');
+	await co.getByRole('button', { name: 'Save draft' }).click();
+	await expect(co.getByText('Enter a quantity such as 2 or -1')).toBeVisible();
+	await expect(co.getByLabel('Title')).toHaveValue('A third uplight');
+	await expect(co.getByLabel('Line 1')).toHaveValue('Uplight on the tall column');
+	await expect(co.getByLabel('Unit price $').first()).toHaveValue('185');
+	await co.getByLabel('Quantity').first().fill('1');
 	await co.getByRole('button', { name: 'Save draft' }).click();
 	const card = co.getByTestId('change-order').filter({ hasText: 'A third uplight' });
 	await expect(card).toContainText('draft');

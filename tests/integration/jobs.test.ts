@@ -32,6 +32,7 @@ import { resetDatabase } from '../support/database';
 import { allMail, clearMail, linkIn, waitForMail } from '../support/mailbox';
 import { demoDesign } from '$lib/estimating/demo';
 import { makeEstimate, makeUser, seedFirm } from './fixtures';
+import { actions as jobPageActions } from '../../src/routes/office/jobs/[id]/+page.server';
 
 let owner: SessionUser;
 let crewA: SessionUser;
@@ -220,6 +221,79 @@ describe('a job', () => {
 		for (const row of sentToHome) await deliverOutboxMessage(row.id);
 		const mail = await waitForMail(email, /CO-1/);
 		expect(linkIn(mail, /^\/change-order\//)).toBe(url);
+	});
+
+	it("the job page keeps a refused draft as typed with each message beside its line, and sends no other job's change order", async () => {
+		const { jobId } = await soldJob();
+		const other = await soldJob();
+		const post = async (action: 'changeOrder' | 'sendChangeOrder', id: string, body: FormData) => {
+			const url = `http://127.0.0.1/office/jobs/${id}?/${action}`;
+			try {
+				return (await jobPageActions[action]({
+					params: { id },
+					locals: { user: owner },
+					url: new URL(url),
+					request: new Request(url, { method: 'POST', body })
+				} as never)) as {
+					status?: number;
+					data?: {
+						message?: string;
+						errors?: Record<string, string>;
+						values?: { title: string; lines: Record<string, string>[] };
+					};
+				};
+			} catch (e) {
+				return {
+					status: (e as { status: number }).status,
+					data: { message: (e as { body: { message: string } }).body.message }
+				};
+			}
+		};
+		const draft = new FormData();
+		draft.set('title', 'Two more uplights');
+		draft.set('note', '');
+		for (const [description, quantity, unitPrice] of [
+			['', '', ''],
+			['Uplight by the maple', 'two', '149.50'],
+			['Stone step', '1', 'lots']
+		]) {
+			draft.append('description', description);
+			draft.append('category', 'lighting');
+			draft.append('unit', 'each');
+			draft.append('quantity', quantity);
+			draft.append('unitPrice', unitPrice);
+		}
+		const refused = await post('changeOrder', jobId, draft);
+		expect(refused.status).toBe(400);
+		expect(refused.data?.errors).toEqual({
+			'lines.1.quantity': 'Enter a quantity such as 2 or -1',
+			'lines.2.unitPrice': 'Enter a price such as 120.50'
+		});
+		expect(refused.data?.values?.title).toBe('Two more uplights');
+		expect(refused.data?.values?.lines.map((l) => l.quantity)).toEqual(['', 'two', '1']);
+		expect(refused.data?.values?.lines[2].unitPrice).toBe('lots');
+		expect(await db.select().from(changeOrders)).toHaveLength(0);
+
+		const coId = await createChangeOrder(
+			other.jobId,
+			{
+				title: 'Other job',
+				note: '',
+				lines: [
+					{ description: 'x', category: 'other', unit: 'each', quantity: 1, unitPriceCents: 100 }
+				]
+			},
+			owner
+		);
+		const send = new FormData();
+		send.set('changeOrderId', coId);
+		const wrongJob = await post('sendChangeOrder', jobId, send);
+		expect(wrongJob.status).toBe(404);
+		expect(wrongJob.data?.message).toBe('There is no such change order.');
+		const [stillDraft] = await db.select().from(changeOrders).where(eq(changeOrders.id, coId));
+		expect(stillDraft.status).toBe('draft');
+		const none = await post('sendChangeOrder', jobId, new FormData());
+		expect(none).toMatchObject({ status: 400, data: { message: 'Pick a change order' } });
 	});
 
 	it('refuses a change order on a paid job', async () => {

@@ -32,14 +32,22 @@ export const saleByHandSchema = z.object({
 });
 
 export const changeOrderLineSchema = z.object({
-	description: z.string().trim().min(1, 'Describe the line').max(200),
+	description: z
+		.string()
+		.trim()
+		.min(1, 'Describe the line')
+		.max(200, 'Keep it under 200 characters'),
 	category: z.string().trim().max(40).default('other'),
 	unit: z.string().trim().min(1).max(20).default('each'),
 	quantity: z.coerce
-		.number()
+		.number({ message: 'Enter a quantity such as 2 or -1' })
 		.refine((n) => Number.isFinite(n) && n !== 0, 'Use a quantity other than 0 (negative removes)')
 		.refine((n) => Math.abs(n) <= 100_000, 'That quantity is too large'),
-	unitPriceCents: z.coerce.number().int().min(0).max(100_000_000)
+	unitPriceCents: z.coerce
+		.number({ message: 'Enter a price such as 120.50' })
+		.int('Enter a price such as 120.50')
+		.min(0, 'A price of 0 or more')
+		.max(100_000_000, 'That price is too large')
 });
 
 export const changeOrderSchema = z.object({
@@ -48,6 +56,14 @@ export const changeOrderSchema = z.object({
 	lines: z.array(changeOrderLineSchema).min(1, 'Add at least one line').max(30)
 });
 export type ChangeOrderInput = z.input<typeof changeOrderSchema>;
+
+export const sendChangeOrderSchema = z.object({
+	changeOrderId: z
+		.string({ message: 'Pick a change order' })
+		.trim()
+		.min(1, 'Pick a change order')
+		.max(64, 'Pick a change order')
+});
 
 export const decisionSchema = z.discriminatedUnion('decision', [
 	z.object({

@@ -1,7 +1,13 @@
 import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
 import { fieldErrors } from '$lib/schema/auth';
-import { changeOrderSchema, dollarsToCents, punchSchema, scheduleSchema } from '$lib/schema/jobs';
+import {
+	changeOrderSchema,
+	dollarsToCents,
+	punchSchema,
+	scheduleSchema,
+	sendChangeOrderSchema
+} from '$lib/schema/jobs';
 import { requireRole } from '$lib/server/access';
 import { createChangeOrder, listChangeOrders, sendChangeOrder } from '$lib/server/change-orders';
 import { jobAction, orHttp } from '$lib/server/job-http';
@@ -63,17 +69,52 @@ export const load: PageServerLoad = async (event) => {
 const idSchema = z.object({ itemId: z.string().min(1), on: z.enum(['1', '0']) });
 const stageSchema = z.object({ to: z.enum(['scheduled', 'underway', 'punch_list', 'complete']) });
 
-function lineRows(data: FormData) {
-	const descriptions = data.getAll('description').map(String);
-	return descriptions
-		.map((description, i) => ({
-			description,
-			category: String(data.getAll('category')[i] ?? 'other'),
-			unit: String(data.getAll('unit')[i] ?? 'each') || 'each',
-			quantity: String(data.getAll('quantity')[i] ?? ''),
-			unitPriceCents: dollarsToCents(String(data.getAll('unitPrice')[i] ?? ''))
-		}))
-		.filter((l) => l.description.trim() !== '' || l.quantity.trim() !== '');
+/** Every line row of the draft form as typed, in form order (the form refills from these). */
+function typedLines(data: FormData) {
+	const field = (name: string, i: number) => String(data.getAll(name)[i] ?? '');
+	return data.getAll('description').map((description, i) => ({
+		description: String(description),
+		category: field('category', i) || 'other',
+		unit: field('unit', i) || 'each',
+		quantity: field('quantity', i),
+		unitPrice: field('unitPrice', i)
+	}));
+}
+type TypedLine = ReturnType<typeof typedLines>[number];
+
+/** A zod path inside the parsed lines back to the form's own row and input name. */
+function formPath(key: string, rows: number[]): string {
+	const m = /^lines\.(\d+)\.(\w+)$/.exec(key);
+	if (!m) return key;
+	const input = m[2] === 'unitPriceCents' ? 'unitPrice' : m[2];
+	return `lines.${rows[Number(m[1])]}.${input}`;
+}
+
+function parseDraft(data: FormData) {
+	const typed = typedLines(data);
+	const rows = typed.flatMap((l, i) => (l.description.trim() || l.quantity.trim() ? [i] : []));
+	const parsed = changeOrderSchema.safeParse({
+		title: data.get('title') ?? '',
+		note: data.get('note') ?? '',
+		lines: rows.map((i) => lineInput(typed[i]))
+	});
+	const values = { title: String(data.get('title') ?? ''), lines: typed };
+	if (parsed.success) return { ok: true as const, draft: parsed.data };
+	const errors: Record<string, string> = {};
+	for (const [key, message] of Object.entries(fieldErrors(parsed.error))) {
+		errors[formPath(key, rows)] ??= message;
+	}
+	return { ok: false as const, values, errors };
+}
+
+function lineInput(l: TypedLine) {
+	return {
+		description: l.description,
+		category: l.category,
+		unit: l.unit,
+		quantity: l.quantity,
+		unitPriceCents: l.unitPrice.trim() === '' ? 0 : dollarsToCents(l.unitPrice)
+	};
 }
 
 export const actions: Actions = {
@@ -180,30 +221,31 @@ export const actions: Actions = {
 	},
 	changeOrder: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
-		const data = await event.request.formData();
-		const parsed = changeOrderSchema.safeParse({
-			title: data.get('title'),
-			note: data.get('note') ?? '',
-			lines: lineRows(data)
-		});
-		if (!parsed.success) {
-			const errors = fieldErrors(parsed.error);
+		const result = parseDraft(await event.request.formData());
+		if (!result.ok) {
 			return fail(400, {
 				form: 'changeOrder',
-				message: errors.title ?? errors.lines ?? Object.values(errors)[0]
+				values: result.values,
+				errors: result.errors,
+				message: 'Not saved: check the fields marked.'
 			});
 		}
 		return jobAction(async () => {
-			await createChangeOrder(event.params.id, parsed.data, user);
+			await createChangeOrder(event.params.id, result.draft, user);
 			return { form: 'changeOrder', saved: true };
 		}, 'changeOrder');
 	},
 	sendChangeOrder: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
-		const id = String((await event.request.formData()).get('changeOrderId') ?? '');
-		if (!id) return fail(400, { form: 'changeOrder', message: 'Pick a change order' });
+		const parsed = sendChangeOrderSchema.safeParse(
+			Object.fromEntries(await event.request.formData())
+		);
+		if (!parsed.success) {
+			return fail(400, { form: 'changeOrder', message: fieldErrors(parsed.error).changeOrderId });
+		}
 		return jobAction(async () => {
-			await sendChangeOrder(event.params.id, id, user);
+			// Refuses (404) a change order of another job: it is looked up by both ids.
+			await sendChangeOrder(event.params.id, parsed.data.changeOrderId, user);
 			return { form: 'changeOrder', sent: true };
 		}, 'changeOrder');
 	}
