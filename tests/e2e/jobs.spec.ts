@@ -71,6 +71,9 @@ test('sold estimate to scheduled job, crew phone view, change order, completion,
 	await expect(crew.getByRole('heading', { name: /Materials/ })).toBeVisible();
 	const materials = crew.getByTestId('material');
 	expect(await materials.count()).toBeGreaterThan(3);
+	const safety = crew.locator('section[aria-labelledby="safety-heading"]');
+	await expect(safety).toContainText("built to the engineer's drawings and the permit");
+	await expect(safety).toContainText('Local codes and licensed practice come first');
 	const bodyText = await crew.locator('body').innerText();
 	expect(bodyText).not.toMatch(/\$\s?\d/);
 	expect(bodyText).not.toMatch(/margin|unit price|cost/i);

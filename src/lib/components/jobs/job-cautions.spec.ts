@@ -1,0 +1,60 @@
+import { describe, expect, it } from 'vitest';
+import {
+	changeOrderCautions,
+	CREW_LOCAL_CODES_ITEM,
+	CREW_WALL_ITEM,
+	extraCrewCautions
+} from './job-cautions';
+
+const ids = (lines: { category: string; quantity: number }[]) =>
+	changeOrderCautions(lines).map((c) => c.id);
+
+describe('cautions of a change order', () => {
+	it('gives only the local-codes line for stone or labor', () => {
+		expect(
+			ids([
+				{ category: 'stone', quantity: 2 },
+				{ category: 'labor', quantity: 4 }
+			])
+		).toEqual(['local-codes']);
+	});
+
+	it('adds GFCI and electrician for an added light, pump or electrical line, not a removed one', () => {
+		for (const category of ['lighting', 'electrical', 'pump', 'Lighting']) {
+			expect(ids([{ category, quantity: 1 }])).toEqual([
+				'ground-fault-protection',
+				'licensed-electrician',
+				'local-codes'
+			]);
+		}
+		expect(ids([{ category: 'lighting', quantity: -1 }])).toEqual(['local-codes']);
+	});
+
+	it('adds the wall-height caution for an added wall', () => {
+		const list = changeOrderCautions([
+			{ category: 'wall', quantity: 12 },
+			{ category: 'lighting', quantity: 1 }
+		]);
+		expect(list.map((c) => c.id)).toEqual([
+			'ground-fault-protection',
+			'licensed-electrician',
+			'wall-height',
+			'local-codes'
+		]);
+		expect(list[2].title).toBe('Retaining wall height: permit or engineered design');
+		expect(list[2].reference).toContain('IRC R105.2');
+	});
+});
+
+describe("the crew's fixed cautions", () => {
+	it('name the engineer and permit for walls, and local codes first', () => {
+		expect(CREW_WALL_ITEM).toContain("built to the engineer's drawings and the permit");
+		expect(CREW_LOCAL_CODES_ITEM).toMatch(/^Local codes and licensed practice come first\./);
+		expect(
+			extraCrewCautions([
+				'Heavy stones: lift safely: Column A weighs…',
+				'Local codes and licensed practice come first: These figures…'
+			])
+		).toEqual(['Heavy stones: lift safely: Column A weighs…']);
+	});
+});
