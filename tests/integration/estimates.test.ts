@@ -13,7 +13,6 @@ import {
 	siteVisits
 } from '$lib/server/db/schema';
 import { formatCents } from '$lib/components/estimates/money';
-import { totalsForChoices } from '$lib/estimating/overrides';
 import {
 	acceptEstimate,
 	createEstimate,
@@ -324,6 +323,11 @@ describe("the homeowner's page", () => {
 		expect(thumb.searchParams.get('X-Amz-Expires')).toBe('600');
 		expect(view.photos[0].fullUrl).toContain('intake/yard-1/display.webp');
 		expect(view.design?.basin?.size).toMatchObject({ shape: 'rectangle' });
+		// The homeowner reads the safety notes that concern them, ending with the local-codes one.
+		const cautions = (data.view as { cautions: { id: string }[] }).cautions.map((c) => c.id);
+		expect(cautions).toEqual(expect.arrayContaining(['locate-utilities', 'licensed-electrician']));
+		expect(cautions.at(-1)).toBe('local-codes');
+		expect(cautions).not.toContain('heavy-lifting');
 	});
 });
 
@@ -347,11 +351,17 @@ describe('acceptance', () => {
 		expect(rows).toHaveLength(1);
 		const stored = (await getEstimate(row.id))!;
 		const result = stored.result as unknown as StoredResult;
-		const expected = totalsForChoices(
-			result.priced.pricing,
-			{ options: ['low-wall'], alternates: { topping: 'topping-slate' } },
-			30
-		);
+		// The figure the homeowner agreed to, added up here from the stored parts rather than by
+		// the acceptance code: the base, the low wall taken, and slate chosen over pebbles.
+		const pricing = result.priced.pricing;
+		const wall = pricing.options.find((o) => o.id === 'low-wall')!;
+		const slate = pricing.alternates
+			.find((a) => a.id === 'topping')!
+			.choices.find((c) => c.id === 'topping-slate')!;
+		expect(wall.selected).toBe(false);
+		const totalCents = pricing.base.totalCents + wall.totals.totalCents + slate.totals.totalCents;
+		expect(totalCents).toBeGreaterThan(stored.totalCents); // the wall costs extra
+		const expected = { totalCents, depositCents: Math.round(totalCents * 0.3) };
 		expect(rows[0]).toMatchObject({
 			typedName: 'Ada Fernhill',
 			ipAddress: '203.0.113.9',

@@ -33,10 +33,16 @@ export const HANDLING_NAMES: Record<string, string> = {
 	'larger-machine': 'Larger machine'
 };
 
-/** Cautions the homeowner should read (utilities, electrical work, open water). */
+/**
+ * Cautions the homeowner should read: utilities, electrical work, a wall that needs a permit or an
+ * engineer, open water, and always that local codes and licensed trades come first. Lifting stones
+ * is the crew's concern and stays on the office and crew views.
+ */
 export const HOMEOWNER_CAUTIONS = new Set([
 	'locate-utilities',
 	'ground-fault-protection',
 	'licensed-electrician',
-	'open-water'
+	'wall-height',
+	'open-water',
+	'local-codes'
 ]);
