@@ -122,6 +122,7 @@ test('sold estimate to scheduled job, crew phone view, change order, completion,
 	await co.getByRole('button', { name: 'Save draft' }).click();
 	const card = co.getByTestId('change-order').filter({ hasText: 'A third uplight' });
 	await expect(card).toContainText('draft');
+	await expect(card).toContainText('Ground-fault protection for pumps and lights near water');
 	await card.getByRole('button', { name: 'Send to the homeowner' }).click();
 	await expect(card).toContainText('sent');
 
@@ -134,6 +135,12 @@ test('sold estimate to scheduled job, crew phone view, change order, completion,
 	const home = await homeContext.newPage();
 	await home.goto(linkIn(mail, /^\/change-order\//));
 	await expect(home.getByTestId('co-total')).toHaveText('$185.00');
+	// A light near water: the GFCI and electrician cautions, and local codes first.
+	await expect(
+		home.getByText('Ground-fault protection for pumps and lights near water')
+	).toBeVisible();
+	await expect(home.getByText('Mains wiring by a licensed electrician')).toBeVisible();
+	await expect(home.getByText('Local codes and licensed practice come first')).toBeVisible();
 	await home.getByLabel('Type your full name').fill('Felix Marchbank');
 	await home.getByRole('button', { name: 'Approve the change' }).click();
 	await expect(home.getByRole('status')).toContainText('approved');
