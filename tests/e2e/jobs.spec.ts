@@ -103,6 +103,11 @@ test('sold estimate to scheduled job, crew phone view, change order, completion,
 	await item.getByRole('button', { name: 'Done' }).click();
 	await expect(item.getByRole('button', { name: 'Reopen' })).toBeVisible();
 
+	// A date that is not real in the calendar's address shows today's weeks, not an error.
+	const badDate = await page.goto('/office/jobs?from=2027-13-01');
+	expect(badDate?.status()).toBe(200);
+	await expect(page.getByRole('heading', { name: 'Jobs', exact: true })).toBeVisible();
+
 	// The office writes a change order and sends it.
 	await page.goto(jobUrl);
 	const co = page.locator('section[aria-labelledby="co-heading"]');

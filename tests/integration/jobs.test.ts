@@ -33,6 +33,7 @@ import { allMail, clearMail, linkIn, waitForMail } from '../support/mailbox';
 import { demoDesign } from '$lib/estimating/demo';
 import { makeEstimate, makeUser, seedFirm } from './fixtures';
 import { actions as jobPageActions } from '../../src/routes/office/jobs/[id]/+page.server';
+import { load as jobsListLoad } from '../../src/routes/office/jobs/+page.server';
 
 let owner: SessionUser;
 let crewA: SessionUser;
@@ -425,5 +426,29 @@ describe('seasonal care', () => {
 		expect(await unsubscribeCare(token)).toBe(true);
 		expect(await unsubscribeCare('not-a-token')).toBe(false);
 		expect(await sendCareReminder(jobId, 'startup-2028', { chain: false })).toBe('opted-out');
+	});
+});
+
+describe('the jobs list', () => {
+	const calendarFrom = async (from: string) => {
+		const url = new URL(`http://127.0.0.1/office/jobs?from=${encodeURIComponent(from)}`);
+		const page = (await jobsListLoad({ url, locals: { user: owner } } as never)) as {
+			calendar: { start: string; end: string };
+			today: string;
+		};
+		return { ...page.calendar, today: page.today };
+	};
+
+	it('starts from the Monday of the week asked for, and from today for a date that is not real', async () => {
+		expect(await calendarFrom('2027-05-14')).toMatchObject({
+			start: '2027-05-10',
+			end: '2027-05-30'
+		});
+		for (const bad of ['2027-13-01', '2027-02-30', 'soon']) {
+			const cal = await calendarFrom(bad);
+			const today = new Date(`${cal.today}T00:00:00Z`);
+			const monday = new Date(today.getTime() - ((today.getUTCDay() + 6) % 7) * 86_400_000);
+			expect(cal.start, bad).toBe(monday.toISOString().slice(0, 10));
+		}
 	});
 });

@@ -1,3 +1,4 @@
+import { dateSchema } from '$lib/schema/visits';
 import { requireRole } from '$lib/server/access';
 import { installDays, listJobs } from '$lib/server/jobsite';
 import { firmSettings } from '$lib/server/settings';
@@ -17,8 +18,9 @@ export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'owner', 'sales', 'crew');
 	const firm = await firmSettings();
 	const today = todayIn(firm.timeZone);
-	const asked = event.url.searchParams.get('from') ?? '';
-	const from = /^\d{4}-\d{2}-\d{2}$/.test(asked) ? asked : today;
+	// Not a real date (2027-13-01, 2027-02-30, junk): start from today rather than fail.
+	const asked = dateSchema.safeParse(event.url.searchParams.get('from'));
+	const from = asked.success ? asked.data : today;
 	// The calendar starts on the Monday of the week asked for, and shows three weeks.
 	const weekday = (new Date(`${from}T00:00:00Z`).getUTCDay() + 6) % 7;
 	const start = addDays(from, -weekday);
