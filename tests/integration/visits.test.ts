@@ -572,7 +572,11 @@ describe("a visit's notes", () => {
 			noteForHomeowner: '',
 			actorId: sales.id
 		});
-		await saveNotes(visit.id, { notes: 'Big cottonwood roots by the fence' }, sales.id);
+		await saveNotes(
+			visit.id,
+			{ notes: 'Big cottonwood roots by the fence', powerLocation: '' },
+			sales.id
+		);
 		await cancelVisit(visit.id, { reason: '', actorId: sales.id, by: 'staff' });
 
 		expect(await postNotes(visit.id, other, 'Overwritten')).toEqual({ status: 403 });
