@@ -10,7 +10,7 @@ function renamedCatalog(): Catalog {
 	const catalog = demoCatalog();
 	return {
 		...catalog,
-		items: catalog.items.map((item, n) => ({ ...item, sku: `FIRM-${1000 + n}` }))
+		items: (catalog.items ?? []).map((item, n) => ({ ...item, sku: `FIRM-${1000 + n}` }))
 	};
 }
 

@@ -46,7 +46,7 @@ const SLOTS = {
 	coreDrill: { category: 'other', measure: { direct: 1 }, hint: /core.?drill/i, strict: true }
 } satisfies Record<string, Slot>;
 
-const demoUnits = new Map(demoCatalog().items.map((i) => [i.sku, i.unit]));
+const demoUnits = new Map((demoCatalog().items ?? []).map((i) => [i.sku, i.unit]));
 
 /** The item for a part: the demo SKU when present and fit, else the best fit of the category. */
 export function pickItem(
