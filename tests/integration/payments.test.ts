@@ -491,3 +491,42 @@ describe('open balances', () => {
 		expect(list[1].daysOverdue).toBe(0);
 	});
 });
+
+describe("the job's payments page", () => {
+	it('puts a duplicate reference beside the reference, too large an amount beside the amount, and a bad invoice kind beside the invoice buttons', async () => {
+		const { actions } = await import('../../src/routes/office/payments/[jobId]/+page.server');
+		const { job } = await makePaymentJob({ contractCents: 500_000, depositCents: 150_000 });
+		const post = async (action: 'record' | 'invoice', fields: Record<string, string>) => {
+			const body = new FormData();
+			for (const [k, v] of Object.entries(fields)) body.set(k, v);
+			const url = `http://127.0.0.1/office/payments/${job.id}?/${action}`;
+			return (await actions[action]({
+				params: { jobId: job.id },
+				locals: { user: owner },
+				url: new URL(url),
+				request: new Request(url, { method: 'POST', body })
+			} as never)) as { status?: number; data?: { errors: Record<string, string> } };
+		};
+		const cheque = {
+			kind: 'deposit',
+			method: 'cheque',
+			amount: '1000.00',
+			reference: '2201',
+			receivedOn: '2026-11-02',
+			note: ''
+		};
+		expect(await post('record', cheque)).toEqual({ form: 'record', saved: 'Payment recorded.' });
+		const again = await post('record', cheque);
+		expect(again.status).toBe(400);
+		expect(again.data?.errors).toEqual({
+			reference: 'A cheque with reference 2201 is already recorded on this job.'
+		});
+		const tooMuch = await post('record', { ...cheque, reference: '2202', amount: '9000' });
+		expect(Object.keys(tooMuch.data?.errors ?? {})).toEqual(['amount']);
+		expect(tooMuch.data?.errors.amount).toMatch(/more than the \$4,000\.00 still owed/);
+		const badKind = await post('invoice', { kind: 'progress' });
+		expect(badKind.status).toBe(400);
+		expect(badKind.data?.errors).toEqual({ kind: 'Pick the deposit or the final invoice' });
+		expect(await db.select().from(invoices)).toHaveLength(0);
+	});
+});

@@ -48,5 +48,9 @@ export const refundSchema = z.object({
 		.max(500, 'Keep it under 500 characters')
 });
 
+export const invoiceSchema = z.object({
+	kind: z.enum(['deposit', 'final'], { message: 'Pick the deposit or the final invoice' })
+});
+
 export type HandPaymentInput = z.output<typeof handPaymentSchema>;
 export type RefundInput = z.output<typeof refundSchema>;

@@ -1,7 +1,7 @@
 import { error, fail } from '@sveltejs/kit';
 import { eq } from 'drizzle-orm';
 import { fieldErrors, formValues } from '$lib/schema/auth';
-import { handPaymentSchema, refundSchema } from '$lib/schema/payments';
+import { handPaymentSchema, invoiceSchema, refundSchema } from '$lib/schema/payments';
 import { requireRole } from '$lib/server/access';
 import { db } from '$lib/server/db';
 import { contacts, jobs } from '$lib/server/db/schema';
@@ -42,9 +42,17 @@ export const load: PageServerLoad = async (event) => {
 
 const errs = (e: Record<string, string>) => e;
 
+/** The form field a ledger refusal is about, so its message sits beside that field. */
+const FIELD_OF: Partial<Record<PaymentError['code'], string>> = {
+	duplicate_reference: 'reference',
+	over_balance: 'amount',
+	over_refund: 'amount'
+};
+
 const failPayment = (form: string, e: unknown, values: Record<string, string>) => {
 	if (e instanceof PaymentError) {
-		return fail(400, { form, values, errors: errs({ amount: e.message }) });
+		if (e.code === 'not_found') error(404, e.message);
+		return fail(400, { form, values, errors: errs({ [FIELD_OF[e.code] ?? 'amount']: e.message }) });
 	}
 	throw e;
 };
@@ -92,13 +100,12 @@ export const actions: Actions = {
 	},
 	invoice: async (event) => {
 		requireRole(event, 'owner');
-		const data = await event.request.formData();
-		const kind = data.get('kind');
-		if (kind !== 'deposit' && kind !== 'final') {
-			return fail(400, { form: 'invoice', values: {}, errors: errs({ kind: 'Pick an invoice' }) });
+		const parsed = invoiceSchema.safeParse(Object.fromEntries(await event.request.formData()));
+		if (!parsed.success) {
+			return fail(400, { form: 'invoice', values: {}, errors: fieldErrors(parsed.error) });
 		}
 		await jobOr404(event.params.jobId);
-		const invoice = await ensureInvoice(event.params.jobId, kind);
+		const invoice = await ensureInvoice(event.params.jobId, parsed.data.kind);
 		return { form: 'invoice', saved: `Invoice ${invoice.number} issued.` };
 	},
 	link: async (event) => {
