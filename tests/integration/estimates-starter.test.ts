@@ -1,9 +1,9 @@
 // A first estimate starts from the firm's own price list: with SKUs of its own it prices, and
-// with an empty list it is still made and the scope says what is missing.
-import { sql } from 'drizzle-orm';
+// with an empty list it is still made and the lead's timeline says what is missing.
+import { eq, sql } from 'drizzle-orm';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { db } from '$lib/server/db';
-import { priceListItems } from '$lib/server/db/schema';
+import { activities, priceListItems } from '$lib/server/db/schema';
 import { createEstimate, getEstimate } from '$lib/server/estimates';
 import { resetDatabase } from '../support/database';
 import { makeUser, seedFirm } from './fixtures';
@@ -27,17 +27,20 @@ describe('the first estimate of a lead', () => {
 		const design = estimate.design as { basin: { sku: string }; stones: { sku: string }[] };
 		expect(design.basin.sku).toMatch(/^OWN-/);
 		expect(design.stones.every((s) => s.sku.startsWith('OWN-'))).toBe(true);
-		expect(estimate.scope).not.toMatch(/Office note/);
+		const notes = await db.select().from(activities).where(eq(activities.kind, 'note'));
+		expect(notes).toHaveLength(0);
 	});
 
-	it('is still made from an empty price list, and the scope says to fill the list', async () => {
+	it('is still made from an empty price list, and a timeline note (not the scope) says to fill the list', async () => {
 		await db.delete(priceListItems);
 		const owner = await makeUser('owner');
 		const lead = await makeLead(owner.id);
 		const id = await createEstimate(lead.id, owner as never);
 		const estimate = (await getEstimate(id!))!;
 		expect(estimate.result).not.toBeNull();
-		expect(estimate.scope).toMatch(/Office note, remove before sending/);
-		expect(estimate.scope).toMatch(/price list has no items yet/);
+		expect(estimate.scope).not.toMatch(/price list/);
+		const [note] = await db.select().from(activities).where(eq(activities.kind, 'note'));
+		expect(note.leadId).toBe(lead.id);
+		expect(note.body).toMatch(/price list has no items yet/);
 	});
 });

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { estimate } from './index';
 import { demoCatalog, demoDesign } from './demo';
 import { starterDesign } from './prefill';
-import { starterFromCatalog, starterScopeNote } from './starter';
+import { starterFromCatalog, starterGapsNote } from './starter';
 import type { Catalog } from './schema';
 
 /** The demo price list with every SKU renamed, as a firm's own list would number its items. */
@@ -145,7 +145,7 @@ describe('the starting design comes from the firm’s price list', () => {
 		expect(skusOf(design)).toEqual([]);
 		const result = estimate(design, { items: [] });
 		expect(result.ok).toBe(true);
-		expect(starterScopeNote(notes)).toMatch(/^Office note, remove before sending/);
+		expect(starterGapsNote(notes)).toMatch(/^Starting design: the price list could not supply\n- /);
 		expect(starterFromCatalog('not a catalog').notes[0]).toMatch(/could not be read/);
 	});
 

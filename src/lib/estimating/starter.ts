@@ -250,10 +250,10 @@ export function starterFromCatalog(catalog: unknown): Starter {
 	return { design, notes: [...notes] };
 }
 
-/** The notes as a block the salesperson sees at the end of the scope and edits out. */
-export function starterScopeNote(notes: readonly string[]): string {
+/** The notes as one staff note for the lead's timeline (never in the homeowner's scope). */
+export function starterGapsNote(notes: readonly string[]): string {
 	if (notes.length === 0) return '';
-	return ['Office note, remove before sending — the price list could not supply:', ...notes]
+	return ['Starting design: the price list could not supply', ...notes]
 		.map((line, i) => (i === 0 ? line : `- ${line}`))
 		.join('\n');
 }

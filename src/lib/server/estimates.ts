@@ -12,7 +12,7 @@ import {
 	type PricedEstimate
 } from '$lib/estimating/overrides';
 import { scopeFromNotes, starterDesign } from '$lib/estimating/prefill';
-import { starterFromCatalog, starterScopeNote } from '$lib/estimating/starter';
+import { starterFromCatalog, starterGapsNote } from '$lib/estimating/starter';
 import type { SaveEstimateInput } from '$lib/schema/estimates';
 import { db } from './db';
 import {
@@ -147,11 +147,9 @@ export async function createEstimate(leadId: string, user: SessionUser) {
 		loadCatalog()
 	]);
 	const label = `${found.contact.name} — water feature`;
-	const gaps = starterScopeNote(starterFromCatalog(catalog).notes);
-	const scope = [scopeFromNotes(notes, found.lead.message), gaps]
-		.filter(Boolean)
-		.join('\n\n')
-		.slice(0, 5000);
+	// What the price list cannot supply goes to the staff's timeline, never into the homeowner's scope.
+	const gaps = starterGapsNote(starterFromCatalog(catalog).notes);
+	const scope = scopeFromNotes(notes, found.lead.message);
 	return db.transaction(async (tx) => {
 		await tx.execute(sql`select id from leads where id = ${leadId} for update`);
 		const id = await insertVersion(
@@ -162,6 +160,7 @@ export async function createEstimate(leadId: string, user: SessionUser) {
 			[],
 			scope
 		);
+		if (gaps) await tx.insert(activities).values({ leadId, kind: 'note', body: gaps, data: {} });
 		await tx
 			.update(leads)
 			.set({ stage: 'estimating', lastTouchAt: new Date() })
