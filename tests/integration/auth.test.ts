@@ -4,7 +4,7 @@ import { db } from '$lib/server/db';
 import { sessions, users } from '$lib/server/db/schema';
 import { cookieForToken, createSession, endSession, validateSessionToken } from '$lib/server/auth';
 import { attemptSignIn } from '$lib/server/signin';
-import { setDisabled } from '$lib/server/team';
+import { changeRole, setDisabled } from '$lib/server/team';
 import { THROTTLE } from '$lib/server/throttle';
 import { sha256 } from '$lib/server/crypto';
 import { resetDatabase } from '../support/database';
@@ -168,6 +168,27 @@ describe('sessions', () => {
 			expiresAt: new Date(Date.now() + 3600_000)
 		});
 		expect(await validateSessionToken(token)).toBeNull();
+	});
+
+	it('a session checked a moment ago still ends at once: sign-out, disabling, a role change', async () => {
+		// validateSessionToken keeps recent answers for a few seconds; none of these may wait for it.
+		const first = await makeUser('owner', 'first@test.example');
+		const second = await makeUser('owner', 'second@test.example');
+		const a = await createSession(first.id);
+		const b = await createSession(first.id);
+		expect((await validateSessionToken(a.token))?.user.role).toBe('owner');
+		await endSession(sha256(a.token));
+		expect(await validateSessionToken(a.token)).toBeNull();
+
+		expect((await validateSessionToken(b.token))?.user.role).toBe('owner');
+		await changeRole(first.id, first.id, 'sales'); // one's own role: the session stays
+		expect((await validateSessionToken(b.token))?.user.role).toBe('sales');
+
+		const c = await createSession(second.id);
+		expect(await validateSessionToken(c.token)).not.toBeNull();
+		await changeRole(first.id, first.id, 'owner');
+		await setDisabled(first.id, second.id, true);
+		expect(await validateSessionToken(c.token)).toBeNull();
 	});
 
 	it('ends a session left idle past its expiry', async () => {

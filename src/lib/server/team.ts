@@ -4,7 +4,7 @@ import { db } from './db';
 import { invitations, passwordResets, users, type Role } from './db/schema';
 import { newId, newToken, sha256 } from './crypto';
 import { hashPassword } from './passwords';
-import { endAllSessionsOf } from './auth';
+import { endAllSessionsOf, forgetSessionsOf } from './auth';
 import { htmlBody, sendMail } from './mail';
 import { origin } from './env';
 import { firmSettings } from './settings';
@@ -181,6 +181,7 @@ export async function changeRole(actorId: string, userId: string, role: Role): P
 	if (!updated.length) throw new TeamError('No such team member');
 	// A role change takes effect at once: the member signs in again with the new role.
 	if (actorId !== userId) await endAllSessionsOf(userId);
+	else forgetSessionsOf(userId);
 }
 
 export async function setDisabled(
