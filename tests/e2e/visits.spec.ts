@@ -27,6 +27,8 @@ const FIRM_TZ = 'America/Denver';
 /** An image that is really on screen: loaded through its signed link, not a broken icon. */
 async function expectLoaded(img: Locator): Promise<void> {
 	await expect(img).toBeVisible();
+	// Thumbnails load lazily: a photo below the fold loads once it is scrolled to.
+	await img.scrollIntoViewIfNeeded();
 	await expect
 		.poll(() => img.evaluate((el) => (el as HTMLImageElement).naturalWidth))
 		.toBeGreaterThan(0);
