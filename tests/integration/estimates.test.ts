@@ -266,6 +266,33 @@ describe('sending, tokens and the freeze', () => {
 	});
 });
 
+describe('the builder buttons', () => {
+	it('send and new version act only on a version of the lead in the address', async () => {
+		const { actions } = await import('../../src/routes/office/leads/[id]/estimate/+page.server');
+		const { sales, row } = await draft();
+		const other = await makeLead(sales.id, 'neighbour@test.example');
+		const post = async (action: 'send' | 'newVersion', leadId: string, estimateId: string) => {
+			const body = new FormData();
+			body.set('estimateId', estimateId);
+			const url = `http://127.0.0.1/office/leads/${leadId}/estimate?/${action}`;
+			return (await actions[action]({
+				params: { id: leadId },
+				locals: { user: sales },
+				url: new URL(url),
+				request: new Request(url, { method: 'POST', body })
+			} as never)) as { status?: number; data?: { message?: string }; sent?: boolean };
+		};
+		for (const action of ['send', 'newVersion'] as const) {
+			const refused = await post(action, other.id, row.id);
+			expect(refused.status).toBe(404);
+			expect(refused.data?.message).toMatch(/not a version of this lead/);
+		}
+		expect((await post('send', other.id, '')).status).toBe(404);
+		expect((await getEstimate(row.id))!.status).toBe('draft');
+		expect(await post('send', row.leadId, row.id)).toMatchObject({ sent: true });
+	});
+});
+
 describe("the homeowner's page", () => {
 	const open = (token: string) =>
 		homeownerLoad({ params: { token }, setHeaders: () => {} } as never) as Promise<{

@@ -44,3 +44,8 @@ export const declineSchema = z.object({
 export const questionSchema = z.object({
 	question: z.string().trim().min(3, 'Type your question').max(2000)
 });
+
+/** The version a builder button acts on (new version, send). */
+export const estimateActionSchema = z.object({
+	estimateId: z.string().trim().min(1, 'Pick a version').max(64)
+});

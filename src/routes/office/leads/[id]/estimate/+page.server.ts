@@ -4,13 +4,23 @@ import {
 	acceptanceFor,
 	createEstimate,
 	estimatesForLead,
+	getEstimate,
 	leadWithContact,
 	newVersion,
 	sendEstimate
 } from '$lib/server/estimates';
 import { estimatingConfig, loadCatalog } from '$lib/server/pricelist';
+import { estimateActionSchema } from '$lib/schema/estimates';
 import { firmSettings } from '$lib/server/settings';
-import type { Actions, PageServerLoad } from './$types';
+import type { Actions, PageServerLoad, RequestEvent } from './$types';
+
+/** The estimate a button names, only when it is one of this lead's versions. */
+async function estimateOfThisLead(event: RequestEvent): Promise<string | null> {
+	const parsed = estimateActionSchema.safeParse(Object.fromEntries(await event.request.formData()));
+	if (!parsed.success) return null;
+	const estimate = await getEstimate(parsed.data.estimateId);
+	return estimate && estimate.leadId === event.params.id ? estimate.id : null;
+}
 
 export const load: PageServerLoad = async (event) => {
 	requireRole(event, 'owner', 'sales');
@@ -46,15 +56,21 @@ export const actions: Actions = {
 	},
 	newVersion: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
-		const data = await event.request.formData();
-		const id = await newVersion(String(data.get('estimateId') ?? ''), user);
+		const estimateId = await estimateOfThisLead(event);
+		if (!estimateId) {
+			return fail(404, { message: 'That is not a version of this lead’s estimate.' });
+		}
+		const id = await newVersion(estimateId, user);
 		if (!id) return fail(404, { message: 'No such estimate' });
 		redirect(303, `/office/leads/${event.params.id}/estimate`);
 	},
 	send: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
-		const data = await event.request.formData();
-		const out = await sendEstimate(String(data.get('estimateId') ?? ''), user);
+		const estimateId = await estimateOfThisLead(event);
+		if (!estimateId) {
+			return fail(404, { message: 'That is not a version of this lead’s estimate.' });
+		}
+		const out = await sendEstimate(estimateId, user);
 		if (out.kind === 'missing') return fail(404, { message: 'No such estimate' });
 		if (out.kind === 'invalid') return fail(400, { message: out.message });
 		return { sent: true, expiresAt: out.expiresAt.toISOString() };
