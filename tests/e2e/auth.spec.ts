@@ -13,6 +13,24 @@ test('a wrong password gets a clear message and keeps the e-mail typed', async (
 	await expect(page.getByLabel('E-mail')).toHaveValue(demoUser('sales').email);
 });
 
+test('an e-mail typed while the page is still loading is kept once its script starts', async ({
+	page
+}) => {
+	// Hold the app's scripts back, type, then let them run: hydration must not empty the field.
+	let release = () => {};
+	const held = new Promise<void>((resolve) => (release = resolve));
+	await page.route('**/_app/immutable/**/*.js', async (route) => {
+		await held;
+		await route.continue();
+	});
+	await page.goto('/sign-in', { waitUntil: 'domcontentloaded' });
+	await page.getByLabel('E-mail').fill(demoUser('crew').email);
+	release();
+	await page.waitForLoadState('networkidle');
+	await page.evaluate(() => new Promise((resolve) => requestAnimationFrame(resolve)));
+	await expect(page.getByLabel('E-mail')).toHaveValue(demoUser('crew').email);
+});
+
 test('an unknown e-mail gets the very same message', async ({ page }) => {
 	await page.goto('/sign-in');
 	await page.getByLabel('E-mail').fill('nobody@copperleaf.example');
