@@ -5,6 +5,7 @@ import { createHash, randomBytes } from 'node:crypto';
 import postgres from 'postgres';
 import { expect, request, test, type APIRequestContext, type Page } from '@playwright/test';
 import { linkIn, waitForMail } from '../support/mailbox';
+import { seedAcceptedJob } from './pages/accepted-job';
 import { apiAs, demoUser, signIn } from './pages/staff';
 
 const sql = postgres(process.env.E2E_DATABASE_URL ?? process.env.DATABASE_URL!, {
@@ -414,37 +415,19 @@ test('a price list name keeps the strings and shows them as text', async ({ base
 	}
 });
 
-/** A sold job straight in the database (the journey covers how one is really made). */
+/** A sold job straight in the database, given to the first crew lead. */
 async function seedJob() {
-	const id = () => randomBytes(12).toString('base64url');
-	const [contactId, leadId, estimateId, jobId] = [id(), id(), id(), id()];
 	const [crew] = await sql`select id from users where role = 'crew' order by created_at limit 1`;
-	await sql`insert into contacts (id, name, email) values (${contactId}, ${'Juniper ' + tag}, ${`inj-job-${tag}@homeowner.example`})`;
-	await sql`insert into leads (id, contact_id, stage, services, message)
-		values (${leadId}, ${contactId}, 'sold', ${['bubbler']}, 'A drilled boulder by the patio')`;
-	await sql`insert into estimates (id, lead_id, number, status, design, scope, total_cents, deposit_cents)
-		values (${estimateId}, ${leadId}, 1, 'accepted', '{}'::jsonb, 'Drilled boulder', 980000, 294000)`;
-	const frozen = {
-		estimateId,
-		number: 1,
-		revision: 1,
+	const { jobId } = await seedAcceptedJob(sql, {
+		name: `Juniper ${tag}`,
+		email: `inj-job-${tag}@homeowner.example`,
+		message: 'A drilled boulder by the patio',
 		scope: 'Drilled boulder',
-		design: {},
-		result: { totals: { taxCents: 0 } },
-		choices: { options: [], alternates: {} },
-		acceptance: {
-			typedName: 'Juniper Okafor',
-			acceptedAt: new Date().toISOString(),
-			ipAddress: null,
-			userAgent: null,
-			method: 'link',
-			recordedBy: null
-		},
+		title: 'Drilled boulder',
 		totalCents: 980000,
-		depositCents: 294000
-	};
-	await sql`insert into jobs (id, estimate_id, lead_id, contact_id, title, frozen, contract_cents, deposit_due_cents, crew_lead_id)
-		values (${jobId}, ${estimateId}, ${leadId}, ${contactId}, 'Drilled boulder', ${sql.json(frozen)}, 980000, 294000, ${crew.id})`;
+		depositCents: 294000,
+		crewLeadId: crew.id
+	});
 	return jobId;
 }
 

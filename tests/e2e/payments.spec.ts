@@ -3,47 +3,26 @@
 // issues 8 and 9 were not in place when this was written, so the accepted estimate and its job
 // are seeded straight into the e2e database below, and the homeowner opens the pay page with
 // the estimate's own link token (what the estimate page's "Pay the deposit" button links to).
-import { createHash, randomBytes } from 'node:crypto';
+import { randomBytes } from 'node:crypto';
 import postgres from 'postgres';
 import { expect, test } from '@playwright/test';
+import { seedAcceptedJob } from './pages/accepted-job';
 import { signIn } from './pages/staff';
 
-const id = () => randomBytes(12).toString('base64url');
-
-async function seedAcceptedJob() {
+async function seedJuniperJob() {
 	const sql = postgres(process.env.DATABASE_URL!, { max: 1, onnotice: () => {} });
 	try {
-		const token = randomBytes(20).toString('base64url');
-		const [contactId, leadId, estimateId, jobId] = [id(), id(), id(), id()];
-		const email = `juniper.${token.slice(0, 6).toLowerCase()}@homeowner.example`;
-		await sql`insert into contacts (id, name, email) values (${contactId}, 'Juniper Okafor', ${email})`;
-		await sql`insert into leads (id, contact_id, stage, services, message)
-			values (${leadId}, ${contactId}, 'sold', ${['bubbler']}, 'A drilled boulder by the patio')`;
-		await sql`insert into estimates (id, lead_id, number, status, design, scope, total_cents, deposit_cents, token_hash, expires_at)
-			values (${estimateId}, ${leadId}, 1, 'accepted', '{}'::jsonb, 'Drilled granite boulder over a hidden basin',
-				980000, 294000, ${createHash('sha256').update(token).digest('hex')}, now() + interval '30 days')`;
-		const frozen = {
-			estimateId,
-			number: 1,
-			revision: 1,
+		const tag = randomBytes(4).toString('hex');
+		return await seedAcceptedJob(sql, {
+			name: 'Juniper Okafor',
+			email: `juniper.${tag}@homeowner.example`,
+			message: 'A drilled boulder by the patio',
 			scope: 'Drilled granite boulder over a hidden basin',
-			design: {},
-			result: { totals: { taxCents: 48_000 } },
-			choices: { options: [], alternates: {} },
-			acceptance: {
-				typedName: 'Juniper Okafor',
-				acceptedAt: new Date().toISOString(),
-				ipAddress: null,
-				userAgent: null,
-				method: 'link',
-				recordedBy: null
-			},
+			title: 'Drilled granite boulder',
 			totalCents: 980000,
-			depositCents: 294000
-		};
-		await sql`insert into jobs (id, estimate_id, lead_id, contact_id, title, frozen, contract_cents, deposit_due_cents)
-			values (${jobId}, ${estimateId}, ${leadId}, ${contactId}, 'Drilled granite boulder', ${sql.json(frozen)}, 980000, 294000)`;
-		return { token, jobId };
+			depositCents: 294000,
+			taxCents: 48_000
+		});
 	} finally {
 		await sql.end();
 	}
@@ -53,7 +32,7 @@ test('the homeowner pays the deposit and the office sees the job ready to schedu
 	page,
 	browser
 }) => {
-	const { token, jobId } = await seedAcceptedJob();
+	const { token, jobId } = await seedJuniperJob();
 
 	await page.goto(`/pay/${token}`);
 	await expect(page.getByRole('heading', { name: 'Deposit to book your install' })).toBeVisible();
@@ -80,7 +59,7 @@ test('the homeowner pays the deposit and the office sees the job ready to schedu
 });
 
 test('a homeowner who goes back without paying is told nothing was charged', async ({ page }) => {
-	const { token } = await seedAcceptedJob();
+	const { token } = await seedJuniperJob();
 	await page.goto(`/pay/${token}`);
 	await page.getByRole('button', { name: /by card/ }).click();
 	await page.getByRole('button', { name: 'Use a card that is declined' }).click();

@@ -1,12 +1,12 @@
 // The storage (S3), mail (SMTP) and payment stand-ins stopped and started under the running
 // production app: each outage gets a clear message, nothing is half-written, and queued work goes
 // out once the service is back. The stand-ins are always started again, even when a test fails.
-import { createHash, randomBytes } from 'node:crypto';
 import postgres from 'postgres';
 import { expect, test, type Page } from '@playwright/test';
 import { yardJpeg } from '../../fixtures/images/make';
 import { allMail, waitForMail } from '../../support/mailbox';
 import { startStandIn, withStandInDown } from '../../support/standins';
+import { seedAcceptedJob } from '../pages/accepted-job';
 
 const sql = postgres(process.env.E2E_DATABASE_URL ?? process.env.DATABASE_URL!, {
 	max: 1,
@@ -106,45 +106,22 @@ test('mail written while SMTP is down waits in the outbox and arrives once it is
 	await context.close();
 });
 
-async function seedAcceptedJob() {
-	const id = () => randomBytes(12).toString('base64url');
-	const token = randomBytes(20).toString('base64url');
-	const [contactId, leadId, estimateId, jobId] = [id(), id(), id(), id()];
-	await sql`insert into contacts (id, name, email) values (${contactId}, 'Odile Brandt', ${`odile.${Date.now()}@homeowner.example`})`;
-	await sql`insert into leads (id, contact_id, stage, services, message)
-		values (${leadId}, ${contactId}, 'sold', ${['bubbler']}, 'A stone column by the door')`;
-	await sql`insert into estimates (id, lead_id, number, status, design, scope, total_cents, deposit_cents, token_hash, expires_at)
-		values (${estimateId}, ${leadId}, 1, 'accepted', '{}'::jsonb, 'Basalt column over a hidden basin',
-			640000, 192000, ${createHash('sha256').update(token).digest('hex')}, now() + interval '30 days')`;
-	const frozen = {
-		estimateId,
-		number: 1,
-		revision: 1,
+const seedOdileJob = () =>
+	seedAcceptedJob(sql, {
+		name: 'Odile Brandt',
+		email: `odile.${Date.now()}@homeowner.example`,
+		message: 'A stone column by the door',
 		scope: 'Basalt column over a hidden basin',
-		design: {},
-		result: { totals: { taxCents: 0 } },
-		choices: { options: [], alternates: {} },
-		acceptance: {
-			typedName: 'Odile Brandt',
-			acceptedAt: new Date().toISOString(),
-			ipAddress: null,
-			userAgent: null,
-			method: 'link',
-			recordedBy: null
-		},
+		title: 'Basalt column',
 		totalCents: 640000,
 		depositCents: 192000
-	};
-	await sql`insert into jobs (id, estimate_id, lead_id, contact_id, title, frozen, contract_cents, deposit_due_cents)
-		values (${jobId}, ${estimateId}, ${leadId}, ${contactId}, 'Basalt column', ${sql.json(frozen)}, 640000, 192000)`;
-	return { token, jobId };
-}
+	});
 
 test('a deposit tried while the payment service is down gets a clear error, charges nothing, and works after', async ({
 	page
 }) => {
 	test.setTimeout(120_000);
-	const { token, jobId } = await seedAcceptedJob();
+	const { token, jobId } = await seedOdileJob();
 	await page.goto(`/pay/${token}`);
 	await withStandInDown('payments', async () => {
 		await page.getByRole('button', { name: 'Pay $1,920.00 by card' }).click();
