@@ -172,6 +172,11 @@ describe('deleting a visit photo', () => {
 		const photo = (await storeVisitPhoto(visit.id, 'spot.jpg', await jpeg(), sales.id))!;
 		const crew = await makeUser('crew', 'rosa@test.example', 'Rosa Test');
 		await expect(del(visit.id, photo.id, crew)).rejects.toMatchObject({ status: 403 });
+		// A colleague in sales can open the booked visit but not remove its photos.
+		const colleague = await makeUser('sales', 'colleague@test.example', 'Colleague Test');
+		const refused = (await del(visit.id, photo.id, colleague)) as { status: number };
+		expect(refused.status).toBe(403);
+		expect((await visitPhotoLinks(visit.id)).map((p) => p.id)).toEqual([photo.id]);
 		const other = await makeVisitLead();
 		const otherVisit = await bookVisit({
 			leadId: other.id,

@@ -76,7 +76,14 @@ export const actions: Actions = {
 	},
 	deletePhoto: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
-		await visitFor(user, event.params.id);
+		const detail = await visitFor(user, event.params.id);
+		// A colleague may add to a booked visit, but only its own salesperson or the owner removes.
+		if (user.role === 'sales' && detail.visit.salespersonId !== user.id) {
+			return fail(403, {
+				form: 'deletePhoto',
+				message: 'Only the visit’s own salesperson or the owner can delete its photos.'
+			});
+		}
 		const photoId = String((await event.request.formData()).get('photoId') ?? '');
 		try {
 			if (!photoId || !(await deleteVisitPhoto(event.params.id, photoId))) {
