@@ -86,14 +86,17 @@ type ValidSession = { user: SessionUser; session: SessionInfo };
  * page, and a database round trip per request for the same cookie doubled its cost. Every way a
  * session ends in this app (sign-out, sign-in over it, role change, disabling, password reset)
  * goes through endSession/endAllSessionsOf/forgetSessionsOf below, which drop the entries at once;
- * the app runs as one process, so nothing else can end a session behind the cache's back.
+ * the app runs as one process, so nothing else can end a session behind the cache's back (run
+ * several and this must become a shared invalidation, or SESSION_CACHE_MS 0).
  */
 const SESSION_CACHE_MS = 5_000;
 const SESSION_CACHE_MAX = 5_000;
 const recentSessions = new Map<string, { until: number; value: ValidSession }>();
 
 function remember(id: string, value: ValidSession) {
-	if (recentSessions.size >= SESSION_CACHE_MAX) recentSessions.clear();
+	if (recentSessions.size >= SESSION_CACHE_MAX) {
+		recentSessions.delete(recentSessions.keys().next().value!); // the oldest entry
+	}
 	const until = Math.min(Date.now() + SESSION_CACHE_MS, value.session.absoluteExpiresAt.getTime());
 	recentSessions.set(id, {
 		until,

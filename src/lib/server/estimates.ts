@@ -148,7 +148,8 @@ export async function createEstimate(leadId: string, user: SessionUser) {
 	]);
 	const label = `${found.contact.name} — water feature`;
 	// What the price list cannot supply goes to the staff's timeline, never into the homeowner's scope.
-	const gaps = starterGapsNote(starterFromCatalog(catalog).notes);
+	const ownDesign = Boolean(notes && typeof notes.design === 'object' && notes.design);
+	const gaps = ownDesign ? '' : starterGapsNote(starterFromCatalog(catalog).notes);
 	const scope = scopeFromNotes(notes, found.lead.message);
 	return db.transaction(async (tx) => {
 		await tx.execute(sql`select id from leads where id = ${leadId} for update`);
