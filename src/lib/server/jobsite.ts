@@ -426,11 +426,14 @@ export async function installDays(user: SessionUser, from: string, to: string) {
 			title: jobs.title,
 			stage: jobs.stage,
 			crewLeadId: jobs.crewLeadId,
-			crewLeadName: users.name
+			crewLeadName: users.name,
+			street: properties.street,
+			town: properties.town
 		})
 		.from(jobDays)
 		.innerJoin(jobs, eq(jobs.id, jobDays.jobId))
 		.leftJoin(users, eq(users.id, jobs.crewLeadId))
+		.leftJoin(properties, eq(properties.id, jobs.propertyId))
 		.where(
 			and(
 				gte(jobDays.day, from),

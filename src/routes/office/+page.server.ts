@@ -1,6 +1,7 @@
 import { requireRole } from '$lib/server/access';
 import type { SessionUser } from '$lib/server/auth';
-import { listJobs } from '$lib/server/jobsite';
+import { installDays } from '$lib/server/jobsite';
+import { addDays } from '$lib/scheduling/zone';
 import { todaySummary } from '$lib/server/leads';
 import { firmSettings } from '$lib/server/settings';
 import { listMembers, pendingInvitations } from '$lib/server/team';
@@ -11,28 +12,10 @@ const CREW_DAYS_AHEAD = 14;
 /** A crew lead's install days from today on, two weeks ahead, in the firm's calendar. */
 async function crewInstallDays(user: SessionUser, timeZone: string) {
 	const today = new Intl.DateTimeFormat('en-CA', { timeZone }).format(new Date());
-	const last = new Date(`${today}T00:00:00Z`);
-	last.setUTCDate(last.getUTCDate() + CREW_DAYS_AHEAD - 1);
-	const until = last.toISOString().slice(0, 10);
-	const jobs = await listJobs(user);
-	const days = jobs
-		.filter((job) => job.stage !== 'complete' && job.stage !== 'paid')
-		.flatMap((job) =>
-			job.days
-				.filter((day) => day >= today && day <= until)
-				.map((day) => ({
-					day,
-					job: {
-						id: job.id,
-						number: job.number,
-						title: job.title,
-						street: job.street,
-						town: job.town,
-						stage: job.stage
-					}
-				}))
-		)
-		.sort((a, b) => a.day.localeCompare(b.day) || a.job.number - b.job.number);
+	const rows = await installDays(user, today, addDays(today, CREW_DAYS_AHEAD - 1));
+	const days = rows
+		.filter((row) => row.stage !== 'complete' && row.stage !== 'paid')
+		.map(({ day, ...job }) => ({ day, job: { ...job, id: job.jobId } }));
 	return { today, days, daysAhead: CREW_DAYS_AHEAD };
 }
 
