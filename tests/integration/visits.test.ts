@@ -52,6 +52,19 @@ beforeEach(async () => {
 	await setHours(sales.id);
 });
 
+/** A new lead with a visit booked by the test's salesperson, at a day and hour in the firm's zone. */
+async function bookedBySales(day: string, hour: number) {
+	const lead = await makeVisitLead();
+	const visit = await bookVisit({
+		leadId: lead.id,
+		salespersonId: sales.id,
+		startsAt: at(day, hour),
+		noteForHomeowner: '',
+		actorId: sales.id
+	});
+	return { lead, visit };
+}
+
 async function mailsOf(visitId: string) {
 	const rows = await db.select().from(outbox);
 	return rows.filter((r) => r.dedupeKey.startsWith(`visit:${visitId}:`));
@@ -252,14 +265,7 @@ describe('invitations read back with ical.js', () => {
 
 describe('reminders', () => {
 	it('sends once per sequence and nothing for a rescheduled or cancelled visit', async () => {
-		const lead = await makeVisitLead();
-		const visit = await bookVisit({
-			leadId: lead.id,
-			salespersonId: sales.id,
-			startsAt: at('2027-03-15', 9),
-			noteForHomeowner: '',
-			actorId: sales.id
-		});
+		const { visit } = await bookedBySales('2027-03-15', 9);
 		const dayBefore = new Date(visit.startsAt.getTime() - 86_400_000);
 		expect(await sendVisitReminder({ visitId: visit.id, sequence: 0 }, dayBefore)).toBe('sent');
 		expect(await sendVisitReminder({ visitId: visit.id, sequence: 0 }, dayBefore)).toBe('sent');
@@ -360,14 +366,7 @@ describe("the homeowner's link", () => {
 		(await mailsOf(visitId)).find((m) => m.dedupeKey.endsWith(`${kind}:homeowner`))!;
 
 	it('keeps the first link working after a move, at the new time, until after the new visit', async () => {
-		const lead = await makeVisitLead();
-		const visit = await bookVisit({
-			leadId: lead.id,
-			salespersonId: sales.id,
-			startsAt: at('2027-03-15', 9),
-			noteForHomeowner: '',
-			actorId: sales.id
-		});
+		const { visit } = await bookedBySales('2027-03-15', 9);
 		const first = tokenIn((await homeownerMail(visit.id, '0:booked')).text);
 		const moved = await rescheduleVisit(visit.id, {
 			salespersonId: sales.id,
@@ -398,14 +397,7 @@ describe("the homeowner's link", () => {
 	});
 
 	it('refuses a cancel reason over 500 characters beside the field, keeps it and the visit', async () => {
-		const lead = await makeVisitLead();
-		const visit = await bookVisit({
-			leadId: lead.id,
-			salespersonId: sales.id,
-			startsAt: at('2027-03-15', 9),
-			noteForHomeowner: '',
-			actorId: sales.id
-		});
+		const { visit } = await bookedBySales('2027-03-15', 9);
 		const token = tokenIn((await homeownerMail(visit.id, '0:booked')).text);
 		const cancel = (reason: string) => {
 			const body = new FormData();
@@ -437,14 +429,7 @@ describe("the homeowner's link", () => {
 	});
 
 	it('shows a cancelled visit as cancelled through every link, and refuses to confirm it', async () => {
-		const lead = await makeVisitLead();
-		const visit = await bookVisit({
-			leadId: lead.id,
-			salespersonId: sales.id,
-			startsAt: at('2027-03-15', 9),
-			noteForHomeowner: '',
-			actorId: sales.id
-		});
+		const { visit } = await bookedBySales('2027-03-15', 9);
 		const first = tokenIn((await homeownerMail(visit.id, '0:booked')).text);
 		await rescheduleVisit(visit.id, {
 			salespersonId: sales.id,
@@ -476,14 +461,7 @@ describe("the homeowner's link", () => {
 describe('an SMTP outage', () => {
 	it('keeps the booking and sends the invitations when mail is back', async () => {
 		relay.down = true;
-		const lead = await makeVisitLead();
-		const visit = await bookVisit({
-			leadId: lead.id,
-			salespersonId: sales.id,
-			startsAt: at('2027-03-15', 13),
-			noteForHomeowner: '',
-			actorId: sales.id
-		});
+		const { lead, visit } = await bookedBySales('2027-03-15', 13);
 		const mails = await mailsOf(visit.id);
 		expect(mails).toHaveLength(2);
 		for (const m of mails) await expect(deliverOutboxMessage(m.id)).rejects.toThrow();
@@ -564,14 +542,7 @@ describe("a visit's notes", () => {
 	it("refuses another salesperson's closed visit and keeps its notes; its own salesperson and the owner may save; too long a note comes back with its message and the text", async () => {
 		const other = await makeUser('sales', 'una@test.example', 'Una Test');
 		const owner = await makeUser('owner', 'olive@test.example', 'Olive Test');
-		const lead = await makeVisitLead();
-		const visit = await bookVisit({
-			leadId: lead.id,
-			salespersonId: sales.id,
-			startsAt: at('2027-03-15', 9),
-			noteForHomeowner: '',
-			actorId: sales.id
-		});
+		const { visit } = await bookedBySales('2027-03-15', 9);
 		await saveNotes(
 			visit.id,
 			{ notes: 'Big cottonwood roots by the fence', powerLocation: '' },
