@@ -1,5 +1,7 @@
 // `npm run services`: only the local services (for `npm run dev` in another terminal, or tools).
-import { PortBusyError, startServices, stopOnSignals } from './lib/services';
+import './lib/tether.js';
+import { exitWithError } from './lib/errors';
+import { startServices, stopOnSignals } from './lib/services';
 
 const profile = process.argv.includes('--test') ? 'test' : 'dev';
 try {
@@ -7,6 +9,5 @@ try {
 	stopOnSignals(services.stop);
 	console.log('Services running. Ctrl-C stops them.');
 } catch (error) {
-	console.error(error instanceof PortBusyError ? error.message : error);
-	process.exit(1);
+	exitWithError(error);
 }

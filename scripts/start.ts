@@ -1,10 +1,12 @@
 // `npm start` (production build) and `npm run dev` (Vite's dev server): services, migrations,
 // demo data on an empty database, then the app on http://127.0.0.1:3000.
-import { spawn } from 'node:child_process';
+import './lib/tether.js';
+import type { ChildProcess } from 'node:child_process';
 import { appEnv, databaseUrl, serviceConfig } from './lib/config';
-import { buildIfNeeded } from './lib/build';
-import { portInUse } from './lib/ports';
-import { PortBusyError, startServices, stopOnSignals } from './lib/services';
+import { buildInBackgroundIfNeeded } from './lib/build';
+import { spawnTethered, stopChild } from './lib/children';
+import { exitWithError } from './lib/errors';
+import { startServices, stopOnSignals } from './lib/services';
 import { databaseIsEmpty, seedDemo } from './seed/index';
 import { DEMO_STAFF } from './seed/demo-data';
 
@@ -12,20 +14,24 @@ const dev = process.argv.includes('--dev');
 const c = serviceConfig('dev');
 const env = appEnv('dev');
 
-if (await portInUse(c.appPort)) {
-	console.error(
-		`Port ${c.appPort} on 127.0.0.1 is in use: Rillstone (or something else) is already running there. Stop it first, or set PORT.`
-	);
-	process.exit(1);
-}
-
 let services;
 try {
-	services = await startServices('dev', { log: console.log });
+	services = await startServices('dev', {
+		log: console.log,
+		ports: [{ name: 'app', port: c.appPort, setting: 'PORT' }]
+	});
 } catch (error) {
-	console.error(error instanceof PortBusyError ? error.message : error);
-	process.exit(1);
+	exitWithError(error);
 }
+
+// The build, then the app: whichever runs is stopped first.
+let child: ChildProcess | null = null;
+let stopping = false;
+stopOnSignals(async () => {
+	stopping = true;
+	if (child) await stopChild(child);
+	await services.stop();
+});
 
 const url = env.DATABASE_URL ?? databaseUrl('dev');
 if (await databaseIsEmpty(url)) {
@@ -34,7 +40,7 @@ if (await databaseIsEmpty(url)) {
 }
 
 try {
-	if (!dev) buildIfNeeded('build', env);
+	if (!dev) await buildInBackgroundIfNeeded('build', env, (build) => (child = build));
 } catch (error) {
 	console.error((error as Error).message);
 	await services.stop();
@@ -42,7 +48,7 @@ try {
 }
 
 const app = dev
-	? spawn(
+	? spawnTethered(
 			process.execPath,
 			// Vite itself, not through npx, so that stopping this process stops the server too.
 			[
@@ -56,13 +62,13 @@ const app = dev
 			],
 			{ stdio: 'inherit', env: { ...process.env, ...env } }
 		)
-	: spawn(process.execPath, ['scripts/serve.js', 'build'], {
+	: spawnTethered(process.execPath, ['scripts/serve.js', 'build'], {
 			stdio: 'inherit',
 			env: { ...process.env, ...env, NODE_ENV: 'production' }
 		});
-
-stopOnSignals(services.stop, () => app.kill('SIGTERM'));
+child = app;
 app.on('exit', (code) => {
+	if (stopping) return;
 	console.log(`The app stopped (${code ?? 'signal'}); stopping the services.`);
 	void services.stop().finally(() => process.exit(code ?? 0));
 });

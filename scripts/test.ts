@@ -1,27 +1,42 @@
 // `npm test`: starts its own PostgreSQL and stand-ins on the test ports (fresh data each run),
 // then runs the unit and integration tests (vitest) and the end-to-end tests (Playwright)
 // against a production build. Exits non-zero on any failure.
-import { spawn } from 'node:child_process';
+import './lib/tether.js';
+import type { ChildProcess } from 'node:child_process';
 import { appEnv, serviceConfig } from './lib/config';
-import { buildIfNeeded } from './lib/build';
+import { buildInBackgroundIfNeeded } from './lib/build';
+import { spawnTethered, stopChild } from './lib/children';
+import { exitWithError } from './lib/errors';
 import { ensureDatabase } from './lib/postgres';
 import { runMigrations } from './lib/migrate';
-import { PortBusyError, startServices, stopOnSignals } from './lib/services';
+import { startServices, stopOnSignals } from './lib/services';
 import { seedDemo } from './seed/index';
 import { startStandInControl } from './lib/standins';
 
 const c = serviceConfig('test');
 process.env.PG_FSYNC = 'off'; // throwaway test cluster: durability is not needed, speed is
 
+// `npm test -- e2e tests/e2e/x.spec.ts --no-deps`: step names select steps, the rest go to Playwright.
+const STEPS = ['unit', 'integration', 'e2e'];
+const only = process.argv.slice(2).filter((a) => STEPS.includes(a));
+const playwrightArgs = process.argv.slice(2).filter((a) => !STEPS.includes(a));
+const want = (step: string) => only.length === 0 || only.includes(step);
+
 let services;
 try {
-	services = await startServices('test', { fresh: true, log: (line) => console.log(`  ${line}`) });
+	services = await startServices('test', {
+		fresh: true,
+		log: (line) => console.log(`  ${line}`),
+		ports: want('e2e') ? [{ name: 'app under test', port: c.appPort, setting: 'PORT' }] : []
+	});
 } catch (error) {
-	console.error(error instanceof PortBusyError ? error.message : error);
-	process.exit(1);
+	exitWithError(error);
 }
 const control = await startStandInControl(services.standIns);
+// The step running now (a test runner or the build): a signal stops it before the services.
+let child: ChildProcess | null = null;
 const stopAll = async () => {
+	if (child) await stopChild(child, 8_000);
 	await control.stop();
 	await services.stop();
 };
@@ -46,6 +61,10 @@ const shared = {
 	BUILD_DIR: process.env.BUILD_DIR ?? '.test-build'
 };
 
+// The runners themselves, not through npx: a signal then reaches them directly.
+const VITEST = 'node_modules/vitest/vitest.mjs';
+const PLAYWRIGHT = 'node_modules/@playwright/test/cli.js';
+
 // Asynchronous on purpose: the stand-ins live in this process and must keep answering.
 function run(
 	label: string,
@@ -54,31 +73,27 @@ function run(
 	env: Record<string, string>
 ): Promise<boolean> {
 	console.log(`\n▶ ${label}`);
-	const child = spawn(cmd, args, { stdio: 'inherit', env: { ...process.env, ...env } });
-	return new Promise((resolve) => child.on('exit', (code) => resolve(code === 0)));
+	const step = spawnTethered(cmd, args, { stdio: 'inherit', env: { ...process.env, ...env } });
+	child = step;
+	return new Promise((resolve) => step.on('exit', (code) => resolve(code === 0)));
 }
 
-// `npm test -- e2e tests/e2e/x.spec.ts --no-deps`: step names select steps, the rest go to Playwright.
-const STEPS = ['unit', 'integration', 'e2e'];
-const only = process.argv.slice(2).filter((a) => STEPS.includes(a));
-const playwrightArgs = process.argv.slice(2).filter((a) => !STEPS.includes(a));
-const want = (step: string) => only.length === 0 || only.includes(step);
 const results: Record<string, boolean> = {};
 
 // Separate runs: integration files share one database and must not run beside each other.
 if (want('unit')) {
 	results.unit = await run(
 		'unit tests (vitest)',
-		'npx',
-		['vitest', 'run', '--project', 'unit'],
+		process.execPath,
+		[VITEST, 'run', '--project', 'unit'],
 		shared
 	);
 }
 if (want('integration')) {
 	results.integration = await run(
 		'integration tests (vitest, real PostgreSQL and stand-ins)',
-		'npx',
-		['vitest', 'run', '--project', 'integration'],
+		process.execPath,
+		[VITEST, 'run', '--project', 'integration'],
 		shared
 	);
 }
@@ -86,17 +101,22 @@ if (want('e2e')) {
 	try {
 		// E2E_REUSE_BUILD=1 keeps a build that is newer than every source (handy for one spec).
 		const force = process.env.E2E_REUSE_BUILD !== '1';
-		buildIfNeeded(shared.BUILD_DIR, { ...shared, DATABASE_URL: e2eUrl }, force);
+		await buildInBackgroundIfNeeded(
+			shared.BUILD_DIR,
+			{ ...shared, DATABASE_URL: e2eUrl },
+			(build) => (child = build),
+			force
+		);
 		results.site = await run(
 			'build-output tests of the public site',
-			'npx',
-			['vitest', 'run', '--project', 'site'],
+			process.execPath,
+			[VITEST, 'run', '--project', 'site'],
 			shared
 		);
 		results.e2e = await run(
 			'end-to-end tests (Playwright, production build)',
-			'npx',
-			['playwright', 'test', ...playwrightArgs],
+			process.execPath,
+			[PLAYWRIGHT, 'test', ...playwrightArgs],
 			{ ...shared, DATABASE_URL: e2eUrl }
 		);
 	} catch (error) {

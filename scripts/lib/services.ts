@@ -1,16 +1,26 @@
 // Starts PostgreSQL and the S3 and SMTP stand-ins for a profile, on 127.0.0.1 only.
-import { mkdirSync, rmSync } from 'node:fs';
-import { appEnv, serviceConfig, databaseUrl, type Profile } from './config';
+import { mkdirSync, readFileSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
+import { basename, join } from 'node:path';
+import { appEnv, serviceConfig, databaseUrl, type Profile, type ServiceConfig } from './config';
+import { diskFullMessage, LauncherError } from './errors';
 import { startPayStandIn } from './pay-standin';
 import {
+	clusterPlace,
 	ensureDatabase,
 	initCluster,
-	pgDataDir,
+	removeData,
+	runningServerPid,
 	startCluster,
-	stopCluster,
-	isClusterRunning
+	stopCluster
 } from './postgres';
 import { portInUse } from './ports';
+import {
+	isSameProcess,
+	outlivedItsLauncher,
+	portHolder,
+	processStartTime,
+	stopProcess
+} from './processes';
 import { runMigrations } from './migrate';
 import { startMail, startS3, type StandIn } from './standins';
 
@@ -49,51 +59,174 @@ async function restartable(
 	};
 }
 
-export class PortBusyError extends Error {}
+interface LauncherLock {
+	pid: number;
+	startTime: number;
+	command: string;
+}
+
+const lockFile = (dataDir: string) => join(dataDir, 'launcher.json');
+
+function commandName(): string {
+	const script = process.argv.find((a) => /scripts[\\/]\w+\.ts$/.test(a)) ?? process.argv[1] ?? '';
+	const name = basename(script, '.ts');
+	if (name === 'start') return process.argv.includes('--dev') ? '`npm run dev`' : '`npm start`';
+	if (name === 'test') return '`npm test`';
+	if (name === 'services') return '`npm run services`';
+	return `${basename(process.argv[1] ?? 'node')} (pid ${process.pid})`;
+}
+
+/** The launcher that holds this data folder, if it still runs (a crashed one leaves its file behind). */
+function liveLauncher(dataDir: string): LauncherLock | null {
+	try {
+		const lock = JSON.parse(readFileSync(lockFile(dataDir), 'utf8')) as LauncherLock;
+		if (lock.pid === process.pid) return null;
+		return isSameProcess(lock.pid, lock.startTime) ? lock : null;
+	} catch {
+		return null;
+	}
+}
+
+function claimDataDir(dataDir: string): void {
+	const lock: LauncherLock = {
+		pid: process.pid,
+		startTime: processStartTime(process.pid) ?? 0,
+		command: commandName()
+	};
+	writeFileSync(lockFile(dataDir), JSON.stringify(lock));
+}
+
+function releaseDataDir(dataDir: string): void {
+	try {
+		const lock = JSON.parse(readFileSync(lockFile(dataDir), 'utf8')) as LauncherLock;
+		if (lock.pid === process.pid) rmSync(lockFile(dataDir));
+	} catch {
+		// nothing to release
+	}
+}
+
+export interface NamedPort {
+	name: string;
+	port: number;
+	/** The environment variable that moves it. */
+	setting: string;
+}
+
+const LAUNCHER_SCRIPT = /scripts[\\/](start|test|services)\.ts$/;
+
+/**
+ * Frees each port held by a leftover of ours (a process a launcher of this folder started and
+ * that outlived it); a port held by anything else stops the start with a message naming the
+ * port and the setting that moves it.
+ */
+async function freePorts(ports: NamedPort[], log: (line: string) => void): Promise<void> {
+	const project = realpathSync('.');
+	for (const { name, port, setting } of ports) {
+		if (!(await portInUse(port))) continue;
+		const holder = portHolder(port);
+		const launcher = holder?.args.find((a) => LAUNCHER_SCRIPT.test(a));
+		if (holder && holder.cwd === project && outlivedItsLauncher(holder)) {
+			log(
+				`Stopping ${holder.args.slice(1).join(' ')} (pid ${holder.pid}), left over by an earlier run on port ${port}…`
+			);
+			await stopProcess(holder.pid);
+			if (!(await portInUse(port))) continue;
+		}
+		const who = !holder
+			? 'another program'
+			: launcher && holder.cwd === project
+				? `another Rillstone launcher of this folder (pid ${holder.pid})`
+				: `another program (pid ${holder.pid}, ${basename(holder.args[0] ?? '?')})`;
+		throw new LauncherError(
+			`Port ${port} on 127.0.0.1 (for the ${name}) is in use by ${who}: stop it, or set ${setting} to a free port.`
+		);
+	}
+}
+
+function servicePorts(c: ServiceConfig): NamedPort[] {
+	return [
+		{ name: 'PostgreSQL server', port: c.pgPort, setting: 'PG_PORT' },
+		{ name: 'S3 stand-in', port: c.s3Port, setting: 'S3_PORT' },
+		{ name: 'SMTP stand-in', port: c.smtpPort, setting: 'SMTP_PORT' },
+		{ name: 'mail inbox', port: c.mailWebPort, setting: 'MAIL_WEB_PORT' },
+		{ name: 'payment stand-in', port: c.payPort, setting: 'PAY_PORT' }
+	];
+}
+
+/** Stops a stand-in, giving up on it after a few seconds (an open browser tab can hold it). */
+function stopWithin(standIn: RestartableStandIn, ms: number): Promise<void> {
+	return Promise.race([
+		standIn.stop().catch(() => {}),
+		new Promise<void>((resolve) => setTimeout(resolve, ms).unref())
+	]);
+}
+
+function asLauncherError(error: unknown, dataDir: string): unknown {
+	const full = diskFullMessage(error, dataDir);
+	return full && !(error instanceof LauncherError) ? new LauncherError(full) : error;
+}
 
 export async function startServices(
 	profile: Profile,
-	opts: { log?: (line: string) => void; fresh?: boolean } = {}
+	opts: { log?: (line: string) => void; fresh?: boolean; ports?: NamedPort[] } = {}
 ): Promise<RunningServices> {
 	const log = opts.log ?? (() => {});
 	const c = serviceConfig(profile);
-	mkdirSync(c.dataDir, { recursive: true });
-	const pgDir = pgDataDir(c.dataDir);
+	try {
+		mkdirSync(c.dataDir, { recursive: true });
+	} catch (error) {
+		throw asLauncherError(error, c.dataDir);
+	}
 
-	if (isClusterRunning(pgDir)) {
-		throw new PortBusyError(
-			`PostgreSQL of ${c.dataDir} is already running: another \`npm ${profile === 'test' ? 'test' : 'start'}\` seems to be using it. Stop that one first.`
+	const other = liveLauncher(c.dataDir);
+	if (other) {
+		throw new LauncherError(
+			`${other.command} (pid ${other.pid}) is already running on ${c.dataDir}: stop it first (Ctrl-C in its terminal, or kill ${other.pid}).`
 		);
 	}
-	for (const [name, port] of [
-		['PostgreSQL', c.pgPort],
-		['S3 stand-in', c.s3Port],
-		['SMTP stand-in', c.smtpPort],
-		['mail inbox', c.mailWebPort],
-		['payment stand-in', c.payPort]
-	] as const) {
-		if (await portInUse(port)) {
-			throw new PortBusyError(
-				`Port ${port} on 127.0.0.1 (for the ${name}) is in use. Is another copy running? Stop it, or set another port (see .env.example).`
-			);
-		}
+	claimDataDir(c.dataDir);
+
+	let place = clusterPlace(c.dataDir);
+	const leftover = runningServerPid(place.dataDir);
+	if (leftover) {
+		log(`Stopping the PostgreSQL server (pid ${leftover}) that an earlier run left running…`);
+		stopCluster(place.dataDir);
+	}
+	try {
+		await freePorts([...servicePorts(c), ...(opts.ports ?? [])], log);
+	} catch (error) {
+		releaseDataDir(c.dataDir);
+		throw error;
 	}
 
 	// Only now, with nothing of ours running, may a throwaway data folder be wiped.
-	if (opts.fresh) rmSync(c.dataDir, { recursive: true, force: true });
-	mkdirSync(c.dataDir, { recursive: true });
+	if (opts.fresh) {
+		removeData(c.dataDir);
+		mkdirSync(c.dataDir, { recursive: true });
+		claimDataDir(c.dataDir);
+		place = clusterPlace(c.dataDir);
+	}
+	const pgDir = place.dataDir;
 
 	const started: RestartableStandIn[] = [];
-	const stop = async () => {
-		for (const s of [...started].reverse()) await s.stop().catch(() => {});
-		stopCluster(pgDir);
-	};
+	let stopping: Promise<void> | null = null;
+	const stop = () =>
+		(stopping ??= (async () => {
+			for (const s of [...started].reverse()) await stopWithin(s, 3_000);
+			stopCluster(pgDir);
+			releaseDataDir(c.dataDir);
+		})());
 	try {
 		initCluster(pgDir);
 		startCluster({ dataDir: pgDir, port: c.pgPort, database: c.pgDatabase });
 		await ensureDatabase({ dataDir: pgDir, port: c.pgPort, database: c.pgDatabase });
 		await runMigrations(process.env.DATABASE_URL ?? databaseUrl(profile));
-		log(`PostgreSQL  127.0.0.1:${c.pgPort} (database ${c.pgDatabase}, data in ${pgDir})`);
+		log(`PostgreSQL  127.0.0.1:${c.pgPort} (database ${c.pgDatabase})`);
+		log(
+			place.outside
+				? `            data in ${pgDir} (the postgres user cannot enter ${c.dataDir})`
+				: `            data in ${pgDir}`
+		);
 		started.push(
 			await restartable('s3', () =>
 				startS3({ port: c.s3Port, dataDir: c.dataDir, bucket: c.s3Bucket })
@@ -126,21 +259,25 @@ export async function startServices(
 		);
 	} catch (error) {
 		await stop();
-		throw error;
+		throw asLauncherError(error, c.dataDir);
 	}
 	return { stop, pgDataDir: pgDir, standIns: Object.fromEntries(started.map((s) => [s.name, s])) };
 }
 
-/** Stops the services on Ctrl-C or SIGTERM, once. */
-export function stopOnSignals(stop: () => Promise<void>, extra: () => void = () => {}): void {
+/**
+ * Runs `stop` once on Ctrl-C, SIGTERM or a closed terminal, then exits. Whatever is still up
+ * 14 seconds later is left to the tether of each child and the process exits anyway.
+ */
+export function stopOnSignals(stop: () => Promise<void>): void {
 	let stopping = false;
 	const handler = (signal: NodeJS.Signals) => {
 		if (stopping) return;
 		stopping = true;
 		console.log(`\n${signal}: stopping…`);
-		extra();
+		setTimeout(() => process.exit(1), 14_000).unref();
 		stop().finally(() => process.exit(0));
 	};
 	process.on('SIGINT', handler);
 	process.on('SIGTERM', handler);
+	process.on('SIGHUP', handler);
 }
