@@ -4,9 +4,9 @@ import { exitWithError } from './lib/errors';
 import { startServices, stopOnSignals } from './lib/services';
 
 const profile = process.argv.includes('--test') ? 'test' : 'dev';
+stopOnSignals();
 try {
-	const services = await startServices(profile, { log: console.log });
-	stopOnSignals(services.stop);
+	await startServices(profile, { log: console.log });
 	console.log('Services running. Ctrl-C stops them.');
 } catch (error) {
 	exitWithError(error);

@@ -14,6 +14,14 @@ const dev = process.argv.includes('--dev');
 const c = serviceConfig('dev');
 const env = appEnv('dev');
 
+// The build, then the app: whichever runs is stopped first, then the services.
+let child: ChildProcess | null = null;
+let stopping = false;
+stopOnSignals(async () => {
+	stopping = true;
+	if (child) await stopChild(child);
+});
+
 let services;
 try {
 	services = await startServices('dev', {
@@ -23,15 +31,6 @@ try {
 } catch (error) {
 	exitWithError(error);
 }
-
-// The build, then the app: whichever runs is stopped first.
-let child: ChildProcess | null = null;
-let stopping = false;
-stopOnSignals(async () => {
-	stopping = true;
-	if (child) await stopChild(child);
-	await services.stop();
-});
 
 const url = env.DATABASE_URL ?? databaseUrl('dev');
 if (await databaseIsEmpty(url)) {

@@ -22,6 +22,14 @@ const only = process.argv.slice(2).filter((a) => STEPS.includes(a));
 const playwrightArgs = process.argv.slice(2).filter((a) => !STEPS.includes(a));
 const want = (step: string) => only.length === 0 || only.includes(step);
 
+// The step running now (a test runner or the build): a signal stops it, then the services.
+let child: ChildProcess | null = null;
+let control: Awaited<ReturnType<typeof startStandInControl>> | null = null;
+stopOnSignals(async () => {
+	if (child) await stopChild(child, 8_000);
+	await control?.stop();
+});
+
 let services;
 try {
 	services = await startServices('test', {
@@ -32,15 +40,7 @@ try {
 } catch (error) {
 	exitWithError(error);
 }
-const control = await startStandInControl(services.standIns);
-// The step running now (a test runner or the build): a signal stops it before the services.
-let child: ChildProcess | null = null;
-const stopAll = async () => {
-	if (child) await stopChild(child, 8_000);
-	await control.stop();
-	await services.stop();
-};
-stopOnSignals(stopAll);
+control = await startStandInControl(services.standIns);
 
 const base = appEnv('test');
 const e2eDatabase = `${c.pgDatabase}_e2e`;
@@ -125,7 +125,8 @@ if (want('e2e')) {
 	}
 }
 
-await stopAll();
+await control.stop();
+await services.stop();
 const failed = Object.entries(results)
 	.filter(([, ok]) => !ok)
 	.map(([name]) => name);

@@ -105,6 +105,9 @@ function releaseDataDir(dataDir: string): void {
 	}
 }
 
+let signalled: NodeJS.Signals | null = null;
+const stopsOnSignal = new Set<() => Promise<void>>();
+
 export interface NamedPort {
 	name: string;
 	port: number;
@@ -186,41 +189,45 @@ export async function startServices(
 	}
 	claimDataDir(c.dataDir);
 
-	let place = clusterPlace(c.dataDir);
-	const leftover = runningServerPid(place.dataDir);
-	if (leftover) {
-		log(`Stopping the PostgreSQL server (pid ${leftover}) that an earlier run left running…`);
-		stopCluster(place.dataDir);
-	}
-	try {
-		await freePorts([...servicePorts(c), ...(opts.ports ?? [])], log);
-	} catch (error) {
-		releaseDataDir(c.dataDir);
-		throw error;
-	}
-
-	// Only now, with nothing of ours running, may a throwaway data folder be wiped.
-	if (opts.fresh) {
-		removeData(c.dataDir);
-		mkdirSync(c.dataDir, { recursive: true });
-		claimDataDir(c.dataDir);
-		place = clusterPlace(c.dataDir);
-	}
-	const pgDir = place.dataDir;
-
+	// Stops what has started so far: a signal may come at any point of the start.
 	const started: RestartableStandIn[] = [];
+	let pgDir: string | null = null;
 	let stopping: Promise<void> | null = null;
 	const stop = () =>
 		(stopping ??= (async () => {
 			for (const s of [...started].reverse()) await stopWithin(s, 3_000);
-			stopCluster(pgDir);
+			if (pgDir) stopCluster(pgDir);
 			releaseDataDir(c.dataDir);
+			stopsOnSignal.delete(stop);
 		})());
+	stopsOnSignal.add(stop);
+	const unlessSignalled = () => {
+		if (signalled) throw new LauncherError(`Stopped by ${signalled} before the services were up.`);
+	};
+
 	try {
+		let place = clusterPlace(c.dataDir);
+		const leftover = runningServerPid(place.dataDir);
+		if (leftover) {
+			log(`Stopping the PostgreSQL server (pid ${leftover}) that an earlier run left running…`);
+			stopCluster(place.dataDir);
+		}
+		await freePorts([...servicePorts(c), ...(opts.ports ?? [])], log);
+		unlessSignalled();
+
+		// Only now, with nothing of ours running, may a throwaway data folder be wiped.
+		if (opts.fresh) {
+			removeData(c.dataDir);
+			mkdirSync(c.dataDir, { recursive: true });
+			claimDataDir(c.dataDir);
+			place = clusterPlace(c.dataDir);
+		}
+		pgDir = place.dataDir;
 		initCluster(pgDir);
 		startCluster({ dataDir: pgDir, port: c.pgPort, database: c.pgDatabase });
 		await ensureDatabase({ dataDir: pgDir, port: c.pgPort, database: c.pgDatabase });
 		await runMigrations(process.env.DATABASE_URL ?? databaseUrl(profile));
+		unlessSignalled();
 		log(`PostgreSQL  127.0.0.1:${c.pgPort} (database ${c.pgDatabase})`);
 		log(
 			place.outside
@@ -232,6 +239,7 @@ export async function startServices(
 				startS3({ port: c.s3Port, dataDir: c.dataDir, bucket: c.s3Bucket })
 			)
 		);
+		unlessSignalled();
 		log(`S3 stand-in http://127.0.0.1:${c.s3Port} (bucket ${c.s3Bucket})`);
 		started.push(
 			await restartable('mail', () =>
@@ -242,6 +250,7 @@ export async function startServices(
 				})
 			)
 		);
+		unlessSignalled();
 		log(`SMTP        127.0.0.1:${c.smtpPort}, inbox http://127.0.0.1:${c.mailWebPort}`);
 		const env = appEnv(profile);
 		started.push(
@@ -254,6 +263,7 @@ export async function startServices(
 				})
 			)
 		);
+		unlessSignalled();
 		log(
 			`Payments    http://127.0.0.1:${c.payPort} (provider stand-in; webhooks to ${env.ORIGIN}/api/payments/webhook)`
 		);
@@ -261,21 +271,28 @@ export async function startServices(
 		await stop();
 		throw asLauncherError(error, c.dataDir);
 	}
-	return { stop, pgDataDir: pgDir, standIns: Object.fromEntries(started.map((s) => [s.name, s])) };
+	return {
+		stop,
+		pgDataDir: pgDir as string,
+		standIns: Object.fromEntries(started.map((s) => [s.name, s]))
+	};
 }
 
 /**
- * Runs `stop` once on Ctrl-C, SIGTERM or a closed terminal, then exits. Whatever is still up
- * 14 seconds later is left to the tether of each child and the process exits anyway.
+ * On Ctrl-C, SIGTERM or a closed terminal: runs `stopOwn` (the launcher's children), then stops
+ * every service started or starting in this process, then exits. Register it before starting
+ * anything. Whatever is still up 14 seconds later is left to the tether of each child.
  */
-export function stopOnSignals(stop: () => Promise<void>): void {
-	let stopping = false;
+export function stopOnSignals(stopOwn: () => Promise<void> = async () => {}): void {
 	const handler = (signal: NodeJS.Signals) => {
-		if (stopping) return;
-		stopping = true;
+		if (signalled) return;
+		signalled = signal;
 		console.log(`\n${signal}: stopping…`);
 		setTimeout(() => process.exit(1), 14_000).unref();
-		stop().finally(() => process.exit(0));
+		stopOwn()
+			.catch(() => {})
+			.then(() => Promise.all([...stopsOnSignal].map((stop) => stop())))
+			.finally(() => process.exit(0));
 	};
 	process.on('SIGINT', handler);
 	process.on('SIGTERM', handler);

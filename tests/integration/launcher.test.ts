@@ -166,7 +166,7 @@ afterEach(async () => {
 });
 
 describe('the services launcher', () => {
-	it('starts, stops and restarts its cluster from a folder of mode 0700, keeping the data and the mode', async () => {
+	it('starts, stops and restarts its cluster from a folder of mode 0700 (over a stale postmaster.pid), keeping the data and the mode', async () => {
 		const dir = privateFolder();
 		expect(statSync(dir).mode & 0o777).toBe(0o700);
 		const dataDir = join(dir, '.data');
@@ -186,6 +186,12 @@ describe('the services launcher', () => {
 		expect(await stoppedWithin(first, 15_000)).toBe(0);
 		expect(await portInUse(Number(ports.PG_PORT))).toBe(false);
 		expect(runningServerPid(pgDir)).toBeNull();
+		// And as after a power cut: a postmaster.pid whose pid now belongs to another program
+		// (this test's own pid stands for it).
+		writeFileSync(
+			join(pgDir, 'postmaster.pid'),
+			`${process.pid}\n${pgDir}\n1700000000\n${ports.PG_PORT}\n\n127.0.0.1\n  0  0\nready   \n`
+		);
 
 		const second = launch(dataDir, ports);
 		await second.waitFor('Services running.');
@@ -216,25 +222,6 @@ describe('the services launcher', () => {
 		expect(await countMarks(ports.PG_PORT)).toBe(1);
 		expect(await stoppedWithin(next, 15_000)).toBe(0);
 		expect(runningServerPid(pgDir)).toBeNull();
-	});
-
-	it('starts over a postmaster.pid that a power cut left behind, its pid since taken by another program', async () => {
-		const dataDir = join(privateFolder(), '.data');
-		const ports = await freePorts();
-		const first = launch(dataDir, ports);
-		await first.waitFor('Services running.');
-		const pgDir = clusterDir(first);
-		expect(await stoppedWithin(first, 15_000)).toBe(0);
-		// This test's own pid stands for the program that got the server's old pid after the reboot.
-		writeFileSync(
-			join(pgDir, 'postmaster.pid'),
-			`${process.pid}\n${pgDir}\n1700000000\n${ports.PG_PORT}\n\n127.0.0.1\n  0  0\nready   \n`
-		);
-
-		const next = launch(dataDir, ports);
-		await next.waitFor('Services running.');
-		expect(await countMarks(ports.PG_PORT)).toBe(1);
-		expect(await stoppedWithin(next, 15_000)).toBe(0);
 	});
 
 	it('names the busy port and the setting that moves it when another program holds it', async () => {
