@@ -165,11 +165,13 @@ export function removeData(root: string): void {
  * (its process gone, or its pid since reused by another program) does not count.
  */
 export function runningServerPid(dataDir: string): number | null {
-	let pid: number;
 	try {
-		pid = Number(readFileSync(join(dataDir, 'postmaster.pid'), 'utf8').split('\n')[0]);
+		const pid = Number(readFileSync(join(dataDir, 'postmaster.pid'), 'utf8').split('\n')[0]);
 		const args = readFileSync(`/proc/${pid}/cmdline`, 'utf8').split('\0');
-		return args.includes(dataDir) && basename(args[0]) === 'postgres' ? pid : null;
+		if (basename(args[0]) !== 'postgres') return null;
+		// The same folder, however it was spelled (through a symbolic link, say).
+		const served = args[args.indexOf('-D') + 1];
+		return served && realpathSync(served) === realpathSync(dataDir) ? pid : null;
 	} catch {
 		return null;
 	}
