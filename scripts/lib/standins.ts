@@ -1,7 +1,8 @@
 // eslint-disable-next-line @typescript-eslint/triple-slash-reference -- s3rver ships no types; this brings ours into every program that imports the stand-ins
 /// <reference path="../types/s3rver.d.ts" />
 // The local stand-ins for hosted services: s3rver for S3 and maildev for SMTP.
-import { mkdirSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import S3rver from 's3rver';
 import { MailDev } from 'maildev';
@@ -29,13 +30,20 @@ export async function startS3(opts: {
 	return { name: 's3', stop: () => server.close() };
 }
 
+/**
+ * maildev keeps each message as a file. Without a folder of ours it uses one shared
+ * `<tmp>/maildev` for every process on the machine, so two runs at once (or one run's stop)
+ * remove each other's files. The dev profile keeps mail in its data folder; any other start
+ * gets a fresh folder of its own, removed when it stops.
+ */
 export async function startMail(opts: {
 	smtpPort: number;
 	webPort: number;
 	dataDir?: string;
 }): Promise<StandIn> {
-	const mailDirectory = opts.dataDir ? join(opts.dataDir, 'mail') : undefined;
-	if (mailDirectory) mkdirSync(mailDirectory, { recursive: true });
+	const ownFolder = opts.dataDir ? null : mkdtempSync(join(tmpdir(), 'rillstone-mail-'));
+	const mailDirectory = opts.dataDir ? join(opts.dataDir, 'mail') : (ownFolder as string);
+	mkdirSync(mailDirectory, { recursive: true });
 	const maildev = new MailDev({
 		smtp: opts.smtpPort,
 		ip: '127.0.0.1',
@@ -45,7 +53,13 @@ export async function startMail(opts: {
 		mailDirectory
 	});
 	await maildev.start();
-	return { name: 'mail', stop: () => maildev.stop() };
+	return {
+		name: 'mail',
+		stop: async () => {
+			await maildev.stop();
+			if (ownFolder) rmSync(ownFolder, { recursive: true, force: true });
+		}
+	};
 }
 
 /**
