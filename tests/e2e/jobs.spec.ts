@@ -74,6 +74,12 @@ test('sold estimate to scheduled job, crew phone view, change order, completion,
 	const safety = crew.locator('section[aria-labelledby="safety-heading"]');
 	await expect(safety).toContainText("built to the engineer's drawings and the permit");
 	await expect(safety).toContainText('Local codes and licensed practice come first');
+	// One line per topic: the estimate's own caution replaces the fixed line, never both.
+	const cautionLines = await safety.locator('li').allInnerTexts();
+	for (const topic of [/811|buried utilities/i, /GFCI|ground-fault/i, /heavy stones/i]) {
+		expect(cautionLines.filter((line) => topic.test(line))).toHaveLength(1);
+	}
+	await expect(crew.getByText(/Crew: \d+ people \(the heaviest stone needs \d+\)/)).toBeVisible();
 	const bodyText = await crew.locator('body').innerText();
 	expect(bodyText).not.toMatch(/\$\s?\d/);
 	expect(bodyText).not.toMatch(/margin|unit price|cost/i);

@@ -42,9 +42,13 @@ function firmDay(offset: number): string {
 let shots = 0;
 async function shot(page: Page, name: string) {
 	shots += 1;
-	await page.screenshot({
-		path: test.info().outputPath(`${String(shots).padStart(2, '0')}-${name}.png`),
-		fullPage: true
+	const path = test.info().outputPath(`${String(shots).padStart(2, '0')}-${name}.png`);
+	// The pictures document the run; they are not checks. A full-page capture has hung in a
+	// loaded headless Chromium, so one that does not finish is noted and the journey goes on.
+	await page.screenshot({ path, fullPage: true, timeout: 20_000 }).catch((error: Error) => {
+		test
+			.info()
+			.annotations.push({ type: 'screenshot skipped', description: `${name}: ${error.message}` });
 	});
 }
 

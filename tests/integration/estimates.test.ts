@@ -28,7 +28,7 @@ import { exportCsv, importCsv, loadCatalog } from '$lib/server/pricelist';
 import { previewCsv } from '$lib/server/pricelist-csv';
 import { estimate as runEngine, type ParsedDesign } from '$lib/estimating';
 import type { YardPhoto } from '$lib/server/estimate-photos';
-import { load as homeownerLoad } from '../../src/routes/estimate/[token]/+page.server';
+import { load as homeownerLoad } from '../../src/routes/(homeowner)/estimate/[token]/+page.server';
 import { resetDatabase } from '../support/database';
 import { makeUser, seedFirm } from './fixtures';
 import { makeLead, seedCatalog } from './estimates-fixtures';

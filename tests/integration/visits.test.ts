@@ -23,7 +23,7 @@ import { actions as leadVisitActions } from '../../src/routes/office/leads/[id]/
 import {
 	actions as homeownerActions,
 	load as homeownerLoad
-} from '../../src/routes/visit/[token]/+page.server';
+} from '../../src/routes/(homeowner)/visit/[token]/+page.server';
 import { GET as slotsGET } from '../../src/routes/api/visits/slots/+server';
 import { resetDatabase } from '../support/database';
 import { smtpRelay } from '../support/smtp-relay';

@@ -3,7 +3,7 @@ import {
 	changeOrderCautions,
 	CREW_LOCAL_CODES_ITEM,
 	CREW_WALL_ITEM,
-	extraCrewCautions
+	crewCautions
 } from './job-cautions';
 
 const ids = (lines: { category: string; quantity: number }[]) =>
@@ -50,11 +50,27 @@ describe("the crew's fixed cautions", () => {
 	it('name the engineer and permit for walls, and local codes first', () => {
 		expect(CREW_WALL_ITEM).toContain("built to the engineer's drawings and the permit");
 		expect(CREW_LOCAL_CODES_ITEM).toMatch(/^Local codes and licensed practice come first\./);
-		expect(
-			extraCrewCautions([
-				'Heavy stones: lift safely: Column A weighs…',
-				'Local codes and licensed practice come first: These figures…'
-			])
-		).toEqual(['Heavy stones: lift safely: Column A weighs…']);
+	});
+
+	it("list each topic once: the estimate's own caution replaces the fixed line on its topic", () => {
+		const frozen = [
+			'Locate buried utilities before digging: Basins, trenches…',
+			'Ground-fault protection for pumps and lights near water: A pump sits…',
+			'Mains wiring by a licensed electrician: New circuits…',
+			'Heavy stones: lift safely: Column A weighs…',
+			'Open water and children: The basin holds about 14 in…',
+			'Local codes and licensed practice come first: These figures…'
+		];
+		const list = crewCautions(frozen);
+		expect(list).toEqual([...frozen.slice(0, 5), CREW_WALL_ITEM, CREW_LOCAL_CODES_ITEM]);
+		expect(new Set(list).size).toBe(list.length);
+	});
+
+	it('keep the fixed lines when the estimate froze no cautions, and keep cautions of other topics', () => {
+		const list = crewCautions(['Something new: a reason']);
+		expect(list).toHaveLength(8);
+		expect(list[0]).toMatch(/^Utility locates \(811\)/);
+		expect(list).toContain('Something new: a reason');
+		expect(list.at(-1)).toBe(CREW_LOCAL_CODES_ITEM);
 	});
 });

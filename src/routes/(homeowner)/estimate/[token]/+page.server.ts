@@ -17,8 +17,7 @@ import type { Actions, PageServerLoad } from './$types';
 // The homeowner's private page: no sign-in, the token is the key. Wrong, expired and superseded
 // links all answer the same 404 (as the visit and change-order links do), so nothing hints that
 // other estimates exist or that this one ever did.
-export const load: PageServerLoad = async ({ params, setHeaders }) => {
-	setHeaders({ 'cache-control': 'private, no-store', 'x-robots-tag': 'noindex' });
+export const load: PageServerLoad = async ({ params }) => {
 	const firm = await firmSettings();
 	const brand = {
 		name: firm.firmName,

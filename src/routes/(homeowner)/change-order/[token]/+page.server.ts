@@ -8,8 +8,7 @@ import {
 } from '$lib/server/change-orders';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async ({ params, setHeaders }) => {
-	setHeaders({ 'cache-control': 'no-store', 'referrer-policy': 'no-referrer' });
+export const load: PageServerLoad = async ({ params }) => {
 	const co = await changeOrderForHomeowner(params.token);
 	if (!co) error(404, 'This link is not valid. Ask us for a fresh one.');
 	return { co };

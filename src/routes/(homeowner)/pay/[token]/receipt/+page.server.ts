@@ -3,8 +3,7 @@ import { confirmReturn } from '$lib/server/payments/checkout';
 import { homeownerView } from '$lib/server/payments/views';
 import type { PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async ({ params, url, setHeaders }) => {
-	setHeaders({ 'cache-control': 'no-store', 'referrer-policy': 'no-referrer' });
+export const load: PageServerLoad = async ({ params, url }) => {
 	const sessionId = url.searchParams.get('session') ?? '';
 	if (!/^cs_[A-Za-z0-9_]{1,200}$/.test(sessionId)) error(404, 'There is no such payment.');
 	const back = await confirmReturn(params.token, sessionId).catch((e) => {

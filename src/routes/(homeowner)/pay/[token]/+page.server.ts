@@ -4,8 +4,7 @@ import { PaymentError } from '$lib/server/payments/ledger';
 import { homeownerView } from '$lib/server/payments/views';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async ({ params, url, setHeaders }) => {
-	setHeaders({ 'cache-control': 'no-store', 'referrer-policy': 'no-referrer' });
+export const load: PageServerLoad = async ({ params, url }) => {
 	const job = await jobForToken(params.token);
 	if (!job) error(404, 'This payment link is not valid.');
 	return {

@@ -3,8 +3,7 @@ import { jobForToken } from '$lib/server/payments/checkout';
 import { invoiceByNumber } from '$lib/server/payments/invoices';
 import type { PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async ({ params, setHeaders }) => {
-	setHeaders({ 'cache-control': 'no-store', 'referrer-policy': 'no-referrer' });
+export const load: PageServerLoad = async ({ params }) => {
 	const job = await jobForToken(params.token);
 	const invoice = job ? await invoiceByNumber(Number(params.number)) : null;
 	if (!job || !invoice || invoice.jobId !== job.id) error(404, 'There is no such invoice.');

@@ -4,8 +4,7 @@ import { testimonialSchema } from '$lib/schema/jobs';
 import { submitTestimonial, testimonialForHomeowner } from '$lib/server/testimonials';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async ({ params, setHeaders }) => {
-	setHeaders({ 'cache-control': 'no-store', 'referrer-policy': 'no-referrer' });
+export const load: PageServerLoad = async ({ params }) => {
 	const t = await testimonialForHomeowner(params.token);
 	if (!t) error(404, 'This link is not valid.');
 	return { t };

@@ -3,8 +3,7 @@ import { careJobForToken, unsubscribeCare } from '$lib/server/care';
 import type { Actions, PageServerLoad } from './$types';
 
 // The GET only asks; the POST unsubscribes, so a mail scanner following links changes nothing.
-export const load: PageServerLoad = async ({ params, setHeaders }) => {
-	setHeaders({ 'cache-control': 'no-store', 'referrer-policy': 'no-referrer' });
+export const load: PageServerLoad = async ({ params }) => {
 	const job = await careJobForToken(params.token);
 	if (!job) error(404, 'This link is not valid.');
 	return { title: job.title, optedOut: Boolean(job.optedOut) };

@@ -1,0 +1,6 @@
+import { LINK_PAGE_HEADERS } from '$lib/server/link-pages';
+import type { LayoutServerLoad } from './$types';
+
+export const load: LayoutServerLoad = ({ setHeaders }) => {
+	setHeaders(LINK_PAGE_HEADERS);
+};
