@@ -4,11 +4,18 @@ import type { ServerInit } from '@sveltejs/kit';
 import { startWorkers } from '$lib/server/jobs';
 import { handleGuard } from '$lib/server/hooks/guard';
 import { handleHeaders } from '$lib/server/hooks/headers';
+import { handleInput } from '$lib/server/hooks/input';
 import { handleOutage, handleServerError } from '$lib/server/hooks/outage';
 import { handleSession } from '$lib/server/hooks/session';
 import { MissingSecretError, missingSecrets } from '$lib/server/env';
 
-export const handle = sequence(handleHeaders, handleOutage, handleSession, handleGuard);
+export const handle = sequence(
+	handleHeaders,
+	handleInput,
+	handleOutage,
+	handleSession,
+	handleGuard
+);
 export const handleError = handleServerError;
 
 /** Starts the queue workers in each app process; the app keeps serving if the queue cannot start yet. */
