@@ -10,6 +10,7 @@ import {
 	jsonb,
 	pgEnum,
 	pgTable,
+	primaryKey,
 	text,
 	timestamp,
 	uniqueIndex
@@ -98,6 +99,28 @@ export const signInAttempts = pgTable(
 		index('sign_in_attempts_email_idx').on(t.emailKey, t.createdAt),
 		index('sign_in_attempts_ip_idx').on(t.ipAddress, t.createdAt)
 	]
+);
+
+/**
+ * Failed sign-ins counted per key: `account:<email>` and `address:<ip>` for devices that have not
+ * signed in before, `device:<nonce>` for a known device. The delay grows from the count and the
+ * time of the last failure; a count whose last failure is a day old starts again.
+ */
+export const signInThrottles = pgTable('sign_in_throttles', {
+	key: text('key').primaryKey(),
+	failures: integer('failures').notNull().default(0),
+	lastFailureAt: timestamp('last_failure_at', { withTimezone: true }).notNull()
+});
+
+/** Fixed-window request counters shared by every app process (inquiry and upload limits). */
+export const rateCounters = pgTable(
+	'rate_counters',
+	{
+		key: text('key').notNull(),
+		windowStart: timestamp('window_start', { withTimezone: true }).notNull(),
+		hits: integer('hits').notNull().default(0)
+	},
+	(t) => [primaryKey({ columns: [t.key, t.windowStart] })]
 );
 
 // One row: the firm's own settings.
