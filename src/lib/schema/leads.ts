@@ -204,3 +204,8 @@ export const mailFormSchema = z.object({
 	subject: z.string().trim().min(1, 'Enter a subject').max(200),
 	body: z.string().trim().min(1, 'Write the message').max(8000)
 });
+
+/** The lead page's merge action: the other contact, the same person as this lead's. */
+export const mergeFormSchema = z.object({
+	contactId: z.string().trim().min(1, 'Pick the contact to merge').max(64)
+});

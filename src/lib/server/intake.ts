@@ -3,7 +3,7 @@
 // Photos are stored first; then every record is written in ONE transaction, with the two
 // e-mails in the outbox; the mails are queued after the commit.
 import { createHmac, timingSafeEqual } from 'node:crypto';
-import { and, eq, gt, inArray, isNull, lt, or, sql } from 'drizzle-orm';
+import { and, eq, gt, inArray, isNull, lt, sql } from 'drizzle-orm';
 import { RateLimiter } from 'sveltekit-rate-limiter/server';
 import {
 	PHOTO_LIMITS,
@@ -219,29 +219,23 @@ export const DATABASE_DOWN =
 
 const digits = (phone: string) => phone.replace(/\D/g, '');
 
+/**
+ * The contact of an inquiry: the one with the same e-mail address, or a new one. A shared phone
+ * number or name never joins two inquiries (a household, a typo or a stranger would then get
+ * someone else's estimate mails); the office sees such pairs as possible duplicates and merges
+ * them by hand (contact-merge.ts). What the inquiry typed is kept on its timeline entry.
+ */
 async function findOrCreateContact(tx: Tx, input: InquiryInput): Promise<string> {
 	const email = input.email.toLowerCase();
 	const phone = digits(input.phone);
-	const match = await tx
-		.select()
-		.from(contacts)
-		.where(
-			phone.length >= 7
-				? or(eq(contacts.email, email), eq(contacts.phoneDigits, phone))
-				: eq(contacts.email, email)
-		)
-		.orderBy(sql`(${contacts.email} = ${email}) desc`, contacts.createdAt)
-		.limit(1);
-	const found = match[0];
+	const [found] = await tx.select().from(contacts).where(eq(contacts.email, email)).limit(1);
 	if (found) {
-		await tx
-			.update(contacts)
-			.set({
-				email: found.email ?? email,
-				phone: found.phone || input.phone || null,
-				phoneDigits: found.phoneDigits || phone || null
-			})
-			.where(eq(contacts.id, found.id));
+		if (!found.phone && input.phone) {
+			await tx
+				.update(contacts)
+				.set({ phone: input.phone, phoneDigits: phone || null })
+				.where(eq(contacts.id, found.id));
+		}
 		return found.id;
 	}
 	const id = newId();
@@ -360,7 +354,8 @@ export async function submitInquiry(sub: Submission): Promise<{ leadId: string; 
 				timeframe: input.timeframe,
 				photos: count,
 				ref: input.ref || null,
-				source: sub.source ?? 'website'
+				source: sub.source ?? 'website',
+				typed: { name: input.name, email: input.email, phone: input.phone }
 			}
 		});
 

@@ -1,5 +1,6 @@
 import { sql } from 'drizzle-orm';
 import {
+	type AnyPgColumn,
 	boolean,
 	check,
 	customType,
@@ -153,12 +154,20 @@ export const contacts = pgTable(
 		phone: text('phone'),
 		phoneDigits: text('phone_digits'),
 		isCustomer: boolean('is_customer').notNull().default(false),
+		/**
+		 * Set when staff merged this contact into another (the same person under two e-mails): the
+		 * row stays, so every name, e-mail and phone ever given stays on record, and each lead keeps
+		 * its own contact, so its mail still goes to the address its inquiry gave.
+		 */
+		mergedIntoId: text('merged_into_id').references((): AnyPgColumn => contacts.id),
+		mergedAt: timestamp('merged_at', { withTimezone: true }),
 		createdAt: createdAt(),
 		updatedAt: updatedAt()
 	},
 	(t) => [
 		uniqueIndex('contacts_email_idx').on(t.email),
-		index('contacts_phone_idx').on(t.phoneDigits)
+		index('contacts_phone_idx').on(t.phoneDigits),
+		index('contacts_merged_into_idx').on(t.mergedIntoId)
 	]
 );
 

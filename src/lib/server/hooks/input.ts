@@ -4,7 +4,8 @@ import { requestPath } from '../request-path';
 
 // C0 control characters (NUL, tab, CR, LF, …) and DEL. No query parameter of this app carries
 // them legitimately, and a CR/LF in one could end up in a header, a log line or a CSV cell.
-const CONTROL = /[\u0000-\u001f\u007f]/;
+// eslint-disable-next-line no-control-regex -- finding control characters is the point
+export const CONTROL = /[\u0000-\u001f\u007f]/;
 
 /** Why a query string is refused, or null when every parameter is acceptable. */
 export function queryProblem(search: string): string | null {
