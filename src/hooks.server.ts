@@ -2,6 +2,7 @@ import { building } from '$app/environment';
 import { sequence } from '@sveltejs/kit/hooks';
 import type { ServerInit } from '@sveltejs/kit';
 import { startWorkers } from '$lib/server/jobs';
+import { handleBody } from '$lib/server/hooks/body';
 import { handleGuard } from '$lib/server/hooks/guard';
 import { handleHeaders } from '$lib/server/hooks/headers';
 import { handleInput } from '$lib/server/hooks/input';
