@@ -4,7 +4,6 @@
 // e-mails in the outbox; the mails are queued after the commit.
 import { createHmac, timingSafeEqual } from 'node:crypto';
 import { and, eq, gt, inArray, isNull, lt, sql } from 'drizzle-orm';
-import { RateLimiter } from 'sveltekit-rate-limiter/server';
 import {
 	PHOTO_LIMITS,
 	inquirySchema,
@@ -14,6 +13,7 @@ import {
 } from '$lib/schema/intake';
 import { fieldErrors } from '$lib/schema/auth';
 import { db } from './db';
+import { minutes, SharedRateLimiter } from './rate-limit';
 import { activities, contacts, leads, photos, properties, users } from './db/schema';
 import { newId, newToken } from './crypto';
 import { env, origin, requireSecret } from './env';
@@ -609,14 +609,11 @@ export async function enqueueSweep(): Promise<void> {
 }
 
 // ---------------------------------------------------------------------------------------------
-// Per-address rate limits. The counters live in this process's memory: with several app
-// processes each keeps its own, so the real limit is this times the number of processes, which
-// is safe for its purpose (slowing a flood), as DESIGN.md allows for per-process state.
+// Per-address rate limits, counted in PostgreSQL so that every app process shares them.
+// Numbers: common practice, no source.
 
-export const inquiryLimiter = new RateLimiter({
-	IP: [
-		[10, '15m'],
-		[40, 'd']
-	]
-});
-export const uploadLimiter = new RateLimiter({ IP: [60, '15m'] });
+export const inquiryLimiter = new SharedRateLimiter('inquiry', [
+	{ hits: 10, windowMs: minutes(15) },
+	{ hits: 40, windowMs: minutes(24 * 60) }
+]);
+export const uploadLimiter = new SharedRateLimiter('upload', [{ hits: 60, windowMs: minutes(15) }]);

@@ -183,7 +183,7 @@ export async function changeRole(actorId: string, userId: string, role: Role): P
 	if (!updated.length) throw new TeamError('No such team member');
 	// A role change takes effect at once: the member signs in again with the new role.
 	if (actorId !== userId) await endAllSessionsOf(userId);
-	else forgetSessionsOf(userId);
+	else await forgetSessionsOf(userId);
 }
 
 export async function setDisabled(
@@ -204,7 +204,6 @@ export async function setDisabled(
 	if (disabled) await endAllSessionsOf(userId);
 }
 
-/** Sends a reset link when the address belongs to an active member; says nothing either way. */
 /** At most one reset mail per account in this span, however often /forgot is asked. */
 export const RESET_MAIL_INTERVAL_MS = 5 * 60 * 1000;
 
