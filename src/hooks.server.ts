@@ -15,7 +15,8 @@ export const handle = sequence(
 	handleInput,
 	handleOutage,
 	handleSession,
-	handleGuard
+	handleGuard,
+	handleBody
 );
 export const handleError = handleServerError;
 

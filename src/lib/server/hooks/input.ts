@@ -1,4 +1,5 @@
 import type { Handle } from '@sveltejs/kit';
+import { building } from '$app/environment';
 import { refusal } from './refusal';
 import { requestPath } from '../request-path';
 
@@ -28,6 +29,8 @@ export function queryProblem(search: string): string | null {
 
 /** Refuses malformed request lines with a 400 and the reason, before any page code runs. */
 export const handleInput: Handle = async ({ event, resolve }) => {
+	// Prerendered pages have no query string (and may not read it).
+	if (building) return resolve(event);
 	const { pathname, search } = event.url;
 	const path = requestPath(pathname);
 	if (path === null) return refusal(pathname, 400, 'The address has a bad percent-escape');
