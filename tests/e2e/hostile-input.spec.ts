@@ -3,7 +3,7 @@
 // in its server files (`searchParams.get('…')`, or the shared query schemas they parse with), so a
 // new route or parameter is covered without editing this file.
 import { readFileSync } from 'node:fs';
-import { dirname, resolve } from 'node:path';
+import { resolve } from 'node:path';
 import postgres from 'postgres';
 import { expect, test } from '@playwright/test';
 import { routeFiles } from '../../src/lib/server/route-files';
@@ -56,8 +56,9 @@ function paramsOf(files: string[]): string[] {
 			names.add(m[1]);
 		}
 		if (source.includes('parseLeadQuery')) schemaKeys(leadQuerySchema).forEach((k) => names.add(k));
-		if (source.includes('slotsQuerySchema'))
+		if (source.includes('slotsQuerySchema')) {
 			schemaKeys(slotsQuerySchema).forEach((k) => names.add(k));
+		}
 	}
 	return [...names];
 }

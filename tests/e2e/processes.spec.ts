@@ -77,6 +77,7 @@ async function signIn(appUrl: string, email: string, password: string, ip: strin
 		headers: {
 			origin: appUrl,
 			'content-type': 'application/x-www-form-urlencoded',
+			accept: 'text/html',
 			'x-forwarded-for': ip,
 			...(cookie ? { cookie } : {})
 		},
@@ -163,6 +164,7 @@ test('the inquiry rate limit counts posts to both processes from one address', a
 			headers: {
 				origin: app.url,
 				'content-type': 'application/x-www-form-urlencoded',
+				accept: 'text/html',
 				'x-forwarded-for': from
 			},
 			// An incomplete form: refused for its fields, but counted like any other post.
@@ -179,6 +181,7 @@ test('the inquiry rate limit counts posts to both processes from one address', a
 		headers: {
 			origin: b.url,
 			'content-type': 'application/x-www-form-urlencoded',
+			accept: 'text/html',
 			'x-forwarded-for': ip()
 		},
 		body: new URLSearchParams({ name: 'Someone else' })

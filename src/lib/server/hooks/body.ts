@@ -13,18 +13,16 @@ import { refusal } from './refusal';
 const DRAIN_MS = 15_000;
 
 function tooLarge(event: Parameters<Handle>[0]['event'], limit: BodyLimit): Response {
-	const path = event.url.pathname;
-	const headers = { connection: 'close' };
-	// A form posted with use:enhance reads an action result, not a page.
+	// The connection stays open while the rest of the body is drained (drain below): closing it
+	// at once would reset a client that is still sending before it could read this answer.
 	if (event.request.headers.get('x-sveltekit-action') === 'true') {
+		// A form posted with use:enhance reads an action result, not a page.
 		return Response.json(
 			{ type: 'error', status: 413, error: { message: limit.message } },
-			{ status: 413, headers }
+			{ status: 413 }
 		);
 	}
-	const response = refusal(path, 413, limit.message);
-	response.headers.set('connection', 'close');
-	return response;
+	return refusal(event.url.pathname, 413, limit.message);
 }
 
 /** Reads and drops what is left of a refused body for a while, then gives up on it. */
