@@ -2,13 +2,22 @@ import { building } from '$app/environment';
 import { sequence } from '@sveltejs/kit/hooks';
 import type { ServerInit } from '@sveltejs/kit';
 import { startWorkers } from '$lib/server/jobs';
+import { handleBody } from '$lib/server/hooks/body';
 import { handleGuard } from '$lib/server/hooks/guard';
 import { handleHeaders } from '$lib/server/hooks/headers';
+import { handleInput } from '$lib/server/hooks/input';
 import { handleOutage, handleServerError } from '$lib/server/hooks/outage';
 import { handleSession } from '$lib/server/hooks/session';
 import { MissingSecretError, missingSecrets } from '$lib/server/env';
 
-export const handle = sequence(handleHeaders, handleOutage, handleSession, handleGuard);
+export const handle = sequence(
+	handleHeaders,
+	handleInput,
+	handleOutage,
+	handleSession,
+	handleGuard,
+	handleBody
+);
 export const handleError = handleServerError;
 
 /** Starts the queue workers in each app process; the app keeps serving if the queue cannot start yet. */

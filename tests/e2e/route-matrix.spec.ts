@@ -117,7 +117,8 @@ const ACTIONS: Record<string, Expect> = {
 	'/office/leads/[id]?/priority': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	'/office/leads/[id]?/details': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	'/office/leads/[id]?/log': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
-	'/office/leads/[id]?/mail': { anonymous: 303, owner: 404, sales: 404, crew: 403 }
+	'/office/leads/[id]?/mail': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/leads/[id]?/merge': { anonymous: 303, owner: 404, sales: 404, crew: 403 }
 };
 
 const guardedPatterns = [

@@ -1,4 +1,4 @@
-import { beforeEach, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { db } from '$lib/server/db';
 import { invitations, passwordResets, users } from '$lib/server/db/schema';
@@ -14,11 +14,22 @@ import {
 	setDisabled,
 	TeamError
 } from '$lib/server/team';
+import { startWorkers, stopQueue } from '$lib/server/jobs';
+import { outbox } from '$lib/server/db/schema';
+import { actions as forgotActions } from '../../src/routes/(auth)/forgot/+page.server';
 import { resetDatabase } from '../support/database';
 import { allMail, clearMail, linkIn, waitForMail } from '../support/mailbox';
 import { makeUser, PASSWORD, seedFirm } from './fixtures';
 
 const tokenOf = (url: string) => new URL(url).pathname.split('/').pop()!;
+
+// Reset mails go through the outbox and the queue, as in the app.
+beforeAll(async () => {
+	await startWorkers();
+});
+afterAll(async () => {
+	await stopQueue();
+});
 
 beforeEach(async () => {
 	await resetDatabase();
@@ -140,5 +151,30 @@ describe('password reset', () => {
 		await db.update(passwordResets).set({ expiresAt: new Date(Date.now() - 1000) });
 		expect(await completePasswordReset(token, 'my new long password')).toBe(false);
 		expect(await attemptSignIn(user.email, PASSWORD, '10.8.0.3')).toMatchObject({ ok: true });
+	});
+
+	it('mails at most one link per account in five minutes, and /forgot answers the same either way', async () => {
+		const user = await makeUser('owner');
+		const ask = async (email: string) => {
+			const body = new URLSearchParams({ email });
+			const request = new Request('http://app.test/forgot', { method: 'POST', body });
+			return forgotActions.default({ request } as never);
+		};
+		const answers = [];
+		for (let i = 0; i < 5; i++) answers.push(await ask(user.email));
+		answers.push(await ask('nobody@test.example'));
+		// Five asks at once as well: the row lock lets exactly one through.
+		await Promise.all([1, 2, 3, 4, 5].map(() => requestPasswordReset(user.email)));
+		for (const answer of answers) expect(answer).toEqual(answers[0]);
+		expect(answers[0]).toMatchObject({ sent: true });
+		expect(await db.select().from(passwordResets)).toHaveLength(1);
+		expect(await db.select().from(outbox)).toHaveLength(1);
+		await waitForMail(user.email, /Reset your Rillstone password/);
+		await new Promise((r) => setTimeout(r, 1500));
+		expect((await allMail()).filter((m) => m.subject.includes('Reset'))).toHaveLength(1);
+		// Five minutes later a new link may go.
+		await db.update(passwordResets).set({ createdAt: new Date(Date.now() - 5 * 60 * 1000 - 1000) });
+		await ask(user.email);
+		expect(await db.select().from(passwordResets)).toHaveLength(2);
 	});
 });

@@ -71,18 +71,42 @@ export function offsetMinutes(instant: Date, timeZone: string): number {
 
 const DATE_RE = /^(\d{4})-(\d{2})-(\d{2})$/;
 
+/**
+ * The calendar date (YYYY-MM-DD) of an instant on the wall calendar of a zone. This module is the
+ * one place that turns instants into dates: a date taken from an instant in UTC is already
+ * tomorrow in the firm's evening (zone-usage.spec.ts searches the source for the pattern).
+ */
+export function calendarDate(instant: Date | number | string, timeZone: string): string {
+	return wallTime(new Date(instant), timeZone).date;
+}
+
+/** Today's date in a zone. */
+export function todayIn(timeZone: string, now: Date | number = Date.now()): string {
+	return calendarDate(now, timeZone);
+}
+
+/** The latest calendar date anywhere on earth right now (UTC+14): "not in the future" bound. */
+export function latestDateOnEarth(now: Date | number = Date.now()): string {
+	return calendarDate(now, 'Etc/GMT-14');
+}
+
+/** The date part of a UTC instant (for dates stored as UTC midnights, never for "today"). */
+function utcDate(d: Date): string {
+	return d.toISOString().slice(0, 10);
+}
+
 export function isDate(value: string): boolean {
 	const m = DATE_RE.exec(value);
 	if (!m) return false;
 	const d = new Date(Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3])));
-	return d.toISOString().slice(0, 10) === value;
+	return Number(m[1]) >= 1000 && utcDate(d) === value;
 }
 
 export function addDays(date: string, days: number): string {
 	const m = DATE_RE.exec(date);
 	if (!m) throw new Error(`Not a date: ${date}`);
 	const d = new Date(Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3]) + days));
-	return d.toISOString().slice(0, 10);
+	return utcDate(d);
 }
 
 export function weekdayOf(date: string): number {

@@ -1,5 +1,6 @@
 // Shared input schemas of the jobs domain (office forms, crew forms, homeowner token pages).
 import { z } from 'zod';
+import { isDate } from '$lib/scheduling/zone';
 
 const isoDay = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date such as 2027-05-14');
 
@@ -7,10 +8,7 @@ export const scheduleSchema = z.object({
 	days: z
 		.array(isoDay)
 		.max(30, 'At most 30 install days')
-		.refine(
-			(days) => days.every((d) => !Number.isNaN(Date.parse(d))),
-			'One of the dates is not real'
-		),
+		.refine((days) => days.every(isDate), 'One of the dates is not real'),
 	crewLeadId: z
 		.string()
 		.trim()

@@ -1,6 +1,7 @@
 // Query parameters of the leads list (API, table URL and CSV export) and the lead page's forms.
 // Shared by the browser (labels, URL building) and the server (validation).
 import { z } from 'zod';
+import { isDate } from '$lib/scheduling/zone';
 import { BUDGETS as INTAKE_BUDGETS, SERVICES as INTAKE_SERVICES } from './intake';
 
 export const STAGES = [
@@ -62,7 +63,7 @@ export const PAGE_SIZES = [25, 50, 100] as const;
 const day = z
 	.string()
 	.regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2027-04-30')
-	.refine((v) => !Number.isNaN(Date.parse(v + 'T00:00:00Z')), 'Not a real date');
+	.refine(isDate, 'Not a real date');
 
 const list = <T extends z.ZodType>(item: T) =>
 	z.preprocess(
@@ -202,4 +203,9 @@ export const mailFormSchema = z.object({
 	sendKey: z.string().regex(/^[A-Za-z0-9_-]{8,40}$/, 'Reload the page and try again'),
 	subject: z.string().trim().min(1, 'Enter a subject').max(200),
 	body: z.string().trim().min(1, 'Write the message').max(8000)
+});
+
+/** The lead page's merge action: the other contact, the same person as this lead's. */
+export const mergeFormSchema = z.object({
+	contactId: z.string().trim().min(1, 'Pick the contact to merge').max(64)
 });

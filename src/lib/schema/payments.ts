@@ -1,5 +1,6 @@
 // Payments recorded by hand and refunds (shared by the office form and the server).
 import { z } from 'zod';
+import { isDate, latestDateOnEarth } from '$lib/scheduling/zone';
 
 /** "1,250.00" or "1250" → 125000 cents; anything else is refused. */
 export const moneyCents = z
@@ -15,8 +16,8 @@ const isoDay = z
 	.string()
 	.trim()
 	.regex(/^\d{4}-\d{2}-\d{2}$/, 'Pick the date')
-	.refine((v) => !Number.isNaN(Date.parse(v)), 'Pick a real date')
-	.refine((v) => v <= new Date(Date.now() + 86_400_000).toISOString().slice(0, 10), {
+	.refine(isDate, 'Pick a real date')
+	.refine((v) => v <= latestDateOnEarth(), {
 		message: 'The date cannot be in the future'
 	});
 

@@ -3,7 +3,7 @@
 import { Lucia, TimeSpan } from 'lucia';
 import { DrizzlePostgreSQLAdapter } from '@lucia-auth/adapter-drizzle';
 import { eq } from 'drizzle-orm';
-import { db } from './db';
+import { client, db } from './db';
 import { sessions, users, type Role } from './db/schema';
 import { newToken, sha256 } from './crypto';
 import { origin } from './env';
@@ -85,15 +85,63 @@ type ValidSession = { user: SessionUser; session: SessionInfo };
  * Sessions validated in the last few seconds, by session id. The office table fetches page after
  * page, and a database round trip per request for the same cookie doubled its cost. Every way a
  * session ends in this app (sign-out, sign-in over it, role change, disabling, password reset)
- * goes through endSession/endAllSessionsOf/forgetSessionsOf below, which drop the entries at once;
- * the app runs as one process, so nothing else can end a session behind the cache's back (run
- * several and this must become a shared invalidation, or SESSION_CACHE_MS 0).
+ * goes through endSession/endAllSessionsOf/forgetSessionsOf below, which drop the entries here
+ * and tell every other app process through PostgreSQL (NOTIFY on SESSION_CHANNEL; each process
+ * LISTENs). A process that is not listening (yet, or after losing its connection) caches nothing.
  */
 const SESSION_CACHE_MS = 5_000;
 const SESSION_CACHE_MAX = 5_000;
+const SESSION_CHANNEL = 'rillstone_sessions';
 const recentSessions = new Map<string, { until: number; value: ValidSession }>();
 
+type Forget = { sessionId: string } | { userId: string };
+let listening = false;
+let listenStarted = false;
+
+function dropLocally(what: Forget) {
+	if ('sessionId' in what) recentSessions.delete(what.sessionId);
+	else {
+		for (const [id, entry] of recentSessions) {
+			if (entry.value.user.id === what.userId) recentSessions.delete(id);
+		}
+	}
+}
+
+/** Subscribes this process to the other processes' session ends (once; postgres.js reconnects). */
+function listenForForgets() {
+	if (listenStarted) return;
+	listenStarted = true;
+	client
+		.listen(
+			SESSION_CHANNEL,
+			(payload) => {
+				try {
+					dropLocally(JSON.parse(payload) as Forget);
+				} catch {
+					recentSessions.clear();
+				}
+			},
+			() => {
+				// (Re)connected: anything cached before may have missed a message.
+				recentSessions.clear();
+				listening = true;
+			}
+		)
+		.catch((error: Error) => {
+			listening = false;
+			listenStarted = false;
+			console.error('[sessions] not listening for session ends; caching off:', error.message);
+		});
+}
+
+/** Drops the entries here and in every other process. */
+async function forget(what: Forget): Promise<void> {
+	dropLocally(what);
+	await client.notify(SESSION_CHANNEL, JSON.stringify(what));
+}
+
 function remember(id: string, value: ValidSession) {
+	if (!listening) return;
 	if (recentSessions.size >= SESSION_CACHE_MAX) {
 		recentSessions.delete(recentSessions.keys().next().value!); // the oldest entry
 	}
@@ -104,14 +152,13 @@ function remember(id: string, value: ValidSession) {
 	});
 }
 
-/** Drops a user's cached sessions, so a change to them (role, name) shows on the next request. */
-export function forgetSessionsOf(userId: string): void {
-	for (const [id, entry] of recentSessions) {
-		if (entry.value.user.id === userId) recentSessions.delete(id);
-	}
+/** Drops a user's cached sessions in every process, so a change to them shows on the next request. */
+export async function forgetSessionsOf(userId: string): Promise<void> {
+	await forget({ userId });
 }
 
 export async function validateSessionToken(token: string): Promise<ValidSession | null> {
+	listenForForgets();
 	const id = sha256(token);
 	const cached = recentSessions.get(id);
 	if (cached && cached.until > Date.now()) return cached.value;
@@ -144,13 +191,13 @@ export function cookieForToken(token: string) {
 }
 
 export async function endSession(sessionId: string): Promise<void> {
-	recentSessions.delete(sessionId);
 	await lucia.invalidateSession(sessionId);
+	await forget({ sessionId });
 }
 
 export async function endAllSessionsOf(userId: string): Promise<void> {
-	forgetSessionsOf(userId);
 	await lucia.invalidateUserSessions(userId);
+	await forget({ userId });
 }
 
 export async function findUserByEmail(email: string) {

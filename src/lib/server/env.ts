@@ -14,7 +14,7 @@ export const isProduction = env.NODE_ENV === 'production';
 export const SECRETS = {
 	PAYMENTS_SECRET_KEY: 'the payment provider API key',
 	PAYMENTS_WEBHOOK_SECRET: "the payment provider's webhook signing secret",
-	FORM_SECRET: 'the key that signs the inquiry form stamp'
+	FORM_SECRET: 'the key that signs the inquiry form stamp and the sign-in device cookies'
 } as const;
 
 export type SecretName = keyof typeof SECRETS;

@@ -3,8 +3,7 @@
 // Photos are stored first; then every record is written in ONE transaction, with the two
 // e-mails in the outbox; the mails are queued after the commit.
 import { createHmac, timingSafeEqual } from 'node:crypto';
-import { and, eq, gt, inArray, isNull, lt, or, sql } from 'drizzle-orm';
-import { RateLimiter } from 'sveltekit-rate-limiter/server';
+import { and, eq, gt, inArray, isNull, lt, sql } from 'drizzle-orm';
 import {
 	PHOTO_LIMITS,
 	inquirySchema,
@@ -14,6 +13,7 @@ import {
 } from '$lib/schema/intake';
 import { fieldErrors } from '$lib/schema/auth';
 import { db } from './db';
+import { minutes, SharedRateLimiter } from './rate-limit';
 import { activities, contacts, leads, photos, properties, users } from './db/schema';
 import { newId, newToken } from './crypto';
 import { env, origin, requireSecret } from './env';
@@ -219,29 +219,23 @@ export const DATABASE_DOWN =
 
 const digits = (phone: string) => phone.replace(/\D/g, '');
 
+/**
+ * The contact of an inquiry: the one with the same e-mail address, or a new one. A shared phone
+ * number or name never joins two inquiries (a household, a typo or a stranger would then get
+ * someone else's estimate mails); the office sees such pairs as possible duplicates and merges
+ * them by hand (contact-merge.ts). What the inquiry typed is kept on its timeline entry.
+ */
 async function findOrCreateContact(tx: Tx, input: InquiryInput): Promise<string> {
 	const email = input.email.toLowerCase();
 	const phone = digits(input.phone);
-	const match = await tx
-		.select()
-		.from(contacts)
-		.where(
-			phone.length >= 7
-				? or(eq(contacts.email, email), eq(contacts.phoneDigits, phone))
-				: eq(contacts.email, email)
-		)
-		.orderBy(sql`(${contacts.email} = ${email}) desc`, contacts.createdAt)
-		.limit(1);
-	const found = match[0];
+	const [found] = await tx.select().from(contacts).where(eq(contacts.email, email)).limit(1);
 	if (found) {
-		await tx
-			.update(contacts)
-			.set({
-				email: found.email ?? email,
-				phone: found.phone || input.phone || null,
-				phoneDigits: found.phoneDigits || phone || null
-			})
-			.where(eq(contacts.id, found.id));
+		if (!found.phone && input.phone) {
+			await tx
+				.update(contacts)
+				.set({ phone: input.phone, phoneDigits: phone || null })
+				.where(eq(contacts.id, found.id));
+		}
 		return found.id;
 	}
 	const id = newId();
@@ -360,7 +354,8 @@ export async function submitInquiry(sub: Submission): Promise<{ leadId: string; 
 				timeframe: input.timeframe,
 				photos: count,
 				ref: input.ref || null,
-				source: sub.source ?? 'website'
+				source: sub.source ?? 'website',
+				typed: { name: input.name, email: input.email, phone: input.phone }
 			}
 		});
 
@@ -614,14 +609,11 @@ export async function enqueueSweep(): Promise<void> {
 }
 
 // ---------------------------------------------------------------------------------------------
-// Per-address rate limits. The counters live in this process's memory: with several app
-// processes each keeps its own, so the real limit is this times the number of processes, which
-// is safe for its purpose (slowing a flood), as DESIGN.md allows for per-process state.
+// Per-address rate limits, counted in PostgreSQL so that every app process shares them.
+// Numbers: common practice, no source.
 
-export const inquiryLimiter = new RateLimiter({
-	IP: [
-		[10, '15m'],
-		[40, 'd']
-	]
-});
-export const uploadLimiter = new RateLimiter({ IP: [60, '15m'] });
+export const inquiryLimiter = new SharedRateLimiter('inquiry', [
+	{ hits: 10, windowMs: minutes(15) },
+	{ hits: 40, windowMs: minutes(24 * 60) }
+]);
+export const uploadLimiter = new SharedRateLimiter('upload', [{ hits: 60, windowMs: minutes(15) }]);

@@ -53,37 +53,59 @@ export async function queueMail(mail: OutgoingMail): Promise<void> {
 	if (id) await dispatchMail(id);
 }
 
+/**
+ * Sends one outbox message. The row stays locked (FOR UPDATE SKIP LOCKED) while it is sent and
+ * marked, so when two workers, in one process or several, get the same message at once, one
+ * sends it and the other finds it busy and leaves it; the sender's own job retries on failure.
+ */
 export async function deliverOutboxMessage(
 	outboxId: string
-): Promise<'sent' | 'already-sent' | 'missing'> {
-	const [row] = await db.select().from(outbox).where(eq(outbox.id, outboxId)).limit(1);
-	if (!row) return 'missing';
-	if (row.sentAt) return 'already-sent';
-	try {
-		await sendMail({
-			to: row.to,
-			subject: row.subject,
-			text: row.text,
-			html: row.html,
-			messageId: `<${row.id}@rillstone.mail>`,
-			attachments: row.attachments.map((a) => ({
-				filename: a.filename,
-				content: a.content,
-				contentType: a.contentType
-			}))
-		});
-	} catch (error) {
-		await db
+): Promise<'sent' | 'already-sent' | 'missing' | 'busy'> {
+	let failure: Error | null = null;
+	const outcome = await db.transaction(async (tx) => {
+		const [row] = await tx
+			.select()
+			.from(outbox)
+			.where(eq(outbox.id, outboxId))
+			.limit(1)
+			.for('update', { skipLocked: true });
+		if (!row) {
+			const [exists] = await tx
+				.select({ id: outbox.id })
+				.from(outbox)
+				.where(eq(outbox.id, outboxId));
+			return exists ? 'busy' : 'missing';
+		}
+		if (row.sentAt) return 'already-sent';
+		try {
+			await sendMail({
+				to: row.to,
+				subject: row.subject,
+				text: row.text,
+				html: row.html,
+				messageId: `<${row.id}@rillstone.mail>`,
+				attachments: row.attachments.map((a) => ({
+					filename: a.filename,
+					content: a.content,
+					contentType: a.contentType
+				}))
+			});
+		} catch (error) {
+			failure = error as Error;
+			await tx
+				.update(outbox)
+				.set({ attempts: row.attempts + 1, lastError: failure.message.slice(0, 500) })
+				.where(eq(outbox.id, row.id));
+			return 'failed';
+		}
+		await tx
 			.update(outbox)
-			.set({ attempts: row.attempts + 1, lastError: (error as Error).message.slice(0, 500) })
+			.set({ sentAt: new Date(), attempts: row.attempts + 1, lastError: null })
 			.where(eq(outbox.id, row.id));
-		throw error; // pg-boss retries with backoff
-	}
-	await db
-		.update(outbox)
-		.set({ sentAt: new Date(), attempts: row.attempts + 1, lastError: null })
-		.where(eq(outbox.id, row.id));
-	return 'sent';
+		return 'sent';
+	});
+	if (outcome === 'failed') throw failure!; // pg-boss retries with backoff
+	return outcome;
 }
 
 defineJob<{ outboxId: string }>('mail.send', async ({ outboxId }) => {

@@ -2,6 +2,27 @@ import { eq } from 'drizzle-orm';
 import { z } from 'zod';
 import { db } from './db';
 import { settings, type Settings } from './db/schema';
+import { todayIn } from '$lib/scheduling/zone';
+
+type Reader = Pick<typeof db, 'select'>;
+
+/**
+ * The firm's time zone. Pass the caller's transaction when one is open: a second pool connection
+ * taken while the transaction holds its own could wait forever when the pool is exhausted.
+ */
+export async function firmTimeZone(tx: Reader = db): Promise<string> {
+	const [row] = await tx
+		.select({ timeZone: settings.timeZone })
+		.from(settings)
+		.where(eq(settings.id, 1))
+		.limit(1);
+	return row?.timeZone ?? 'America/Denver';
+}
+
+/** Today's date (YYYY-MM-DD) on the firm's calendar. */
+export async function firmToday(tx: Reader = db, now: Date | number = Date.now()): Promise<string> {
+	return todayIn(await firmTimeZone(tx), now);
+}
 
 export async function firmSettings(): Promise<Settings> {
 	const [row] = await db.select().from(settings).where(eq(settings.id, 1)).limit(1);

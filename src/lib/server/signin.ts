@@ -1,28 +1,42 @@
 import type { Cookies } from '@sveltejs/kit';
 import { createSession, endSession, findUserByEmail } from './auth';
+import { knownDevice } from './device';
 import { verifyAgainstDummy, verifyPassword } from './passwords';
-import { recordAttempt, throttledFor } from './throttle';
+import { clearThrottle, deviceKey, recordAttempt, recordFailure, waitFor } from './throttle';
 
 export type SignInResult =
 	| { ok: true; userId: string }
-	| { ok: false; reason: 'throttled'; minutes: number }
+	| { ok: false; reason: 'throttled'; seconds: number }
 	| { ok: false; reason: 'mismatch' };
 
-/** Checks the password with the same work whether or not the e-mail exists. */
+/**
+ * Checks the password with the same work whether or not the e-mail exists. `deviceCookie` is the
+ * browser's rs_device cookie: a genuine one of this account exempts the attempt from the delays
+ * that failures from other devices and addresses have built up.
+ */
 export async function attemptSignIn(
 	email: string,
 	password: string,
-	ip: string
+	ip: string,
+	deviceCookie?: string,
+	now = Date.now()
 ): Promise<SignInResult> {
-	const minutes = await throttledFor(email, ip);
-	if (minutes) return { ok: false, reason: 'throttled', minutes };
 	const user = await findUserByEmail(email);
+	const device = knownDevice(deviceCookie, user?.id ?? null);
+	const scope = device ? { device } : { email, ip };
+	const wait = await waitFor(scope, now);
+	if (wait > 0) return { ok: false, reason: 'throttled', seconds: Math.ceil(wait / 1000) };
 	const matches = user
 		? await verifyPassword(user.passwordHash, password)
 		: await verifyAgainstDummy(password);
 	const ok = matches && !!user && !user.disabledAt;
 	await recordAttempt(email, ip, ok);
-	return ok ? { ok: true, userId: user.id } : { ok: false, reason: 'mismatch' };
+	if (!ok) {
+		await recordFailure(scope, now);
+		return { ok: false, reason: 'mismatch' };
+	}
+	if (device) await clearThrottle([deviceKey(device)]);
+	return { ok: true, userId: user.id };
 }
 
 /** Ends any session the browser had and starts a new one (no session fixation). */

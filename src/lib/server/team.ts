@@ -6,6 +6,8 @@ import { newId, newToken, sha256 } from './crypto';
 import { hashPassword } from './passwords';
 import { endAllSessionsOf, forgetSessionsOf } from './auth';
 import { htmlBody, sendMail } from './mail';
+import { dispatchMail, writeMail } from './outbox';
+import { accountKey, clearThrottle } from './throttle';
 import { origin } from './env';
 import { firmSettings } from './settings';
 
@@ -181,7 +183,7 @@ export async function changeRole(actorId: string, userId: string, role: Role): P
 	if (!updated.length) throw new TeamError('No such team member');
 	// A role change takes effect at once: the member signs in again with the new role.
 	if (actorId !== userId) await endAllSessionsOf(userId);
-	else forgetSessionsOf(userId);
+	else await forgetSessionsOf(userId);
 }
 
 export async function setDisabled(
@@ -202,30 +204,61 @@ export async function setDisabled(
 	if (disabled) await endAllSessionsOf(userId);
 }
 
-/** Sends a reset link when the address belongs to an active member; says nothing either way. */
+/** At most one reset mail per account in this span, however often /forgot is asked. */
+export const RESET_MAIL_INTERVAL_MS = 5 * 60 * 1000;
+
+/**
+ * Writes a reset link and its mail to the outbox, unless the account does not exist, is disabled
+ * or had a link mailed in the last five minutes. The caller answers the same in every case.
+ */
 export async function requestPasswordReset(email: string): Promise<void> {
-	const [user] = await db.select().from(users).where(eq(users.email, email)).limit(1);
-	if (!user || user.disabledAt) return;
-	const token = newToken();
-	await db.insert(passwordResets).values({
-		id: newId(),
-		tokenHash: sha256(token),
-		userId: user.id,
-		expiresAt: new Date(Date.now() + RESET_LIFETIME_MS)
-	});
 	const firm = await firmSettings();
-	const url = `${origin()}/reset/${token}`;
-	const lines = [
-		`Hello ${user.name},`,
-		'Someone asked to reset the password of your Rillstone account. If it was you, choose a new password with the link below; it works once, for one hour.',
-		'If it was not you, ignore this message: your password stays as it is.'
-	];
-	await sendMail({
-		to: user.email,
-		subject: 'Reset your Rillstone password',
-		text: `${lines.join('\n\n')}\n\n${url}`,
-		html: htmlBody(lines, { label: 'Choose a new password', url }, firm.firmName)
+	const outboxId = await db.transaction(async (tx) => {
+		// The user row is locked, so two requests at once cannot both pass the interval check.
+		const [user] = await tx
+			.select()
+			.from(users)
+			.where(eq(users.email, email.trim().toLowerCase()))
+			.limit(1)
+			.for('update');
+		if (!user || user.disabledAt) return null;
+		const [recent] = await tx
+			.select({ id: passwordResets.id })
+			.from(passwordResets)
+			.where(
+				and(
+					eq(passwordResets.userId, user.id),
+					gt(passwordResets.createdAt, new Date(Date.now() - RESET_MAIL_INTERVAL_MS))
+				)
+			)
+			.limit(1);
+		if (recent) return null;
+		const token = newToken();
+		const resetId = newId();
+		await tx.insert(passwordResets).values({
+			id: resetId,
+			tokenHash: sha256(token),
+			userId: user.id,
+			expiresAt: new Date(Date.now() + RESET_LIFETIME_MS)
+		});
+		const url = `${origin()}/reset/${token}`;
+		const lines = [
+			`Hello ${user.name},`,
+			'Someone asked to reset the password of your Rillstone account. If it was you, choose a new password with the link below; it works once, for one hour.',
+			'If it was not you, ignore this message: your password stays as it is.'
+		];
+		return writeMail(
+			{
+				dedupeKey: `password-reset:${resetId}`,
+				to: user.email,
+				subject: 'Reset your Rillstone password',
+				text: `${lines.join('\n\n')}\n\n${url}`,
+				html: htmlBody(lines, { label: 'Choose a new password', url }, firm.firmName)
+			},
+			tx
+		);
 	});
+	if (outboxId) await dispatchMail(outboxId);
 }
 
 export async function findOpenReset(token: string) {
@@ -264,5 +297,8 @@ export async function completePasswordReset(token: string, password: string): Pr
 	});
 	if (!userId) return false;
 	await endAllSessionsOf(userId);
+	// Whoever completes a reset holds the mailbox: the account's sign-in delays end with it.
+	const [user] = await db.select({ email: users.email }).from(users).where(eq(users.id, userId));
+	if (user) await clearThrottle([accountKey(user.email)]);
 	return true;
 }

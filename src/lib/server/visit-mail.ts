@@ -4,6 +4,7 @@
 import { TZDate } from '@date-fns/tz';
 import ical, { ICalAttendeeRole, ICalCalendarMethod, ICalEventStatus } from 'ical-generator';
 import { relativeDay } from '$lib/scheduling/reminders';
+import { calendarDate } from '$lib/scheduling/zone';
 import { vtimezone } from '$lib/scheduling/vtimezone';
 import type { db } from './db';
 import type { Settings, SiteVisit } from './db/schema';
@@ -158,7 +159,7 @@ function salespersonText(p: VisitParty, kind: VisitMailKind, now: Date): string[
 	return [
 		`${what}: site visit for R-${p.leadNumber}, ${p.homeowner.name}.`,
 		`${whenText(p.visit)} at ${p.address}.`,
-		`Agenda: ${origin()}/office/visits?day=${new TZDate(p.visit.startsAt.getTime(), p.visit.timeZone).toISOString().slice(0, 10)}`
+		`Agenda: ${origin()}/office/visits?day=${calendarDate(p.visit.startsAt, p.visit.timeZone)}`
 	];
 }
 

@@ -1,5 +1,6 @@
 import { sql } from 'drizzle-orm';
 import {
+	type AnyPgColumn,
 	boolean,
 	check,
 	customType,
@@ -10,6 +11,7 @@ import {
 	jsonb,
 	pgEnum,
 	pgTable,
+	primaryKey,
 	text,
 	timestamp,
 	uniqueIndex
@@ -100,6 +102,28 @@ export const signInAttempts = pgTable(
 	]
 );
 
+/**
+ * Failed sign-ins counted per key: `account:<email>` and `address:<ip>` for devices that have not
+ * signed in before, `device:<nonce>` for a known device. The delay grows from the count and the
+ * time of the last failure; a count whose last failure is a day old starts again.
+ */
+export const signInThrottles = pgTable('sign_in_throttles', {
+	key: text('key').primaryKey(),
+	failures: integer('failures').notNull().default(0),
+	lastFailureAt: timestamp('last_failure_at', { withTimezone: true }).notNull()
+});
+
+/** Fixed-window request counters shared by every app process (inquiry and upload limits). */
+export const rateCounters = pgTable(
+	'rate_counters',
+	{
+		key: text('key').notNull(),
+		windowStart: timestamp('window_start', { withTimezone: true }).notNull(),
+		hits: integer('hits').notNull().default(0)
+	},
+	(t) => [primaryKey({ columns: [t.key, t.windowStart] })]
+);
+
 // One row: the firm's own settings.
 export const settings = pgTable('settings', {
 	id: integer('id').primaryKey().default(1),
@@ -130,12 +154,20 @@ export const contacts = pgTable(
 		phone: text('phone'),
 		phoneDigits: text('phone_digits'),
 		isCustomer: boolean('is_customer').notNull().default(false),
+		/**
+		 * Set when staff merged this contact into another (the same person under two e-mails): the
+		 * row stays, so every name, e-mail and phone ever given stays on record, and each lead keeps
+		 * its own contact, so its mail still goes to the address its inquiry gave.
+		 */
+		mergedIntoId: text('merged_into_id').references((): AnyPgColumn => contacts.id),
+		mergedAt: timestamp('merged_at', { withTimezone: true }),
 		createdAt: createdAt(),
 		updatedAt: updatedAt()
 	},
 	(t) => [
 		uniqueIndex('contacts_email_idx').on(t.email),
-		index('contacts_phone_idx').on(t.phoneDigits)
+		index('contacts_phone_idx').on(t.phoneDigits),
+		index('contacts_merged_into_idx').on(t.mergedIntoId)
 	]
 );
 

@@ -3,6 +3,8 @@
 import { and, desc, eq, inArray } from 'drizzle-orm';
 import { db } from '../db';
 import { contacts, invoices, jobs, type Job } from '../db/schema';
+import { addDays, calendarDate, todayIn } from '$lib/scheduling/zone';
+import { firmTimeZone } from '../settings';
 import { DEPOSIT_TERMS_DAYS, FINAL_TERMS_DAYS, jobMoney, type JobMoney } from './ledger';
 
 const DAY = 86_400_000;
@@ -20,11 +22,16 @@ export interface OpenBalance {
 	daysOverdue: number;
 }
 
-export function dueDate(job: Job, kind: 'deposit' | 'final', invoiceDueOn?: string): string {
+export function dueDate(
+	job: Job,
+	kind: 'deposit' | 'final',
+	timeZone: string,
+	invoiceDueOn?: string
+): string {
 	if (invoiceDueOn) return invoiceDueOn;
 	const from = kind === 'final' ? (job.completedAt ?? job.createdAt) : job.createdAt;
 	const days = kind === 'final' ? FINAL_TERMS_DAYS : DEPOSIT_TERMS_DAYS;
-	return new Date(from.getTime() + days * DAY).toISOString().slice(0, 10);
+	return addDays(calendarDate(from, timeZone), days);
 }
 
 export function sortOpenBalances<T extends { daysOverdue: number; dueOn: string; number: number }>(
@@ -47,7 +54,8 @@ export async function openBalances(now = new Date()): Promise<OpenBalance[]> {
 		.where(inArray(jobs.stage, ['scheduled', 'underway', 'punch_list', 'complete']))
 		.orderBy(desc(jobs.number));
 	const out: OpenBalance[] = [];
-	const today = now.toISOString().slice(0, 10);
+	const timeZone = await firmTimeZone();
+	const today = todayIn(timeZone, now);
 	for (const { job, contactName } of rows) {
 		const money = await jobMoney(job);
 		if (!money.due) continue;
@@ -55,7 +63,7 @@ export async function openBalances(now = new Date()): Promise<OpenBalance[]> {
 			.select({ dueOn: invoices.dueOn })
 			.from(invoices)
 			.where(and(eq(invoices.jobId, job.id), eq(invoices.kind, money.due.kind)));
-		const dueOn = dueDate(job, money.due.kind, invoice?.dueOn);
+		const dueOn = dueDate(job, money.due.kind, timeZone, invoice?.dueOn);
 		const daysOverdue = Math.max(0, Math.round((Date.parse(today) - Date.parse(dueOn)) / DAY));
 		out.push({
 			jobId: job.id,

@@ -13,6 +13,7 @@ import {
 	type PaymentMethod
 } from '../db/schema';
 import { newId } from '../crypto';
+import { firmToday } from '../settings';
 import { addActivity, jobBalance, jobRef, type Tx } from '../jobsite';
 import { writeMail, dispatchMail } from '../outbox';
 import { receiptMail } from './mail';
@@ -82,7 +83,6 @@ export async function lockJob(tx: Tx, jobId: string): Promise<Job> {
 	return job;
 }
 
-const today = () => new Date().toISOString().slice(0, 10);
 export const formatCents = (cents: number, currency = CURRENCY) =>
 	new Intl.NumberFormat('en-US', { style: 'currency', currency: currency.toUpperCase() }).format(
 		cents / 100
@@ -119,7 +119,7 @@ export async function insertPayment(tx: Tx, job: Job, p: NewPayment) {
 			currency: p.currency ?? CURRENCY,
 			providerCheckoutId: p.providerCheckoutId ?? null,
 			reference: p.reference || null,
-			receivedOn: p.receivedOn ?? today(),
+			receivedOn: p.receivedOn ?? (await firmToday(tx)),
 			reason: p.reason ?? null,
 			note: p.note ?? '',
 			recordedBy: p.recordedBy ?? null

@@ -1,6 +1,7 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { fieldErrors, formValues, signInSchema, type FormErrors } from '$lib/schema/auth';
 import { safeNext } from '$lib/server/redirects';
+import { DEVICE_COOKIE, setDeviceCookie } from '$lib/server/device';
 import { attemptSignIn, startSession } from '$lib/server/signin';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -21,12 +22,18 @@ export const actions: Actions = {
 			return fail(400, { values, errors: fieldErrors(parsed.error) as FormErrors, message: '' });
 		}
 		const ip = event.getClientAddress();
-		const result = await attemptSignIn(parsed.data.email, parsed.data.password, ip);
+		const result = await attemptSignIn(
+			parsed.data.email,
+			parsed.data.password,
+			ip,
+			event.cookies.get(DEVICE_COOKIE)
+		);
 		if (!result.ok && result.reason === 'throttled') {
+			event.setHeaders({ 'retry-after': String(result.seconds) });
 			return fail(429, {
 				values,
 				errors: {} as FormErrors,
-				message: `Too many sign-in attempts. Wait ${result.minutes} minutes, then try again, or reset your password.`
+				message: `Too many failed sign-ins for this account or from this network. Wait ${result.seconds} ${result.seconds === 1 ? 'second' : 'seconds'}, then try again. A browser you have signed in with before is not held up.`
 			});
 		}
 		if (!result.ok) {
@@ -40,6 +47,7 @@ export const actions: Actions = {
 			ipAddress: ip,
 			userAgent: event.request.headers.get('user-agent') ?? undefined
 		});
+		setDeviceCookie(event.cookies, result.userId);
 		redirect(303, safeNext(String(data.get('next') ?? '')));
 	}
 };

@@ -1,18 +1,9 @@
+import { addDays, todayIn } from '$lib/scheduling/zone';
 import { dateSchema } from '$lib/schema/visits';
 import { requireRole } from '$lib/server/access';
 import { installDays, listJobs } from '$lib/server/jobsite';
 import { firmSettings } from '$lib/server/settings';
 import type { PageServerLoad } from './$types';
-
-function todayIn(timeZone: string): string {
-	return new Intl.DateTimeFormat('en-CA', { timeZone }).format(new Date());
-}
-
-function addDays(day: string, n: number): string {
-	const d = new Date(`${day}T00:00:00Z`);
-	d.setUTCDate(d.getUTCDate() + n);
-	return d.toISOString().slice(0, 10);
-}
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'owner', 'sales', 'crew');

@@ -6,6 +6,7 @@ import { requireRole } from '$lib/server/access';
 import { db } from '$lib/server/db';
 import { contacts, leads } from '$lib/server/db/schema';
 import { JobError, recordSaleByHand, sellableEstimates } from '$lib/server/jobsite';
+import { firmToday } from '$lib/server/settings';
 import type { Actions, PageServerLoad } from './$types';
 
 // "Mark sold by hand": a yes on signed paper or by phone, recorded by staff; the same conversion.
@@ -20,7 +21,7 @@ export const load: PageServerLoad = async (event) => {
 				.where(eq(leads.id, leadId))
 		: [];
 	if (!lead) error(404, 'Open this from a lead: no lead was named.');
-	return { lead, estimates: await sellableEstimates(lead.id) };
+	return { lead, estimates: await sellableEstimates(lead.id), today: await firmToday() };
 };
 
 export const actions: Actions = {

@@ -6,6 +6,7 @@ import {
 	detailsFormSchema,
 	logFormSchema,
 	mailFormSchema,
+	mergeFormSchema,
 	priorityFormSchema,
 	stageFormSchema
 } from '$lib/schema/leads';
@@ -25,6 +26,12 @@ import {
 	updateDetails
 } from '$lib/server/leads';
 import { firmSettings } from '$lib/server/settings';
+import {
+	mergeContacts,
+	MergeError,
+	possibleDuplicates,
+	samePerson
+} from '$lib/server/contact-merge';
 import { signedUrl } from '$lib/server/storage';
 import { visitNotesOfLead } from '$lib/server/visits';
 import type { Actions, PageServerLoad } from './$types';
@@ -38,7 +45,7 @@ export const load: PageServerLoad = async (event) => {
 	if (!found) error(404, 'No lead with that number');
 	// Photos taken at a visit are shown with that visit's notes, not among the inquiry's.
 	const inquiryPhotos = found.photos.filter((p) => p.context !== 'visit');
-	const [staff, firm, visitNotes, photos] = await Promise.all([
+	const [staff, firm, visitNotes, photos, duplicates, samePersonOf] = await Promise.all([
 		assignableStaff(),
 		firmSettings(),
 		visitNotesOfLead(found.lead.id),
@@ -51,7 +58,9 @@ export const load: PageServerLoad = async (event) => {
 				thumbUrl: await signedUrl(p.thumbKey, PHOTO_LINK_SECONDS),
 				fullUrl: await signedUrl(p.displayKey, PHOTO_LINK_SECONDS)
 			}))
-		)
+		),
+		possibleDuplicates(found.contact.id),
+		samePerson(found.contact.id)
 	]);
 	const templates = renderTemplates(
 		templateContext(found.lead, found.contact.name, firm, user.name)
@@ -64,6 +73,8 @@ export const load: PageServerLoad = async (event) => {
 		photos,
 		visitNotes,
 		timeline: found.timeline,
+		duplicates,
+		samePerson: samePersonOf,
 		staff,
 		templates,
 		sendKey: newToken(),
@@ -152,6 +163,23 @@ export const actions: Actions = {
 		if (p.failure) return p.failure;
 		const what = p.data.kind === 'call' ? 'Call logged' : 'Note added';
 		return edit('log', data, () => logActivity(user.id, event.params.id, p.data), what);
+	},
+	merge: async (event) => {
+		const user = requireRole(event, 'owner', 'sales');
+		const data = await event.request.formData();
+		const p = parse(mergeFormSchema, 'merge', data);
+		if (p.failure) return p.failure;
+		const found = await getLead(event.params.id);
+		if (!found) error(404, 'No lead with that number');
+		try {
+			await mergeContacts(found.contact.id, p.data.contactId, user);
+		} catch (err) {
+			if (err instanceof MergeError) {
+				return fail(400, { form: 'merge', values: {}, errors: { _form: err.message } });
+			}
+			throw err;
+		}
+		return { form: 'merge', ok: 'Merged: both leads now show the same person' };
 	},
 	mail: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');

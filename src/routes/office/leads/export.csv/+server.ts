@@ -11,6 +11,7 @@ import { requireRole } from '$lib/server/access';
 import { allLeadRows } from '$lib/server/leads';
 import { firmSettings } from '$lib/server/settings';
 import { formatWhen } from '$lib/components/leads/format';
+import { todayIn } from '$lib/scheduling/zone';
 import type { RequestHandler } from './$types';
 
 const HEADER = [
@@ -40,13 +41,17 @@ export const GET: RequestHandler = async (event) => {
 	}
 	const { timeZone } = await firmSettings();
 	const rows = allLeadRows(parsed.data, { userId: user.id });
+	// The first batch is read before the answer starts, so a query that fails answers with an
+	// error status instead of a 200 that stops after the header row.
+	let pending: Awaited<ReturnType<typeof rows.next>> | null = await rows.next();
 	const encoder = new TextEncoder();
 	const stream = new ReadableStream<Uint8Array>({
 		async start(controller) {
 			controller.enqueue(encoder.encode(csvLine(HEADER)));
 		},
 		async pull(controller) {
-			const next = await rows.next();
+			const next = pending ?? (await rows.next());
+			pending = null;
 			if (next.done) return controller.close();
 			controller.enqueue(
 				encoder.encode(
@@ -78,7 +83,7 @@ export const GET: RequestHandler = async (event) => {
 			await rows.return(undefined);
 		}
 	});
-	const day = new Date().toISOString().slice(0, 10);
+	const day = todayIn(timeZone);
 	return new Response(stream, {
 		headers: {
 			'content-type': 'text/csv; charset=utf-8',

@@ -14,6 +14,7 @@ import {
 	recordHandPayment,
 	recordRefund
 } from '$lib/server/payments/ledger';
+import { firmToday } from '$lib/server/settings';
 import type { Actions, PageServerLoad } from './$types';
 
 async function jobOr404(id: string) {
@@ -36,7 +37,7 @@ export const load: PageServerLoad = async (event) => {
 		money: await jobMoney(job),
 		payments: await paymentsOf(job.id),
 		invoices: await invoicesOf(job.id),
-		today: new Date().toISOString().slice(0, 10)
+		today: await firmToday()
 	};
 };
 

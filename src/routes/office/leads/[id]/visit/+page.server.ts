@@ -11,6 +11,7 @@ import {
 	salespeople,
 	visitsOfLead
 } from '$lib/server/visits';
+import { firmToday } from '$lib/server/settings';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -23,6 +24,7 @@ export const load: PageServerLoad = async (event) => {
 		visits,
 		people,
 		current: visits.find((v) => v.status === 'booked') ?? null,
+		today: await firmToday(),
 		defaultPerson: lead.assigneeId ?? (user.role === 'sales' ? user.id : (people[0]?.id ?? ''))
 	};
 };

@@ -1,5 +1,6 @@
 import { error } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/access';
+import { firmTimeZone } from '$lib/server/settings';
 import { invoiceByNumber } from '$lib/server/payments/invoices';
 import type { PageServerLoad } from './$types';
 
@@ -7,5 +8,5 @@ export const load: PageServerLoad = async (event) => {
 	requireRole(event, 'owner');
 	const invoice = await invoiceByNumber(Number(event.params.number));
 	if (!invoice) error(404, 'There is no such invoice.');
-	return { invoice };
+	return { invoice, timeZone: await firmTimeZone() };
 };
