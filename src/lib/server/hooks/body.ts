@@ -50,6 +50,7 @@ async function countBody(body: ReadableStream<Uint8Array>, limit: number): Promi
 	let dir: string | null = null;
 	let file: ReturnType<typeof createWriteStream> | null = null;
 	let size = 0;
+	let fileError: Error | null = null;
 	const discard = async () => {
 		file?.destroy();
 		if (dir) await rm(dir, { recursive: true, force: true });
@@ -58,6 +59,9 @@ async function countBody(body: ReadableStream<Uint8Array>, limit: number): Promi
 		if (spool) {
 			dir = await mkdtemp(join(tmpdir(), 'rillstone-body-'));
 			file = createWriteStream(join(dir, 'body'));
+			// A write that fails (a full disk) fails the request below; one cut short by
+			// discard() is expected. Without a listener either would crash the process.
+			file.on('error', (error) => (fileError ??= error));
 		}
 		for (;;) {
 			const { done, value } = await reader.read();
@@ -69,16 +73,22 @@ async function countBody(body: ReadableStream<Uint8Array>, limit: number): Promi
 				return { ok: false };
 			}
 			if (file) {
-				if (!file.write(value)) await once(file, 'drain');
+				if (!file.write(value)) await Promise.race([once(file, 'drain'), once(file, 'close')]);
+				if (fileError) throw fileError;
 			} else chunks.push(value);
 		}
 	} catch (error) {
 		await discard();
+		void reader.cancel().catch(() => {});
 		throw error;
 	}
 	if (file && dir) {
 		file.end();
-		await once(file, 'finish');
+		await Promise.race([once(file, 'finish'), once(file, 'close')]);
+		if (fileError) {
+			await discard();
+			throw fileError;
+		}
 		const path = join(dir, 'body');
 		const folder = dir;
 		return {
