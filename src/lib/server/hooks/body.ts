@@ -3,7 +3,6 @@ import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Readable } from 'node:stream';
-import { once } from 'node:events';
 import type { Handle } from '@sveltejs/kit';
 import { bodyLimitFor, SPOOL_ABOVE, type BodyLimit } from '../body-limits';
 import { requestPath } from '../request-path';
@@ -37,6 +36,19 @@ function drain(reader: ReadableStreamDefaultReader<Uint8Array>): void {
 			clearTimeout(stop);
 		}
 	})();
+}
+
+/** Waits for `event`, or for the stream to close (an error closes it too); leaves no listener. */
+function settled(stream: ReturnType<typeof createWriteStream>, event: 'drain' | 'finish') {
+	return new Promise<void>((resolve) => {
+		const done = () => {
+			stream.off(event, done);
+			stream.off('close', done);
+			resolve();
+		};
+		stream.once(event, done);
+		stream.once('close', done);
+	});
 }
 
 type Counted =
@@ -73,7 +85,7 @@ async function countBody(body: ReadableStream<Uint8Array>, limit: number): Promi
 				return { ok: false };
 			}
 			if (file) {
-				if (!file.write(value)) await Promise.race([once(file, 'drain'), once(file, 'close')]);
+				if (!file.write(value)) await settled(file, 'drain');
 				if (fileError) throw fileError;
 			} else chunks.push(value);
 		}
@@ -84,7 +96,7 @@ async function countBody(body: ReadableStream<Uint8Array>, limit: number): Promi
 	}
 	if (file && dir) {
 		file.end();
-		await Promise.race([once(file, 'finish'), once(file, 'close')]);
+		await settled(file, 'finish');
 		if (fileError) {
 			await discard();
 			throw fileError;
