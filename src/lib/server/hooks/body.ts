@@ -124,7 +124,12 @@ export const handleBody: Handle = async ({ event, resolve }) => {
 	const declared = request.headers.get('content-length');
 	if (declared !== null) {
 		// A declared length is enforced by the server too (more bytes than declared end the stream).
-		if (Number(declared) > limit.bytes) return tooLarge(event, limit);
+		if (Number(declared) > limit.bytes) {
+			// Read and drop what comes, as for a chunked body: a connection left with unread bytes
+			// would take them for the start of its next request.
+			drain(request.body.getReader());
+			return tooLarge(event, limit);
+		}
 		return resolve(event);
 	}
 	const counted = await countBody(request.body, limit.bytes);
