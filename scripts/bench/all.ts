@@ -18,7 +18,8 @@ const benches: { name: string; script: string; needsApp: boolean; args?: string[
 	{ name: 'site', script: 'scripts/bench/site.ts', needsApp: true, args: [baseUrl] },
 	{ name: 'leads', script: 'scripts/bench/leads.ts', needsApp: true },
 	// Starts its own services and app on ports of its own (see the script's header).
-	{ name: 'load', script: 'scripts/bench/load.ts', needsApp: false }
+	{ name: 'load', script: 'scripts/bench/load.ts', needsApp: false },
+	{ name: 'bodies', script: 'scripts/bench/bodies.ts', needsApp: false }
 ];
 
 const ran: Record<string, string> = {};

@@ -3,7 +3,6 @@ import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Readable } from 'node:stream';
-import { once } from 'node:events';
 import type { Handle } from '@sveltejs/kit';
 import { bodyLimitFor, SPOOL_ABOVE, type BodyLimit } from '../body-limits';
 import { requestPath } from '../request-path';
@@ -39,6 +38,19 @@ function drain(reader: ReadableStreamDefaultReader<Uint8Array>): void {
 	})();
 }
 
+/** Waits for `event`, or for the stream to close (an error closes it too); leaves no listener. */
+function settled(stream: ReturnType<typeof createWriteStream>, event: 'drain' | 'finish') {
+	return new Promise<void>((resolve) => {
+		const done = () => {
+			stream.off(event, done);
+			stream.off('close', done);
+			resolve();
+		};
+		stream.once(event, done);
+		stream.once('close', done);
+	});
+}
+
 type Counted =
 	{ ok: true; body: BodyInit; size: number; cleanup: () => Promise<void> } | { ok: false };
 
@@ -50,6 +62,7 @@ async function countBody(body: ReadableStream<Uint8Array>, limit: number): Promi
 	let dir: string | null = null;
 	let file: ReturnType<typeof createWriteStream> | null = null;
 	let size = 0;
+	let fileError: Error | null = null;
 	const discard = async () => {
 		file?.destroy();
 		if (dir) await rm(dir, { recursive: true, force: true });
@@ -58,6 +71,9 @@ async function countBody(body: ReadableStream<Uint8Array>, limit: number): Promi
 		if (spool) {
 			dir = await mkdtemp(join(tmpdir(), 'rillstone-body-'));
 			file = createWriteStream(join(dir, 'body'));
+			// A write that fails (a full disk) fails the request below; one cut short by
+			// discard() is expected. Without a listener either would crash the process.
+			file.on('error', (error) => (fileError ??= error));
 		}
 		for (;;) {
 			const { done, value } = await reader.read();
@@ -69,16 +85,22 @@ async function countBody(body: ReadableStream<Uint8Array>, limit: number): Promi
 				return { ok: false };
 			}
 			if (file) {
-				if (!file.write(value)) await once(file, 'drain');
+				if (!file.write(value)) await settled(file, 'drain');
+				if (fileError) throw fileError;
 			} else chunks.push(value);
 		}
 	} catch (error) {
 		await discard();
+		void reader.cancel().catch(() => {});
 		throw error;
 	}
 	if (file && dir) {
 		file.end();
-		await once(file, 'finish');
+		await settled(file, 'finish');
+		if (fileError) {
+			await discard();
+			throw fileError;
+		}
 		const path = join(dir, 'body');
 		const folder = dir;
 		return {
@@ -102,7 +124,12 @@ export const handleBody: Handle = async ({ event, resolve }) => {
 	const declared = request.headers.get('content-length');
 	if (declared !== null) {
 		// A declared length is enforced by the server too (more bytes than declared end the stream).
-		if (Number(declared) > limit.bytes) return tooLarge(event, limit);
+		if (Number(declared) > limit.bytes) {
+			// Read and drop what comes, as for a chunked body: a connection left with unread bytes
+			// would take them for the start of its next request.
+			drain(request.body.getReader());
+			return tooLarge(event, limit);
+		}
 		return resolve(event);
 	}
 	const counted = await countBody(request.body, limit.bytes);
