@@ -80,6 +80,29 @@ export function searchTerms(q: string | undefined): string[] {
 	return q.toLowerCase().split(/\s+/).filter(Boolean).slice(0, 6);
 }
 
+/** Any of these services, as a tsquery of the lexemes `~service:<key>` in search_words. */
+const serviceQuery = (services: string[]) =>
+	services.map((s) => `'~service:${s.replace(/\\/g, '\\\\').replace(/'/g, "''")}'`).join(' | ');
+
+/** A word of a name, town or message: letters, maybe joined by apostrophes or hyphens. */
+const WORD = /^[\p{L}\p{M}]+(?:['’-][\p{L}\p{M}]+)*$/u;
+
+/**
+ * How each term is searched. A word ("brookstone", "o'rourke", "saint-étienne") goes to full-text
+ * search: each of its parts must begin a word of the lead (`search_words`, accents ignored), all
+ * of them in one tsquery. Anything else (digits, "@", ".", "%"…: phone numbers and e-mail
+ * fragments) must appear as typed in `search_text`, through the trigram index.
+ */
+export function searchParts(q: string | undefined): { words: string | null; fragments: string[] } {
+	const words: string[] = [];
+	const fragments: string[] = [];
+	for (const term of searchTerms(q)) {
+		if (WORD.test(term)) words.push(...term.split(/['’-]/).map((part) => `${part}:*`));
+		else fragments.push(term);
+	}
+	return { words: words.length ? words.join(' & ') : null, fragments };
+}
+
 /** Numbered parameters shared by every part of one statement. */
 class Params {
 	readonly values: unknown[] = [];
@@ -95,7 +118,8 @@ const stageClause = (q: LeadQuery, p: Params, alias: string) =>
 /** The filters other than stage, on leads `l`. */
 function filterClauses(q: LeadQuery, ctx: ListContext, p: Params, search = true): string[] {
 	const clauses: string[] = [];
-	if (q.service.length) clauses.push(`l.services && ${p.add(q.service)}::text[]`);
+	const words = search ? searchParts(q.q).words : null;
+	if (q.service.length && !words) clauses.push(`l.services && ${p.add(q.service)}::text[]`);
 	if (q.budget.length) clauses.push(`l.budget = any(${p.add(q.budget)}::text[])`);
 	if (q.assignee === 'mine') clauses.push(`l.assignee_id = ${p.add(ctx.userId)}`);
 	else if (q.assignee === 'unassigned') clauses.push('l.assignee_id is null');
@@ -108,7 +132,17 @@ function filterClauses(q: LeadQuery, ctx: ListContext, p: Params, search = true)
 	}
 	if (q.awaiting) clauses.push(`l.first_reply_at is null and l.stage not in ('sold', 'closed')`);
 	if (search) {
-		for (const term of searchTerms(q.q)) {
+		if (words) {
+			// With words to look for, the service filter joins the same tsquery (the services are
+			// lexemes of search_words too), so one GIN scan answers both.
+			const tsquery = `to_tsquery('public.rillstone_names', ${p.add(words)})`;
+			clauses.push(
+				q.service.length
+					? `l.search_words @@ (${tsquery} && ${p.add(serviceQuery(q.service))}::tsquery)`
+					: `l.search_words @@ ${tsquery}`
+			);
+		}
+		for (const term of searchParts(q.q).fragments) {
 			clauses.push(`l.search_text like ${p.add(`%${escapeLike(term)}%`)}`);
 		}
 	}
