@@ -82,6 +82,13 @@ export function checkPhotoBytes(name: string, bytes: Uint8Array): void {
 	}
 }
 
+// libvips keeps a cache of recent operations (up to 50 MB and 100 operations by default) to
+// serve repeated work on the same image; every photo here is new, so the cache only holds
+// memory. One libvips thread per photo: the app already decodes one photo per spare core at a
+// time (below), and each extra thread brings its own buffers.
+sharp.cache(false);
+sharp.concurrency(1);
+
 // Photos decoded at once in this process. libvips already uses every core for one photo; more at
 // once only queue for the same cores and starve every other request (npm run bench:load saw the
 // office API stall past 10 s under 50 simultaneous inquiries). The rest wait their turn.
@@ -111,7 +118,6 @@ async function decodeAndResize(name: string, bytes: Uint8Array): Promise<Process
 	checkPhotoBytes(name, bytes);
 	const shown = `“${cleanFileName(name)}”`;
 	const input = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-	const open = () => sharp(input, { limitInputPixels: PIXEL_LIMIT, failOn: 'truncated' });
 	let meta: sharp.Metadata;
 	try {
 		// Only the header is read here, so the pixel limit is checked by hand to name the size.
@@ -129,14 +135,21 @@ async function decodeAndResize(name: string, bytes: Uint8Array): Promise<Process
 		);
 	}
 	try {
-		// sharp drops EXIF, GPS, XMP and ICC unless asked to keep them; autoOrient applies the tag first.
-		const oriented = await open().autoOrient().toBuffer({ resolveWithObject: true });
-		const base = () => sharp(oriented.data, { limitInputPixels: PIXEL_LIMIT });
-		const display = await base()
+		// One decode: read in order (sequentialRead), oriented, and shrunk while decoding when the
+		// display copy is at most half the photo's size (JPEG and WebP shrink-on-load), so a
+		// 40-megapixel photo never lies in memory at full size. sharp drops EXIF, GPS, XMP and ICC
+		// unless asked to keep them; autoOrient applies the tag first. The thumbnail comes from the
+		// small display copy, not from the photo again.
+		const display = await sharp(input, {
+			limitInputPixels: PIXEL_LIMIT,
+			failOn: 'truncated',
+			sequentialRead: true
+		})
+			.autoOrient()
 			.resize(DISPLAY_EDGE, DISPLAY_EDGE, { fit: 'inside', withoutEnlargement: true })
 			.webp({ quality: 82 })
 			.toBuffer({ resolveWithObject: true });
-		const thumb = await base()
+		const thumb = await sharp(display.data, { sequentialRead: true })
 			.resize(THUMB_EDGE, THUMB_EDGE, { fit: 'inside', withoutEnlargement: true })
 			.webp({ quality: 74 })
 			.toBuffer();
