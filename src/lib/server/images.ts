@@ -109,6 +109,32 @@ async function inTurn<T>(work: () => Promise<T>): Promise<T> {
 	}
 }
 
+/**
+ * Turns an image as the EXIF orientation tag (1–8) says, as sharp's autoOrient does (checked
+ * against it for every tag in tests/integration/intake-images.test.ts). sharp mirrors before it
+ * rotates.
+ */
+function orient(image: sharp.Sharp, orientation: number | undefined): sharp.Sharp {
+	switch (orientation) {
+		case 2:
+			return image.flop();
+		case 3:
+			return image.rotate(180);
+		case 4:
+			return image.flip();
+		case 5:
+			return image.flip().rotate(90);
+		case 6:
+			return image.rotate(90);
+		case 7:
+			return image.flop().rotate(90);
+		case 8:
+			return image.rotate(270);
+		default:
+			return image;
+	}
+}
+
 /** Decodes, orients, strips and resizes one photo. Throws PhotoError with a message naming it. */
 export function processPhoto(name: string, bytes: Uint8Array): Promise<ProcessedPhoto> {
 	return inTurn(() => decodeAndResize(name, bytes));
@@ -135,18 +161,25 @@ async function decodeAndResize(name: string, bytes: Uint8Array): Promise<Process
 		);
 	}
 	try {
-		// One decode: read in order (sequentialRead), oriented, and shrunk while decoding when the
-		// display copy is at most half the photo's size (JPEG and WebP shrink-on-load), so a
-		// 40-megapixel photo never lies in memory at full size. sharp drops EXIF, GPS, XMP and ICC
-		// unless asked to keep them; autoOrient applies the tag first. The thumbnail comes from the
-		// small display copy, not from the photo again.
-		const display = await sharp(input, {
+		// One decode, read in order (sequentialRead) and shrunk while decoding when the display copy
+		// is at most half the photo's size (JPEG and WebP shrink-on-load): a 40-megapixel photo never
+		// lies in memory at full size. The camera's orientation is applied after the resize, to the
+		// small copy, since turning a photo needs all of it at once; the 2048-pixel box is square, so
+		// the size comes out the same either way. sharp drops EXIF, GPS, XMP and ICC unless asked to
+		// keep them. The thumbnail comes from the small display copy, not from the photo again.
+		const small = await sharp(input, {
 			limitInputPixels: PIXEL_LIMIT,
 			failOn: 'truncated',
 			sequentialRead: true
 		})
-			.autoOrient()
 			.resize(DISPLAY_EDGE, DISPLAY_EDGE, { fit: 'inside', withoutEnlargement: true })
+			.raw()
+			.toBuffer({ resolveWithObject: true });
+		const { width, height, channels } = small.info;
+		const display = await orient(
+			sharp(small.data, { raw: { width, height, channels } }),
+			meta.orientation
+		)
 			.webp({ quality: 82 })
 			.toBuffer({ resolveWithObject: true });
 		const thumb = await sharp(display.data, { sequentialRead: true })
