@@ -17,6 +17,7 @@ const benches: { name: string; script: string; needsApp: boolean; args?: string[
 	{ name: 'signin', script: 'scripts/bench/signin.ts', needsApp: false },
 	{ name: 'site', script: 'scripts/bench/site.ts', needsApp: true, args: [baseUrl] },
 	{ name: 'leads', script: 'scripts/bench/leads.ts', needsApp: true },
+	{ name: 'export', script: 'scripts/bench/export.ts', needsApp: true },
 	// Starts its own services and app on ports of its own (see the script's header).
 	{ name: 'load', script: 'scripts/bench/load.ts', needsApp: false },
 	{ name: 'bodies', script: 'scripts/bench/bodies.ts', needsApp: false }

@@ -1,49 +1,124 @@
 // `npm run bench:photos`: the app's photo pipeline (sniff, checks, orient, strip, two sizes)
-// against a bare sharp script doing the same image steps, on the same 12-megapixel photo.
+// against a bare sharp script doing the same image steps, on a 12-megapixel photo and on the
+// largest photo the app accepts (40 megapixels, under the 15 MB limit). Each pipeline runs in a
+// child process of its own (photos-child.ts, bundled to plain JavaScript), so its peak resident
+// memory (the kernel's VmHWM) is its own and not the bench's, which makes the test photos.
+// Goal: the app's peak under 200 MiB for the largest photo; the script exits 1 when it is above.
+// The app side also runs with MALLOC_ARENA_MAX=2, as the README's small-server guide starts it.
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { loadavg, tmpdir } from 'node:os';
+import { join } from 'node:path';
 import sharp from 'sharp';
-import { processPhoto } from '../../src/lib/server/images';
-import { medianMs, writeResult } from './lib';
+import { PHOTO_LIMITS } from '../../src/lib/schema/intake';
+import { build } from 'esbuild';
+import { PIXEL_LIMIT } from '../../src/lib/server/images';
+import { writeResult } from './lib';
 
-// A noisy 4000 × 3000 JPEG (noise keeps the encoder honest), with a sideways orientation tag.
-const raw = Buffer.alloc(4000 * 3000 * 3);
-for (let i = 0; i < raw.length; i++) raw[i] = (i * 2654435761) >>> 24;
-const photo = await sharp(raw, { raw: { width: 4000, height: 3000, channels: 3 } })
-	.jpeg({ quality: 85 })
-	.withMetadata({ orientation: 6 })
-	.toBuffer();
+const GOAL_MIB = 200;
 
-async function bare(input: Buffer) {
-	const oriented = await sharp(input, { limitInputPixels: 40_000_000 }).autoOrient().toBuffer();
-	await sharp(oriented)
-		.resize(2048, 2048, { fit: 'inside', withoutEnlargement: true })
-		.webp({ quality: 82 })
-		.toBuffer();
-	await sharp(oriented)
-		.resize(480, 480, { fit: 'inside', withoutEnlargement: true })
-		.webp({ quality: 74 })
+/** A noisy JPEG (noise keeps the encoder honest) with a sideways orientation tag. */
+async function noisyJpeg(width: number, height: number, quality: number): Promise<Buffer> {
+	const raw = Buffer.alloc(width * height * 3);
+	for (let i = 0; i < raw.length; i++) raw[i] = ((i * 2654435761) >>> 24) & (i % 3 ? 0xff : 0x3f);
+	return sharp(raw, { raw: { width, height, channels: 3 } })
+		.jpeg({ quality })
+		.withMetadata({ orientation: 6 })
 		.toBuffer();
 }
 
-const runs = Number(process.argv[2] ?? 12);
-// Interleaved so that machine noise falls on both sides alike.
-const app: number[] = [];
-const baseline: number[] = [];
-for (let i = 0; i < runs; i++) {
-	app.push(await medianMs(() => processPhoto('yard.jpg', photo), 1, i === 0 ? 1 : 0));
-	baseline.push(await medianMs(() => bare(photo), 1, i === 0 ? 1 : 0));
+interface Side {
+	ms: number;
+	peakMiB: number;
+	idleMiB: number;
 }
-const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
-const appMs = median(app);
-const bareMs = median(baseline);
-const rssMb = process.memoryUsage().rss / 1e6;
-console.log(
-	`photo pipeline: median ${appMs.toFixed(0)} ms; bare sharp: ${bareMs.toFixed(0)} ms; ratio ${(appMs / bareMs).toFixed(2)}; rss ${rssMb.toFixed(0)} MB (${(photo.length / 1e6).toFixed(1)} MB input, ${runs} runs)`
+
+function child(which: 'app' | 'bare', file: string, runs: number): Side {
+	const out = spawnSync(process.execPath, [childFile, which, file, String(runs)], {
+		encoding: 'utf8',
+		stdio: ['ignore', 'pipe', 'inherit']
+	});
+	if (out.status !== 0) throw new Error(`the ${which} child failed (exit ${out.status})`);
+	return JSON.parse(out.stdout.trim().split('\n').at(-1)!);
+}
+
+const runs = Number(process.argv[2] ?? 8);
+const dir = mkdtempSync(join(tmpdir(), 'rillstone-photos-'));
+// Inside the project, so that the child finds sharp in node_modules.
+const childFile = join(
+	import.meta.dirname,
+	'..',
+	'..',
+	'node_modules',
+	'.cache',
+	'bench-photos-child.mjs'
 );
-writeResult('photos', {
-	appMedianMs: appMs,
-	bareSharpMedianMs: bareMs,
-	ratio: appMs / bareMs,
-	rssMb,
-	inputBytes: photo.length,
-	runs
-});
+const load = () =>
+	loadavg()
+		.map((l) => l.toFixed(2))
+		.join(' ');
+try {
+	// The child runs as plain JavaScript, as the app does (tsx alone would add some 60 MiB).
+	await build({
+		entryPoints: [join(import.meta.dirname, 'photos-child.ts')],
+		bundle: true,
+		platform: 'node',
+		format: 'esm',
+		external: ['sharp'],
+		outfile: childFile,
+		logLevel: 'warning'
+	});
+	// The largest photo the app takes: just under 40 megapixels at 3:2, and under the byte limit.
+	const side = Math.floor(Math.sqrt(PIXEL_LIMIT / 6));
+	let largest = await noisyJpeg(3 * side, 2 * side, 60);
+	for (let q = 50; largest.length > PHOTO_LIMITS.maxBytes && q >= 20; q -= 10) {
+		largest = await noisyJpeg(3 * side, 2 * side, q);
+	}
+	const photos = [
+		{ name: '12 MP', file: join(dir, '12mp.jpg'), bytes: await noisyJpeg(4000, 3000, 85) },
+		{
+			name: `${((3 * side * 2 * side) / 1e6).toFixed(1)} MP (largest)`,
+			file: join(dir, 'largest.jpg'),
+			bytes: largest
+		}
+	];
+	const results = [];
+	let missed = false;
+	for (const p of photos) {
+		writeFileSync(p.file, p.bytes);
+		// Interleaved in pairs so that machine noise falls on both sides alike.
+		const app = child('app', p.file, runs);
+		const baseline = child('bare', p.file, runs);
+		// The same app pipeline with the C allocator limited to two arenas, as the README's
+		// small-server guide runs the app (each thread that decodes otherwise keeps its own arena).
+		const guide = child('app', p.file, runs, { MALLOC_ARENA_MAX: '2' });
+		const largestPhoto = p === photos.at(-1);
+		const met = app.peakMiB < GOAL_MIB;
+		if (largestPhoto && !met) missed = true;
+		console.log(
+			`${p.name}, ${(p.bytes.length / 1e6).toFixed(1)} MB: app median ${app.ms.toFixed(0)} ms, ` +
+				`peak RSS ${app.peakMiB.toFixed(1)} MiB (idle ${app.idleMiB.toFixed(1)}), with MALLOC_ARENA_MAX=2 ` +
+				`${guide.peakMiB.toFixed(1)} MiB; bare sharp ${baseline.ms.toFixed(0)} ms, ` +
+				`peak ${baseline.peakMiB.toFixed(1)} MiB; time ratio ${(app.ms / baseline.ms).toFixed(2)}` +
+				(largestPhoto
+					? `   goal: app peak < ${GOAL_MIB} MiB ${met ? 'met' : 'MISSED'} (${guide.peakMiB < GOAL_MIB ? 'met' : 'MISSED'} with MALLOC_ARENA_MAX=2)`
+					: '') +
+				`   (load average ${load()})`
+		);
+		results.push({
+			photo: p.name,
+			inputBytes: p.bytes.length,
+			appMedianMs: app.ms,
+			appPeakMiB: app.peakMiB,
+			appIdleMiB: app.idleMiB,
+			appPeakMiBWithTwoArenas: guide.peakMiB,
+			bareSharpMedianMs: baseline.ms,
+			bareSharpPeakMiB: baseline.peakMiB,
+			ratio: app.ms / baseline.ms
+		});
+	}
+	console.log(`Written to ${writeResult('photos', { runs, goalMiB: GOAL_MIB, results })}`);
+	if (missed) process.exitCode = 1;
+} finally {
+	rmSync(dir, { recursive: true, force: true });
+}

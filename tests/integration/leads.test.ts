@@ -228,14 +228,43 @@ describe('GET /api/leads: search', () => {
 		expect(names(await list('q=brookstone'))).toEqual([]);
 	});
 
-	it('can answer the search from the trigram index', async () => {
-		const q = parseLeadQuery(new URLSearchParams('q=brookstone'));
-		const s = listSql(q.data!, ctxOf(owner));
-		const plan = await client.begin(async (tx) => {
-			await tx`set local enable_seqscan = off`;
-			return tx.unsafe(`explain ${s.text}`, s.params as never[]);
+	it('finds words with accents, apostrophes and hyphens, and by the start of a word', async () => {
+		await makeLead({
+			name: 'Zoë Ångström-Lefèvre',
+			email: 'zoe@test.example',
+			town: 'Saint-Étienne-du-Lac',
+			message: "A rill past the neighbours' old well",
+			services: ['pond']
 		});
-		expect(plan.map((r) => r['QUERY PLAN']).join('\n')).toContain('leads_search_trgm_idx');
+		await makeLead({ name: "Siobhán O'Rourke", email: 'siobhan@test.example' });
+		expect(names(await list('q=zoe'))).toEqual(['Zoë']);
+		expect(names(await list('q=ZOË'))).toEqual(['Zoë']);
+		expect(names(await list('q=angstrom-lefevre'))).toEqual(['Zoë']);
+		expect(names(await list('q=lefèvre'))).toEqual(['Zoë']);
+		expect(names(await list('q=saint-etienne'))).toEqual(['Zoë']);
+		expect(names(await list("q=neighbours' well"))).toEqual(['Zoë']);
+		expect(names(await list("q=o'rourke"))).toEqual(['Siobhán']);
+		expect(names(await list('q=o’rourke siobhan'))).toEqual(['Siobhán']);
+		expect(names(await list("q=o'brien"))).toEqual([]);
+		expect(names(await list('q=brook'))).toEqual(['Ada']);
+		expect(names(await list('q=lefèvre&service=pond'))).toEqual(['Zoë']);
+		expect(names(await list('q=lefèvre&service=patio&service=lighting'))).toEqual([]);
+		expect(names(await list('q=brookstone&service=pond&service=water-feature'))).toEqual(['Ada']);
+	});
+
+	it('answers words from the full-text index and fragments from the trigram index', async () => {
+		const plan = async (search: string) => {
+			const q = parseLeadQuery(new URLSearchParams(search));
+			const s = listSql(q.data!, ctxOf(owner));
+			const rows = await client.begin(async (tx) => {
+				await tx`set local enable_seqscan = off`;
+				return tx.unsafe(`explain ${s.text}`, s.params as never[]);
+			});
+			return rows.map((r) => r['QUERY PLAN']).join('\n');
+		};
+		expect(await plan('q=brookstone')).toContain('leads_search_words_idx');
+		expect(await plan('q=ada.brook@')).toContain('leads_search_trgm_idx');
+		expect(await plan('q=010-2222')).toContain('leads_search_trgm_idx');
 	});
 });
 

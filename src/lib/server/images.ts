@@ -82,6 +82,13 @@ export function checkPhotoBytes(name: string, bytes: Uint8Array): void {
 	}
 }
 
+// libvips keeps a cache of recent operations (up to 50 MB and 100 operations by default) to
+// serve repeated work on the same image; every photo here is new, so the cache only holds
+// memory. One libvips thread per photo: the app already decodes one photo per spare core at a
+// time (below), and each extra thread brings its own buffers.
+sharp.cache(false);
+sharp.concurrency(1);
+
 // Photos decoded at once in this process. libvips already uses every core for one photo; more at
 // once only queue for the same cores and starve every other request (npm run bench:load saw the
 // office API stall past 10 s under 50 simultaneous inquiries). The rest wait their turn.
@@ -102,6 +109,32 @@ async function inTurn<T>(work: () => Promise<T>): Promise<T> {
 	}
 }
 
+/**
+ * Turns an image as the EXIF orientation tag (1–8) says, as sharp's autoOrient does (checked
+ * against it for every tag in tests/integration/intake-images.test.ts). sharp mirrors before it
+ * rotates.
+ */
+function orient(image: sharp.Sharp, orientation: number | undefined): sharp.Sharp {
+	switch (orientation) {
+		case 2:
+			return image.flop();
+		case 3:
+			return image.rotate(180);
+		case 4:
+			return image.flip();
+		case 5:
+			return image.flip().rotate(90);
+		case 6:
+			return image.rotate(90);
+		case 7:
+			return image.flop().rotate(90);
+		case 8:
+			return image.rotate(270);
+		default:
+			return image;
+	}
+}
+
 /** Decodes, orients, strips and resizes one photo. Throws PhotoError with a message naming it. */
 export function processPhoto(name: string, bytes: Uint8Array): Promise<ProcessedPhoto> {
 	return inTurn(() => decodeAndResize(name, bytes));
@@ -111,7 +144,6 @@ async function decodeAndResize(name: string, bytes: Uint8Array): Promise<Process
 	checkPhotoBytes(name, bytes);
 	const shown = `“${cleanFileName(name)}”`;
 	const input = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-	const open = () => sharp(input, { limitInputPixels: PIXEL_LIMIT, failOn: 'truncated' });
 	let meta: sharp.Metadata;
 	try {
 		// Only the header is read here, so the pixel limit is checked by hand to name the size.
@@ -129,14 +161,28 @@ async function decodeAndResize(name: string, bytes: Uint8Array): Promise<Process
 		);
 	}
 	try {
-		// sharp drops EXIF, GPS, XMP and ICC unless asked to keep them; autoOrient applies the tag first.
-		const oriented = await open().autoOrient().toBuffer({ resolveWithObject: true });
-		const base = () => sharp(oriented.data, { limitInputPixels: PIXEL_LIMIT });
-		const display = await base()
+		// One decode, read in order (sequentialRead) and shrunk while decoding when the display copy
+		// is at most half the photo's size (JPEG and WebP shrink-on-load): a 40-megapixel photo never
+		// lies in memory at full size. The camera's orientation is applied after the resize, to the
+		// small copy, since turning a photo needs all of it at once; the 2048-pixel box is square, so
+		// the size comes out the same either way. sharp drops EXIF, GPS, XMP and ICC unless asked to
+		// keep them. The thumbnail comes from the small display copy, not from the photo again.
+		const small = await sharp(input, {
+			limitInputPixels: PIXEL_LIMIT,
+			failOn: 'truncated',
+			sequentialRead: true
+		})
 			.resize(DISPLAY_EDGE, DISPLAY_EDGE, { fit: 'inside', withoutEnlargement: true })
+			.raw()
+			.toBuffer({ resolveWithObject: true });
+		const { width, height, channels } = small.info;
+		const display = await orient(
+			sharp(small.data, { raw: { width, height, channels } }),
+			meta.orientation
+		)
 			.webp({ quality: 82 })
 			.toBuffer({ resolveWithObject: true });
-		const thumb = await base()
+		const thumb = await sharp(display.data, { sequentialRead: true })
 			.resize(THUMB_EDGE, THUMB_EDGE, { fit: 'inside', withoutEnlargement: true })
 			.webp({ quality: 74 })
 			.toBuffer();

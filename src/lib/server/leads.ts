@@ -4,15 +4,7 @@
 // who changed it and when, so two people never silently overwrite each other.
 import { and, asc, eq, inArray, isNull, sql } from 'drizzle-orm';
 import { STAGES, type LeadQuery, type Stage } from '$lib/schema/leads';
-import {
-	assembleList,
-	exportSql,
-	leadRow,
-	listSql,
-	type LeadList,
-	type LeadRow,
-	type ListContext
-} from './leads-sql';
+import { assembleList, listSql, type LeadList, type ListContext } from './leads-sql';
 import { formatWhen } from '$lib/components/leads/format';
 import { client, db } from './db';
 import { activities, contacts, leads, photos, properties, users, type Lead } from './db/schema';
@@ -37,13 +29,6 @@ type Param = Parameters<typeof client.unsafe>[1];
 export async function listLeads(q: LeadQuery, ctx: ListContext): Promise<LeadList> {
 	const s = listSql(q, ctx);
 	return assembleList(q, await client.unsafe(s.text, s.params as Param, { prepare: true }));
-}
-
-/** Every row of a filtered view (no paging), in batches, for the CSV export. */
-export async function* allLeadRows(q: LeadQuery, ctx: ListContext): AsyncGenerator<LeadRow[]> {
-	const s = exportSql(q, ctx);
-	const cursor = client.unsafe(s.text, s.params as Param).cursor(500);
-	for await (const batch of cursor) yield batch.map(leadRow);
 }
 
 // --- one lead ----------------------------------------------------------------------------------
