@@ -943,3 +943,6 @@ export const invoices = pgTable(
 export type Payment = typeof payments.$inferSelect;
 export type CheckoutRequestRow = typeof checkoutRequests.$inferSelect;
 export type Invoice = typeof invoices.$inferSelect;
+
+// Seasonal care, service visits and calendar feeds live in their own file.
+export * from './care-schema';
