@@ -24,3 +24,15 @@ export function clientAddress(event: { getClientAddress: () => string }): string
 		return null;
 	}
 }
+
+/** For loads and guards: every refusal becomes an HTTP error page. */
+export async function careHttp<T>(run: () => Promise<T>): Promise<T> {
+	try {
+		return await run();
+	} catch (e) {
+		if (e instanceof CareError) {
+			error(e.code === 'not_found' ? 404 : e.code === 'forbidden' ? 403 : 400, e.message);
+		}
+		throw e;
+	}
+}
