@@ -30,6 +30,7 @@ const dollars = z
 	.string()
 	.trim()
 	.regex(/^(\d{1,6}(\.\d{1,2})?)?$/, 'Dollars and cents, like 150 or 150.00')
+	.optional()
 	.transform((v) => (v ? Math.round(Number(v) * 100) : 0));
 
 export const planSchema = z
