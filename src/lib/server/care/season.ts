@@ -255,23 +255,37 @@ export async function proposeSchedule(
 			.update(serviceVisits)
 			.set({ day: null, crewDayId: null, crewLeadId: null, routeOrder: null })
 			.where(and(eq(serviceVisits.season, key), eq(serviceVisits.status, 'due')));
-		let placed = 0;
+		const rowsToSet: {
+			id: string;
+			day: string;
+			crew_day_id: string;
+			crew_lead_id: string;
+			route_order: number;
+		}[] = [];
 		for (const day of plan.days) {
 			const crewDay = leadOf.get(day.crewDayId)!;
 			const offset = dated.filter((r) => r.v.crewDayId === day.crewDayId).length;
 			for (const [i, stop] of day.stops.entries()) {
-				await tx
-					.update(serviceVisits)
-					.set({
-						day: day.day,
-						crewDayId: day.crewDayId,
-						crewLeadId: crewDay.crewLeadId,
-						routeOrder: offset + i + 1
-					})
-					.where(eq(serviceVisits.id, stop.id));
-				placed++;
+				rowsToSet.push({
+					id: stop.id,
+					day: day.day,
+					crew_day_id: day.crewDayId,
+					crew_lead_id: crewDay.crewLeadId,
+					route_order: offset + i + 1
+				});
 			}
 		}
+		// One statement for the whole season, however many visits it places.
+		if (rowsToSet.length) {
+			await tx.execute(sql`
+				update service_visits as v
+				set day = p.day, crew_day_id = p.crew_day_id, crew_lead_id = p.crew_lead_id,
+					route_order = p.route_order, updated_at = now()
+				from jsonb_to_recordset(${JSON.stringify(rowsToSet)}::jsonb)
+					as p(id text, day date, crew_day_id text, crew_lead_id text, route_order int)
+				where v.id = p.id`);
+		}
+		const placed = rowsToSet.length;
 		return { placed, unplaced: plan.unplaced.length, unlocated: open.length - stops.length };
 	});
 }
