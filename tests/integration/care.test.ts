@@ -205,7 +205,7 @@ describe('a done visit', () => {
 			.toBuffer();
 		await storeCarePhoto(
 			{ serviceVisitId: v.id },
-			new File([jpeg], 'pump.jpg', { type: 'image/jpeg' }),
+			new File([new Uint8Array(jpeg)], 'pump.jpg', { type: 'image/jpeg' }),
 			crew.id
 		);
 		await expect(completeServiceVisit(crew, v.id)).rejects.toThrow(

@@ -18,7 +18,8 @@ export const OFFICE_NAV: readonly NavItem[] = [
 	{ href: '/office/price-list', label: 'Price list', roles: ['owner', 'sales'] },
 	{ href: '/office/availability', label: 'Availability', roles: ['owner', 'sales'] },
 	{ href: '/office/team', label: 'Team', roles: ['owner'] },
-	{ href: '/office/settings', label: 'Settings', roles: ['owner'] }
+	{ href: '/office/settings', label: 'Settings', roles: ['owner'] },
+	{ href: '/office/account/calendar', label: 'Calendar feed', roles: ['owner', 'sales', 'crew'] }
 ];
 
 export function navFor(role: Role): NavItem[] {
