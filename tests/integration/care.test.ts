@@ -5,7 +5,9 @@ import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import { and, asc, eq, like, sql } from 'drizzle-orm';
 import sharp from 'sharp';
 import { db } from '$lib/server/db';
-import { outbox, priceListItems, serviceVisits } from '$lib/server/db/schema';
+import { jobs, outbox, priceListItems, serviceVisits } from '$lib/server/db/schema';
+import { sendCareReminder } from '$lib/server/care';
+import { convertAcceptedEstimate } from '$lib/server/jobsite';
 import { planSchema } from '$lib/schema/care';
 import { addFeature, setPin } from '$lib/server/care/features';
 import { saveSeasonSettings, savePlan } from '$lib/server/care/plans';
@@ -28,7 +30,7 @@ import { SEASON_DEFAULTS } from '$lib/care/seasons';
 import type { SessionUser } from '$lib/server/auth';
 import { stopQueue } from '$lib/server/queue';
 import { resetDatabase } from '../support/database';
-import { makeLead, makeUser, seedFirm } from './fixtures';
+import { makeEstimate, makeLead, makeUser, seedFirm } from './fixtures';
 
 let crew: SessionUser;
 
@@ -268,5 +270,65 @@ describe('a cancelled plan', () => {
 				and(like(outbox.dedupeKey, 'care-%'), sql`${outbox.dedupeKey} not like 'care-welcome:%'`)
 			);
 		expect(careMail).toEqual([]);
+	});
+});
+
+describe('the seasonal reminder of a finished job', () => {
+	async function jobAtHome() {
+		const { estimateId, email } = await makeEstimate({ accepted: true });
+		const { jobId } = await convertAcceptedEstimate(estimateId);
+		const [job] = await db.select().from(jobs).where(eq(jobs.id, jobId));
+		const base = { pump: '', lights: 0, notes: '', builtBy: 'us' as const };
+		await addFeature(job.propertyId!, { ...base, kind: 'fountain', size: 'medium' }, null);
+		await setPin(job.propertyId!, 40.05, -105);
+		return { jobId, email, propertyId: job.propertyId! };
+	}
+	const reminderOf = async (jobId: string, season: string) =>
+		(
+			await db
+				.select()
+				.from(outbox)
+				.where(eq(outbox.dedupeKey, `care:${jobId}:${season}`))
+		)[0];
+
+	it('offers a plan, with the private link, to a homeowner without one', async () => {
+		await plan(['startup', 'shutdown']);
+		const { jobId } = await jobAtHome();
+		expect(await sendCareReminder(jobId, 'shutdown-2027', { chain: false })).toBe('sent');
+		const mail = await reminderOf(jobId, 'shutdown-2027');
+		expect(mail.text).toMatch(/a care plan covers the spring start-up and the autumn shut-down/);
+		expect(mail.text).toMatch(/\/care\/[A-Za-z0-9_-]{20,}/);
+		expect(mail.text).not.toMatch(/reply to this e-mail or call us to book/);
+	});
+
+	it('becomes the visit notice for a plan holder, and says nothing once the day was mailed', async () => {
+		const planId = await plan(['startup', 'shutdown']);
+		const { jobId, propertyId } = await jobAtHome();
+		await signUp(propertyId, {
+			planId,
+			billing: 'visit',
+			typedName: 'Ines Harrow',
+			ipAddress: null
+		});
+
+		expect(await sendCareReminder(jobId, 'startup-2028', { chain: false })).toBe('sent');
+		expect((await reminderOf(jobId, 'startup-2028')).text).toMatch(
+			/Your care plan includes this visit: we come between Saturday, April 15, 2028 and/
+		);
+
+		await generateSeason('autumn-2027');
+		await addCrewDays({
+			from: '2027-09-06',
+			to: '2027-09-06',
+			crewLeadId: crew.id,
+			startMinute: 480,
+			endMinute: 1020,
+			weekdaysOnly: false
+		});
+		await proposeSchedule('autumn-2027');
+		expect(await sendDates('autumn-2027')).toBe(1);
+		expect(await sendCareReminder(jobId, 'shutdown-2027', { chain: false })).toBe('covered');
+		expect(await sendCareReminder(jobId, 'shutdown-2027', { chain: false })).toBe('already-sent');
+		expect(await reminderOf(jobId, 'shutdown-2027')).toBeUndefined();
 	});
 });

@@ -275,9 +275,7 @@ export const outbox = pgTable(
 		text: text('text').notNull(),
 		html: text('html').notNull(),
 		attachments: jsonb('attachments')
-			.$type<
-				{ filename: string; content: string; contentType: string; encoding?: 'base64' }[]
-			>()
+			.$type<{ filename: string; content: string; contentType: string; encoding?: 'base64' }[]>()
 			.notNull()
 			.default([]),
 		leadId: text('lead_id').references(() => leads.id, { onDelete: 'set null' }),

@@ -19,7 +19,7 @@ import {
 } from '$lib/server/care/season';
 import { crewLeads } from '$lib/server/jobsite';
 import { firmSettings } from '$lib/server/settings';
-import type { Actions, PageServerLoad, RequestEvent } from './$types';
+import type { Actions, PageServerLoad } from './$types';
 
 /** The season in the address, else the next autumn (the one that matters most before frost). */
 async function seasonOf(url: URL): Promise<string> {
@@ -51,10 +51,8 @@ const seasonField = z.object({
 	season: z.string().refine((s) => parseSeasonKey(s) !== null, 'Pick a season')
 });
 
-async function keyFrom(event: RequestEvent, data: FormData) {
-	const parsed = seasonField.safeParse({
-		season: data.get('season') ?? (await seasonOf(event.url))
-	});
+function keyFrom(data: FormData) {
+	const parsed = seasonField.safeParse({ season: data.get('season') });
 	return parsed.success ? parsed.data.season : null;
 }
 
@@ -85,7 +83,7 @@ export const actions: Actions = {
 	},
 	generate: async (event) => {
 		requireRole(event, 'owner');
-		const key = await keyFrom(event, await event.request.formData());
+		const key = keyFrom(await event.request.formData());
 		if (!key) return fail(400, { form: 'generate', message: 'Pick a season' });
 		const r = await generateSeason(key);
 		return { form: 'generate', message: `${r.created} new visits; ${r.total} in the season.` };
@@ -121,7 +119,7 @@ export const actions: Actions = {
 	},
 	propose: async (event) => {
 		requireRole(event, 'owner');
-		const key = await keyFrom(event, await event.request.formData());
+		const key = keyFrom(await event.request.formData());
 		if (!key) return fail(400, { form: 'propose', message: 'Pick a season' });
 		const r = await careAction(() => proposeSchedule(key), 'propose');
 		if (!('placed' in r)) return r;
@@ -143,7 +141,7 @@ export const actions: Actions = {
 	},
 	mail: async (event) => {
 		requireRole(event, 'owner');
-		const key = await keyFrom(event, await event.request.formData());
+		const key = keyFrom(await event.request.formData());
 		if (!key) return fail(400, { form: 'mail', message: 'Pick a season' });
 		const sent = await sendDates(key);
 		return {
