@@ -5,9 +5,15 @@ import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import { and, asc, eq, like, sql } from 'drizzle-orm';
 import sharp from 'sharp';
 import { db } from '$lib/server/db';
-import { jobs, outbox, priceListItems, serviceVisits } from '$lib/server/db/schema';
+import {
+	jobs,
+	outbox,
+	priceListItems,
+	propertyFeatures,
+	serviceVisits
+} from '$lib/server/db/schema';
 import { sendCareReminder } from '$lib/server/care';
-import { convertAcceptedEstimate } from '$lib/server/jobsite';
+import { convertAcceptedEstimate, setStage } from '$lib/server/jobsite';
 import { planSchema } from '$lib/schema/care';
 import { addFeature, setPin } from '$lib/server/care/features';
 import { saveSeasonSettings, savePlan } from '$lib/server/care/plans';
@@ -330,5 +336,39 @@ describe('the seasonal reminder of a finished job', () => {
 		expect(await sendCareReminder(jobId, 'shutdown-2027', { chain: false })).toBe('covered');
 		expect(await sendCareReminder(jobId, 'shutdown-2027', { chain: false })).toBe('already-sent');
 		expect(await reminderOf(jobId, 'shutdown-2027')).toBeUndefined();
+	});
+});
+
+describe('features on record', () => {
+	it('come from a job when it is completed, once, beside those added by hand', async () => {
+		const owner = await makeUser('owner');
+		const { estimateId } = await makeEstimate({ accepted: true });
+		const { jobId } = await convertAcceptedEstimate(estimateId);
+		const [job] = await db.select().from(jobs).where(eq(jobs.id, jobId));
+		await addFeature(
+			job.propertyId!,
+			{
+				kind: 'pond',
+				size: 'large',
+				pump: '',
+				lights: 0,
+				notes: 'Dug by the last owner',
+				builtBy: 'others'
+			},
+			null
+		);
+		await setStage(owner, jobId, 'underway');
+		await setStage(owner, jobId, 'complete');
+		const rows = await db
+			.select()
+			.from(propertyFeatures)
+			.where(eq(propertyFeatures.propertyId, job.propertyId!));
+		// The demo design: three outlets over a basin (a medium fountain) and three fixtures (small lighting).
+		expect(rows.map((f) => [f.kind, f.size, f.builtBy, f.lights]).sort()).toEqual([
+			['fountain', 'medium', 'us', 0],
+			['lighting', 'small', 'us', 3],
+			['pond', 'large', 'others', 0]
+		]);
+		expect(rows.find((f) => f.kind === 'fountain')!.jobId).toBe(jobId);
 	});
 });

@@ -94,11 +94,13 @@ export function featuresFromDesign(design: Record<string, unknown>, pumpName: st
 	}
 	const lighting = design.lighting as
 		{ fixtures?: unknown[]; runs?: { fixtures?: unknown[] }[] } | undefined;
-	const fixtures =
-		(Array.isArray(lighting?.fixtures) ? lighting.fixtures.length : 0) +
-		(Array.isArray(lighting?.runs)
-			? lighting.runs.reduce((n, r) => n + (Array.isArray(r.fixtures) ? r.fixtures.length : 0), 0)
-			: 0);
+	// The fixtures list is the design's own; runs only point at them.
+	const fixtures = Array.isArray(lighting?.fixtures)
+		? lighting.fixtures.length
+		: (lighting?.runs ?? []).reduce(
+				(n, r) => n + (Array.isArray(r.fixtures) ? r.fixtures.length : 0),
+				0
+			);
 	if (lighting && fixtures > 0) {
 		out.push({
 			kind: 'lighting',
