@@ -161,7 +161,7 @@ test('the owner plans the autumn and moves a visit; the crew lead completes it o
 	await expect(first.getByTestId('visit-row').filter({ hasText: far.street })).toHaveCount(0);
 	await owner.getByRole('button', { name: /Mail the dates to homeowners/ }).click();
 	await expect(owner.getByText(/mailed the date/)).toBeVisible();
-	const dated = await waitForMail(near.email, /Autumn shut-down: /);
+	const dated = await waitForMail(near.email, /^Your autumn shut-down: /);
 	expect(linkIn(dated, /^\/care\/visit\//)).toBeTruthy();
 	await owner.close();
 
