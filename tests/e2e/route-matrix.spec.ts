@@ -103,8 +103,18 @@ const ACTIONS: Record<string, Expect> = {
 	// Care: empty forms are refused before anything is written; unknown records answer 404.
 	'/office/care/plans/[id]': { anonymous: 303, owner: 404, sales: 403, crew: 403 },
 	'/office/care/properties/[id]?/addFeature': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
-	'/office/care/properties/[id]?/removeFeature': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
-	'/office/care/properties/[id]?/featurePhoto': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/care/properties/[id]?/removeFeature': {
+		anonymous: 303,
+		owner: 404,
+		sales: 404,
+		crew: 403
+	},
+	'/office/care/properties/[id]?/featurePhoto': {
+		anonymous: 303,
+		owner: 404,
+		sales: 404,
+		crew: 403
+	},
 	'/office/care/properties/[id]?/pin': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	'/office/care/properties/[id]?/postal': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	'/office/care/properties/[id]?/offer': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
@@ -165,8 +175,9 @@ const guardedPatterns = [
 		routeFiles(resolve('src/routes'))
 			.filter(
 				(r) =>
-					/^\/(office|api|estimate|visit|change-order|pay|invoice|care|calendar)(\/|$)/.test(r.pattern) &&
-					r.kind !== 'layout-server'
+					/^\/(office|api|estimate|visit|change-order|pay|invoice|care|calendar)(\/|$)/.test(
+						r.pattern
+					) && r.kind !== 'layout-server'
 			)
 			.map((r) => r.pattern)
 	)

@@ -70,12 +70,13 @@ async function homeowner(planId: string, at: { lat: number; lng: number }, light
 	const lead = await makeLead();
 	const base = { pump: '', lights: 0, notes: '', builtBy: 'others' as const };
 	await addFeature(lead.propertyId!, { ...base, kind: 'fountain', size: 'medium' }, null);
-	if (lights)
+	if (lights) {
 		await addFeature(
 			lead.propertyId!,
 			{ ...base, kind: 'lighting', size: 'small', lights: 4 },
 			null
 		);
+	}
 	await setPin(lead.propertyId!, at.lat, at.lng);
 	const s = await signUp(lead.propertyId!, {
 		planId,

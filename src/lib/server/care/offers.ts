@@ -25,8 +25,9 @@ export async function writePlanOffer(
 	intro?: string
 ): Promise<string | null> {
 	const record = await propertyRecord(propertyId, tx);
-	if (!record.contact.email)
+	if (!record.contact.email) {
 		throw new CareError('invalid', 'The homeowner has no e-mail address on file.');
+	}
 	const features = await featuresOf(propertyId, tx);
 	const firm = await firmOn(tx);
 	const token = await newCareLink(propertyId, null, tx);

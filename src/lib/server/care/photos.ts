@@ -33,12 +33,13 @@ export async function storeCarePhoto(
 			originalName: photo.originalName,
 			uploadedBy
 		});
-		if ('featureId' in to)
+		if ('featureId' in to) {
 			await tx.insert(featurePhotos).values({ featureId: to.featureId, photoId: id });
-		else
+		} else {
 			await tx
 				.insert(serviceVisitPhotos)
 				.values({ serviceVisitId: to.serviceVisitId, photoId: id });
+		}
 	});
 	return id;
 }

@@ -76,8 +76,9 @@ export const actions: Actions = {
 		requireRole(event, 'owner');
 		const values = Object.fromEntries(await event.request.formData());
 		const parsed = seasonSettingsSchema.safeParse(values);
-		if (!parsed.success)
+		if (!parsed.success) {
 			return fail(400, { form: 'settings', errors: fieldErrors(parsed.error), values });
+		}
 		await saveSeasonSettings(parsed.data);
 		return { form: 'settings', message: 'Saved.' };
 	},
@@ -92,8 +93,9 @@ export const actions: Actions = {
 		requireRole(event, 'owner');
 		const values = Object.fromEntries(await event.request.formData());
 		const parsed = crewDaysSchema.safeParse(values);
-		if (!parsed.success)
+		if (!parsed.success) {
 			return fail(400, { form: 'crewDays', errors: fieldErrors(parsed.error), values });
+		}
 		const d = parsed.data;
 		const added = await careAction(
 			() =>
@@ -133,8 +135,9 @@ export const actions: Actions = {
 		const parsed = z
 			.object({ visitId: z.string().min(1), crewDayId: z.string().min(1, 'Pick a day') })
 			.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success)
+		if (!parsed.success) {
 			return fail(400, { form: 'move', message: 'Pick a day to move the visit to' });
+		}
 		const r = await careAction(() => moveVisit(parsed.data.visitId, parsed.data.crewDayId), 'move');
 		if (r) return r;
 		return { form: 'move', message: 'Moved.' };

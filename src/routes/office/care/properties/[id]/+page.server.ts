@@ -69,8 +69,9 @@ export const actions: Actions = {
 		await record(event.params.id);
 		const values = Object.fromEntries(await event.request.formData());
 		const parsed = featureSchema.safeParse(values);
-		if (!parsed.success)
+		if (!parsed.success) {
 			return fail(400, { form: 'feature', errors: fieldErrors(parsed.error), values });
+		}
 		await addFeature(event.params.id, parsed.data, user.id);
 		return { form: 'feature', saved: true };
 	},
@@ -88,16 +89,19 @@ export const actions: Actions = {
 		const data = await event.request.formData();
 		const featureId = String(data.get('featureId') ?? '');
 		const features = await featuresOf((await record(event.params.id)).property.id);
-		if (!features.some((f) => f.id === featureId))
+		if (!features.some((f) => f.id === featureId)) {
 			return fail(400, { form: 'photo', message: 'Pick a feature' });
+		}
 		const file = data.get('photo');
-		if (!(file instanceof File) || file.size === 0)
+		if (!(file instanceof File) || file.size === 0) {
 			return fail(400, { form: 'photo', featureId, message: 'Choose a photo first' });
+		}
 		try {
 			await storeCarePhoto({ featureId }, file, user.id);
 		} catch (e) {
-			if (e instanceof PhotoError)
+			if (e instanceof PhotoError) {
 				return fail(400, { form: 'photo', featureId, message: e.message });
+			}
 			if (e instanceof StorageUnavailableError) {
 				return fail(503, {
 					form: 'photo',
@@ -114,8 +118,9 @@ export const actions: Actions = {
 		await record(event.params.id);
 		const values = Object.fromEntries(await event.request.formData());
 		const parsed = pinSchema.safeParse(values);
-		if (!parsed.success)
+		if (!parsed.success) {
 			return fail(400, { form: 'pin', errors: fieldErrors(parsed.error), values });
+		}
 		await setPin(event.params.id, parsed.data.lat, parsed.data.lng);
 		return { form: 'pin', saved: true };
 	},

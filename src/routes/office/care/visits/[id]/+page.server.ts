@@ -51,8 +51,9 @@ export const actions: Actions = {
 		const parsed = z
 			.object({ notes: z.string().max(4000, 'At most 4000 characters') })
 			.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success)
+		if (!parsed.success) {
 			return fail(400, { form: 'notes', message: parsed.error.issues[0].message });
+		}
 		const r = await careAction(
 			() => saveServiceNotes(user, event.params.id, parsed.data.notes),
 			'notes'
