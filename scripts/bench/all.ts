@@ -15,6 +15,7 @@ const benches: { name: string; script: string; needsApp: boolean; args?: string[
 	{ name: 'estimate', script: 'scripts/bench/estimate.ts', needsApp: false },
 	{ name: 'photos', script: 'scripts/bench/photos.ts', needsApp: false },
 	{ name: 'signin', script: 'scripts/bench/signin.ts', needsApp: false },
+	{ name: 'care', script: 'scripts/bench/care.ts', needsApp: false },
 	{ name: 'site', script: 'scripts/bench/site.ts', needsApp: true, args: [baseUrl] },
 	{ name: 'leads', script: 'scripts/bench/leads.ts', needsApp: true },
 	{ name: 'export', script: 'scripts/bench/export.ts', needsApp: true },

@@ -9,6 +9,7 @@ import { seedLeads } from './leads';
 import { seedPriceList } from './pricelist';
 import { seedJobs } from './jobs';
 import { seedVisits } from './visits';
+import { seedCare } from './care';
 
 export async function databaseIsEmpty(url: string): Promise<boolean> {
 	const { db, close } = scriptDb(url);
@@ -41,6 +42,7 @@ export async function seedDemo(url: string): Promise<void> {
 				.onConflictDoNothing();
 		}
 		await seedPriceList(db);
+		await seedCare(db);
 	} finally {
 		await close();
 	}

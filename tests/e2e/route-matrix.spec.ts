@@ -53,6 +53,19 @@ const PAGES: Record<string, Expect> = {
 	'/pay/[token]/receipt': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/invoice/[token]/[number]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/api/uploads': PUBLIC_API,
+	// Care: owner and sales; plans and seasons are the owner's; crew open their own service visits
+	// (an unknown visit is 404 for every role allowed). Homeowner and calendar links 404 on a bad token.
+	'/office/care': LEADS,
+	'/office/care/plans/[id]': { anonymous: 303, owner: 404, sales: 403, crew: 403 },
+	'/office/care/properties/[id]': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/care/season': OWNER_ONLY,
+	'/office/care/visits/[id]': { anonymous: 303, owner: 404, sales: 404, crew: 404 },
+	'/office/account/calendar': STAFF,
+	'/calendar/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
+	'/care/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
+	'/care/[token]/paid': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
+	'/care/visit/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
+	'/care/visit/[token]/paid': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	// Leads (issue 5): owner and sales only; an unknown lead id is a 404.
 	'/office/leads': LEADS,
 	'/office/leads/export.csv': LEADS,
@@ -87,6 +100,43 @@ const ACTIONS: Record<string, Expect> = {
 	'/change-order/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/testimonial/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/care/unsubscribe/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
+	// Care: empty forms are refused before anything is written; unknown records answer 404.
+	'/office/care/plans/[id]': { anonymous: 303, owner: 404, sales: 403, crew: 403 },
+	'/office/care/properties/[id]?/addFeature': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/care/properties/[id]?/removeFeature': {
+		anonymous: 303,
+		owner: 404,
+		sales: 404,
+		crew: 403
+	},
+	'/office/care/properties/[id]?/featurePhoto': {
+		anonymous: 303,
+		owner: 404,
+		sales: 404,
+		crew: 403
+	},
+	'/office/care/properties/[id]?/pin': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/care/properties/[id]?/postal': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/care/properties/[id]?/offer': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/care/season?/settings': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
+	'/office/care/season?/generate': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
+	'/office/care/season?/crewDays': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
+	'/office/care/season?/removeDay': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
+	'/office/care/season?/propose': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
+	'/office/care/season?/move': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
+	'/office/care/season?/mail': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
+	'/office/care/visits/[id]?/tick': { anonymous: 303, owner: 404, sales: 404, crew: 404 },
+	'/office/care/visits/[id]?/notes': { anonymous: 303, owner: 404, sales: 404, crew: 404 },
+	'/office/care/visits/[id]?/part': { anonymous: 303, owner: 404, sales: 404, crew: 404 },
+	'/office/care/visits/[id]?/removePart': { anonymous: 303, owner: 404, sales: 404, crew: 404 },
+	'/office/care/visits/[id]?/photo': { anonymous: 303, owner: 404, sales: 404, crew: 404 },
+	'/office/care/visits/[id]?/done': { anonymous: 303, owner: 404, sales: 404, crew: 404 },
+	'/office/account/calendar?/reset': { anonymous: 303, owner: 200, sales: 200, crew: 200 },
+	'/care/[token]?/signUp': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
+	'/care/[token]?/pay': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
+	'/care/[token]?/cancel': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
+	'/care/visit/[token]?/another': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
+	'/care/visit/[token]?/pay': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/office/team?/invite': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
 	'/office/team?/role': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
 	'/office/team?/disable': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
@@ -126,8 +176,9 @@ const guardedPatterns = [
 		routeFiles(resolve('src/routes'))
 			.filter(
 				(r) =>
-					/^\/(office|api|estimate|visit|change-order|pay|invoice)(\/|$)/.test(r.pattern) &&
-					r.kind !== 'layout-server'
+					/^\/(office|api|estimate|visit|change-order|pay|invoice|care|calendar)(\/|$)/.test(
+						r.pattern
+					) && r.kind !== 'layout-server'
 			)
 			.map((r) => r.pattern)
 	)

@@ -13,11 +13,13 @@ export const OFFICE_NAV: readonly NavItem[] = [
 	{ href: '/office/visits', label: 'Visits', roles: ['owner', 'sales'] },
 	{ href: '/office/estimates', label: 'Estimates', roles: ['owner', 'sales'] },
 	{ href: '/office/jobs', label: 'Jobs', roles: ['owner', 'sales', 'crew'] },
+	{ href: '/office/care', label: 'Care', roles: ['owner', 'sales'] },
 	{ href: '/office/payments', label: 'Payments', roles: ['owner'] },
 	{ href: '/office/price-list', label: 'Price list', roles: ['owner', 'sales'] },
 	{ href: '/office/availability', label: 'Availability', roles: ['owner', 'sales'] },
 	{ href: '/office/team', label: 'Team', roles: ['owner'] },
-	{ href: '/office/settings', label: 'Settings', roles: ['owner'] }
+	{ href: '/office/settings', label: 'Settings', roles: ['owner'] },
+	{ href: '/office/account/calendar', label: 'Calendar feed', roles: ['owner', 'sales', 'crew'] }
 ];
 
 export function navFor(role: Role): NavItem[] {

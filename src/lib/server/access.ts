@@ -18,6 +18,11 @@ export const ROUTE_ROLES: ReadonlyArray<{ prefix: string; roles: readonly Role[]
 	{ prefix: '/office/visits', roles: ['owner', 'sales'] },
 	{ prefix: '/office/availability', roles: ['owner', 'sales'] },
 	{ prefix: '/api/visits', roles: ['owner', 'sales'] },
+	{ prefix: '/office/care/plans', roles: ['owner'] },
+	{ prefix: '/office/care/season', roles: ['owner'] },
+	// Crew open the service visits of their days; each visit checks that it is theirs.
+	{ prefix: '/office/care/visits', roles: ALL_STAFF },
+	{ prefix: '/office/care', roles: ['owner', 'sales'] },
 	{ prefix: '/office/jobs/settings', roles: ['owner'] },
 	{ prefix: '/office/jobs/new', roles: ['owner', 'sales'] },
 	// Crew may open jobs; each job checks that it is theirs (jobFor in $lib/server/jobsite).

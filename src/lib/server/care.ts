@@ -18,6 +18,7 @@ import { origin } from './env';
 import { firmSettings } from './settings';
 import { careReminderMail } from './job-mail';
 import type { Tx } from './jobsite';
+import { reminderCare } from './care/offers';
 
 type Db = Tx | typeof db;
 export type CareKind = 'shutdown' | 'startup';
@@ -79,7 +80,14 @@ export async function scheduleCareAfterCompletion(job: Job): Promise<() => Promi
 }
 
 export type CareOutcome =
-	'sent' | 'already-sent' | 'opted-out' | 'disabled' | 'no-email' | 'missing';
+	| 'sent'
+	| 'already-sent'
+	| 'opted-out'
+	| 'disabled'
+	| 'no-email'
+	| 'missing'
+	// The homeowner's care plan has already mailed them this season's visit day.
+	| 'covered';
 
 /**
  * Sends one season's reminder for one job. Running it twice sends once: the (job, season) row
@@ -106,7 +114,19 @@ export async function sendCareReminder(
 		if (existing) return { outcome: 'already-sent' as const, outboxId: existing.outboxId };
 		const [contact] = await tx.select().from(contacts).where(eq(contacts.id, job.contactId));
 		if (!contact?.email) return { outcome: 'no-email' as const };
+		const care = job.propertyId
+			? await reminderCare(tx, job.propertyId, kind, Number(season.slice(-4)))
+			: null;
+		if (care?.covered) {
+			const kept = await tx
+				.insert(careReminders)
+				.values({ id: newId(), jobId, season, outboxId: null, tokenHash: sha256(token) })
+				.onConflictDoNothing()
+				.returning({ id: careReminders.id });
+			return { outcome: kept.length ? ('covered' as const) : ('already-sent' as const) };
+		}
 		const mail = careReminderMail({
+			care: care ?? undefined,
 			firm,
 			name: contact.name,
 			kind,
@@ -128,7 +148,10 @@ export async function sendCareReminder(
 	// Dispatching again for an already-recorded reminder is harmless (the outbox sends once) and
 	// rescues a run that stopped between its commit and its dispatch.
 	if ('outboxId' in outcome && outcome.outboxId) await dispatchMail(outcome.outboxId);
-	if (options.chain !== false && (outcome.outcome === 'sent' || outcome.outcome === 'disabled')) {
+	if (
+		options.chain !== false &&
+		(outcome.outcome === 'sent' || outcome.outcome === 'disabled' || outcome.outcome === 'covered')
+	) {
 		await queueNext(jobId, new Date());
 	}
 	return outcome.outcome;

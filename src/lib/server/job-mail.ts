@@ -113,6 +113,8 @@ export function careReminderMail(input: {
 	kind: 'shutdown' | 'startup';
 	jobTitle: string;
 	unsubscribeUrl: string;
+	/** Care plans: the visit notice or the plan offer, in place of "reply to book". */
+	care?: { paragraph: string; action: { label: string; url: string } };
 }): Built {
 	const paragraphs =
 		input.kind === 'shutdown'
@@ -126,13 +128,14 @@ export function careReminderMail(input: {
 					`Spring is here. Once nights stay above freezing, your water feature ("${input.jobTitle}") is ready for its start-up: clear leaves from the basin, set the pump back, top up the water, plug the pump into its ground-fault (GFCI) outlet and check every outlet runs evenly.`,
 					'Any outlet wiring or a tripping GFCI is work for a licensed electrician. We are glad to do the start-up for you: reply or call to book it.'
 				];
+	if (input.care) paragraphs[paragraphs.length - 1] = input.care.paragraph;
 	return build(
 		input.kind === 'shutdown'
 			? `Time for the autumn shut-down of your water feature`
 			: `Time for the spring start-up of your water feature`,
 		paragraphs,
 		input.firm,
-		undefined,
+		input.care?.action,
 		`No more seasonal reminders: ${input.unsubscribeUrl}`
 	);
 }

@@ -23,6 +23,7 @@ import {
 } from './db/schema';
 import { newId } from './crypto';
 import type { SessionUser } from './auth';
+import { recordFeaturesOfJob } from './care/features';
 
 export type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
 type Db = Tx | typeof db;
@@ -760,6 +761,8 @@ export async function setStage(user: SessionUser, jobId: string, to: JobStage): 
 			const { requestTestimonial } = await import('./testimonials');
 			const { scheduleCareAfterCompletion } = await import('./care');
 			after.push(await requestTestimonial(job, tx));
+			// The finished work goes on record for the property, for care plans and service visits.
+			await recordFeaturesOfJob(tx, job);
 			if (job.isWaterFeature) after.push(await scheduleCareAfterCompletion(job));
 		}
 		await tx.update(jobs).set(set).where(eq(jobs.id, jobId));

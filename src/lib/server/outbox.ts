@@ -13,7 +13,8 @@ type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
 export interface OutgoingMail extends Omit<Message, 'attachments'> {
 	dedupeKey: string;
 	leadId?: string;
-	attachments?: { filename: string; content: string; contentType: string }[];
+	/** Text as is; binary files (photos) as base64 with `encoding: 'base64'`. */
+	attachments?: { filename: string; content: string; contentType: string; encoding?: 'base64' }[];
 }
 
 /** Writes the message; returns its id, or null when a message with that key already exists. */
@@ -87,7 +88,8 @@ export async function deliverOutboxMessage(
 				attachments: row.attachments.map((a) => ({
 					filename: a.filename,
 					content: a.content,
-					contentType: a.contentType
+					contentType: a.contentType,
+					...(a.encoding ? { encoding: a.encoding } : {})
 				}))
 			});
 		} catch (error) {

@@ -1,6 +1,7 @@
 import { requireRole } from '$lib/server/access';
 import type { SessionUser } from '$lib/server/auth';
 import { installDays } from '$lib/server/jobsite';
+import { crewServiceDays } from '$lib/server/care/service';
 import { addDays } from '$lib/scheduling/zone';
 import { todaySummary } from '$lib/server/leads';
 import { firmSettings } from '$lib/server/settings';
@@ -16,7 +17,8 @@ async function crewInstallDays(user: SessionUser, timeZone: string) {
 	const days = rows
 		.filter((row) => row.stage !== 'complete' && row.stage !== 'paid')
 		.map(({ day, ...job }) => ({ day, job: { ...job, id: job.jobId } }));
-	return { today, days, daysAhead: CREW_DAYS_AHEAD };
+	const service = await crewServiceDays(user, today, addDays(today, CREW_DAYS_AHEAD - 1));
+	return { today, days, service, daysAhead: CREW_DAYS_AHEAD };
 }
 
 export const load: PageServerLoad = async (event) => {

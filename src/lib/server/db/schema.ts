@@ -307,7 +307,7 @@ export const outbox = pgTable(
 		text: text('text').notNull(),
 		html: text('html').notNull(),
 		attachments: jsonb('attachments')
-			.$type<{ filename: string; content: string; contentType: string }[]>()
+			.$type<{ filename: string; content: string; contentType: string; encoding?: 'base64' }[]>()
 			.notNull()
 			.default([]),
 		leadId: text('lead_id').references(() => leads.id, { onDelete: 'set null' }),
@@ -975,3 +975,6 @@ export const invoices = pgTable(
 export type Payment = typeof payments.$inferSelect;
 export type CheckoutRequestRow = typeof checkoutRequests.$inferSelect;
 export type Invoice = typeof invoices.$inferSelect;
+
+// Seasonal care, service visits and calendar feeds live in their own file.
+export * from './care-schema';

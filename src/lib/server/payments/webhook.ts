@@ -9,6 +9,7 @@ import { paymentEvents } from '../db/schema';
 import { verifyWebhook } from './provider';
 import { expireInTx, fulfilInTx } from './checkout';
 import { dispatchAll } from './ledger';
+import { fulfilCareInTx } from '../care/subscriptions';
 
 export interface WebhookAnswer {
 	status: number;
@@ -40,13 +41,17 @@ export async function handleWebhook(
 			.onConflictDoNothing()
 			.returning({ id: paymentEvents.eventId });
 		if (!first.length) return { outcome: 'duplicate_event', mails: [] as string[] };
-		let result: { outcome: string; mails: string[] } = { outcome: 'ignored', mails: [] };
+		let result: { outcome: string; mails: string[]; after?: (() => Promise<void>)[] } = {
+			outcome: 'ignored',
+			mails: []
+		};
 		if (
 			session &&
 			(event.type === 'checkout.session.completed' ||
 				event.type === 'checkout.session.async_payment_succeeded')
 		) {
-			result = await fulfilInTx(tx, session, event.id);
+			// A care plan's or a service visit's checkout is care's own; the rest are job payments.
+			result = (await fulfilCareInTx(tx, session)) ?? (await fulfilInTx(tx, session, event.id));
 		} else if (session && event.type === 'checkout.session.expired') {
 			result = { outcome: (await expireInTx(tx, session.id)) ? 'expired' : 'ignored', mails: [] };
 		}
@@ -57,5 +62,6 @@ export async function handleWebhook(
 		return result;
 	});
 	await dispatchAll(done.mails);
+	for (const run of 'after' in done ? (done.after ?? []) : []) await run();
 	return { status: 200, body: { received: true, outcome: done.outcome } };
 }

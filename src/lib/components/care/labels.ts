@@ -1,0 +1,21 @@
+import { FEATURE_LABELS, VISIT_LABELS, type FeatureKind, type VisitKind } from '$lib/care/kinds';
+
+export const featureLabel = (kind: string) => FEATURE_LABELS[kind as FeatureKind] ?? kind;
+export const visitLabel = (kind: string) => VISIT_LABELS[kind as VisitKind] ?? kind;
+
+export const VISIT_STATUS: Record<string, string> = {
+	due: 'Due',
+	dated: 'Dated',
+	done: 'Done',
+	cancelled: 'Cancelled'
+};
+
+export function dayLabel(day: string): string {
+	return new Intl.DateTimeFormat('en-US', {
+		weekday: 'short',
+		month: 'short',
+		day: 'numeric',
+		year: 'numeric',
+		timeZone: 'UTC'
+	}).format(new Date(`${day}T12:00:00Z`));
+}

@@ -1,0 +1,82 @@
+// Form schemas of seasonal care, shared by the office forms and their actions.
+import { z } from 'zod';
+import { FEATURE_KINDS, FEATURE_SIZES, VISIT_KINDS } from '$lib/care/kinds';
+import { isMonthDay } from '$lib/care/seasons';
+
+const text = (max: number) => z.string().trim().max(max, `At most ${max} characters`);
+
+export const featureSchema = z.object({
+	kind: z.enum(FEATURE_KINDS, { message: 'Pick a kind of feature' }),
+	size: z.enum(FEATURE_SIZES, { message: 'Pick a size' }),
+	pump: text(120).default(''),
+	lights: z.coerce.number().int('Whole lights only').min(0).max(200).default(0),
+	notes: text(2000).default(''),
+	builtBy: z.enum(['us', 'others']).default('others')
+});
+
+export const pinSchema = z.object({
+	lat: z.coerce
+		.number()
+		.min(-90, 'Latitude is between -90 and 90')
+		.max(90, 'Latitude is between -90 and 90'),
+	lng: z.coerce
+		.number()
+		.min(-180, 'Longitude is between -180 and 180')
+		.max(180, 'Longitude is between -180 and 180')
+});
+
+/** Dollars as typed ("150", "150.00") to cents; empty means "not covered". */
+const dollars = z
+	.string()
+	.trim()
+	.regex(/^(\d{1,6}(\.\d{1,2})?)?$/, 'Dollars and cents, like 150 or 150.00')
+	.optional()
+	.transform((v) => (v ? Math.round(Number(v) * 100) : 0));
+
+export const planSchema = z
+	.object({
+		name: text(80).min(1, 'Give the plan a name'),
+		summary: text(500).default(''),
+		terms: text(4000).min(1, 'Write the terms the homeowner accepts'),
+		payYearly: z.boolean(),
+		payPerVisit: z.boolean(),
+		active: z.boolean(),
+		visits: z
+			.array(
+				z.object({
+					kind: z.enum(VISIT_KINDS),
+					minutes: z.coerce
+						.number()
+						.int()
+						.min(15, 'At least 15 minutes')
+						.max(480, 'At most 8 hours'),
+					checklist: z.array(text(200).min(1)).max(30)
+				})
+			)
+			.min(1, 'Include at least one visit'),
+		prices: z.record(z.enum(FEATURE_KINDS), z.record(z.enum(FEATURE_SIZES), dollars))
+	})
+	.refine((p) => p.payYearly || p.payPerVisit, {
+		message: 'Offer at least one way to pay',
+		path: ['payYearly']
+	});
+export type PlanInput = z.output<typeof planSchema>;
+
+export const seasonSettingsSchema = z.object({
+	firstFrost: z.string().refine(isMonthDay, 'Month and day as MM-DD, like 10-15'),
+	shutdownDays: z.coerce.number().int().min(7, 'At least a week').max(120),
+	springStart: z.string().refine(isMonthDay, 'Month and day as MM-DD, like 04-15'),
+	springDays: z.coerce.number().int().min(7, 'At least a week').max(120),
+	summerStart: z.string().refine(isMonthDay, 'Month and day as MM-DD, like 06-15'),
+	summerDays: z.coerce.number().int().min(7, 'At least a week').max(120),
+	depotLat: z.coerce.number().min(-90).max(90),
+	depotLng: z.coerce.number().min(-180).max(180),
+	speedKmh: z.coerce.number().int().min(10, 'At least 10 km/h').max(120)
+});
+
+export const signUpSchema = z.object({
+	planId: z.string().min(1, 'Pick a plan'),
+	billing: z.enum(['year', 'visit'], { message: 'Choose how to pay' }),
+	typedName: text(120).min(2, 'Type your full name to accept'),
+	accept: z.literal('on', { message: 'Tick the box to accept the terms' })
+});

@@ -1,0 +1,46 @@
+// The e-mails of seasonal care: the plan offer, the sign-up confirmation, the renewal reminder,
+// the visit date, a request for another date (to the office), the visit report. Plain text
+// first, the same words in HTML (no remote images).
+import { htmlBody } from '../mail';
+import type { Settings } from '../db/schema';
+import { formatCents } from '../payments/ledger';
+
+export interface Built {
+	subject: string;
+	text: string;
+	html: string;
+}
+
+export function build(
+	firm: Settings,
+	subject: string,
+	paragraphs: string[],
+	action?: { label: string; url: string },
+	footer = ''
+): Built {
+	const signOff = `${firm.firmName} · ${firm.phone} · ${firm.email}`;
+	const text = [
+		...paragraphs,
+		...(action ? [`${action.label}: ${action.url}`] : []),
+		'',
+		signOff,
+		...(footer ? [footer] : [])
+	].join('\n\n');
+	return {
+		subject,
+		text,
+		html: htmlBody(paragraphs, action, [signOff, footer].filter(Boolean).join(' · '))
+	};
+}
+
+export const money = (cents: number) => formatCents(cents);
+
+export function dayText(day: string, timeZone = 'UTC'): string {
+	return new Intl.DateTimeFormat('en-US', {
+		weekday: 'long',
+		month: 'long',
+		day: 'numeric',
+		year: 'numeric',
+		timeZone
+	}).format(new Date(`${day}T12:00:00Z`));
+}

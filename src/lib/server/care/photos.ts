@@ -1,0 +1,101 @@
+// Photos of care: of a feature on record, or taken on a service visit. The intake pipeline
+// checks and re-encodes them (type from the bytes, pixel limit, orientation, no metadata, two
+// sizes); the photos table holds them (context 'feature' or 'service') and a join row ties
+// each to its feature or visit.
+import { asc, eq, inArray } from 'drizzle-orm';
+import { db } from '../db';
+import { featurePhotos, photos, serviceVisitPhotos } from '../db/schema';
+import { newId } from '../crypto';
+import { processPhoto } from '../images';
+import { getObject, putObject, randomKey, signedUrl } from '../storage';
+
+/** Processes and stores one photo; throws PhotoError or StorageUnavailableError. */
+export async function storeCarePhoto(
+	to: { featureId: string } | { serviceVisitId: string },
+	file: File,
+	uploadedBy: string
+): Promise<string> {
+	const photo = await processPhoto(file.name, new Uint8Array(await file.arrayBuffer()));
+	const displayKey = randomKey('care', 'display.webp');
+	const thumbKey = randomKey('care', 'thumb.webp');
+	await putObject(displayKey, photo.display, photo.contentType);
+	await putObject(thumbKey, photo.thumb, photo.contentType);
+	const id = newId();
+	await db.transaction(async (tx) => {
+		await tx.insert(photos).values({
+			id,
+			context: 'featureId' in to ? 'feature' : 'service',
+			displayKey,
+			thumbKey,
+			width: photo.width,
+			height: photo.height,
+			bytes: photo.bytes,
+			originalName: photo.originalName,
+			uploadedBy
+		});
+		if ('featureId' in to) {
+			await tx.insert(featurePhotos).values({ featureId: to.featureId, photoId: id });
+		} else {
+			await tx
+				.insert(serviceVisitPhotos)
+				.values({ serviceVisitId: to.serviceVisitId, photoId: id });
+		}
+	});
+	return id;
+}
+
+async function withLinks(rows: (typeof photos.$inferSelect)[]) {
+	return Promise.all(
+		rows.map(async (p) => ({
+			id: p.id,
+			originalName: p.originalName,
+			width: p.width,
+			height: p.height,
+			thumbUrl: await signedUrl(p.thumbKey),
+			displayUrl: await signedUrl(p.displayKey)
+		}))
+	);
+}
+
+/** Photos of these features, by feature id, with five-minute signed links. */
+export async function featurePhotoLinks(featureIds: string[]) {
+	if (!featureIds.length) return {};
+	const rows = await db
+		.select({ featureId: featurePhotos.featureId, photo: photos })
+		.from(featurePhotos)
+		.innerJoin(photos, eq(photos.id, featurePhotos.photoId))
+		.where(inArray(featurePhotos.featureId, featureIds))
+		.orderBy(asc(photos.createdAt));
+	const out: Record<string, Awaited<ReturnType<typeof withLinks>>> = {};
+	for (const id of featureIds) {
+		out[id] = await withLinks(rows.filter((r) => r.featureId === id).map((r) => r.photo));
+	}
+	return out;
+}
+
+async function visitPhotoRows(serviceVisitId: string) {
+	const rows = await db
+		.select({ photo: photos })
+		.from(serviceVisitPhotos)
+		.innerJoin(photos, eq(photos.id, serviceVisitPhotos.photoId))
+		.where(eq(serviceVisitPhotos.serviceVisitId, serviceVisitId))
+		.orderBy(asc(photos.createdAt));
+	return rows.map((r) => r.photo);
+}
+
+export async function serviceVisitPhotoLinks(serviceVisitId: string) {
+	return withLinks(await visitPhotoRows(serviceVisitId));
+}
+
+/** The visit's photos as small attachments for the report mail (the 480 px thumbnails). */
+export async function serviceVisitPhotoAttachments(serviceVisitId: string) {
+	const rows = await visitPhotoRows(serviceVisitId);
+	return Promise.all(
+		rows.map(async (p, i) => ({
+			filename: `photo-${i + 1}.webp`,
+			content: (await getObject(p.thumbKey)).toString('base64'),
+			contentType: 'image/webp',
+			encoding: 'base64' as const
+		}))
+	);
+}

@@ -1,0 +1,83 @@
+import { error, fail, redirect } from '@sveltejs/kit';
+import { fieldErrors } from '$lib/schema/auth';
+import { signUpSchema } from '$lib/schema/care';
+import { careLink } from '$lib/server/care/links';
+import { careAction, clientAddress } from '$lib/server/care/http';
+import {
+	cancelPlan,
+	homeownerCare,
+	signUp,
+	startPlanCheckout
+} from '$lib/server/care/subscriptions';
+import { CareError } from '$lib/server/care/db';
+import type { Actions, PageServerLoad } from './$types';
+
+const NOT_FOUND = 'This link does not open a care plan. Ask us for a new one.';
+
+async function propertyOf(token: string): Promise<string> {
+	const link = await careLink(token);
+	if (!link || link.serviceVisitId) error(404, NOT_FOUND);
+	return link.propertyId;
+}
+
+export const load: PageServerLoad = async ({ params, url, setHeaders }) => {
+	setHeaders({ 'cache-control': 'no-store', 'referrer-policy': 'no-referrer' });
+	const propertyId = await propertyOf(params.token);
+	return {
+		care: await homeownerCare(propertyId),
+		cancelled: url.searchParams.get('cancelled') === '1'
+	};
+};
+
+async function checkout(propertyId: string, token: string) {
+	let url: string;
+	try {
+		url = await startPlanCheckout(propertyId, token);
+	} catch (e) {
+		if (e instanceof CareError) return fail(409, { form: 'pay', message: e.message });
+		console.error('[care] checkout', e);
+		return fail(503, {
+			form: 'pay',
+			message:
+				'The payment service did not answer. Nothing was charged; please try again in a minute.'
+		});
+	}
+	redirect(303, url);
+}
+
+export const actions: Actions = {
+	signUp: async (event) => {
+		const propertyId = await propertyOf(event.params.token);
+		const values = Object.fromEntries(await event.request.formData());
+		const parsed = signUpSchema.safeParse(values);
+		if (!parsed.success) {
+			return fail(400, { form: 'signUp', errors: fieldErrors(parsed.error), values });
+		}
+		const done = await careAction(
+			() =>
+				signUp(propertyId, {
+					planId: parsed.data.planId,
+					billing: parsed.data.billing,
+					typedName: parsed.data.typedName,
+					ipAddress: clientAddress(event)
+				}),
+			'signUp'
+		);
+		if (!('billing' in done)) return done;
+		if (done.billing === 'year') return checkout(propertyId, event.params.token);
+		return { signedUp: true };
+	},
+	pay: async (event) => {
+		const propertyId = await propertyOf(event.params.token);
+		return checkout(propertyId, event.params.token);
+	},
+	cancel: async (event) => {
+		const propertyId = await propertyOf(event.params.token);
+		const data = await event.request.formData();
+		if (data.get('confirm') !== 'on') {
+			return fail(400, { form: 'cancel', message: 'Tick the box to confirm you want to cancel.' });
+		}
+		await cancelPlan(propertyId);
+		return { cancelledPlan: true };
+	}
+};

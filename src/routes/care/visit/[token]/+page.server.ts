@@ -1,0 +1,66 @@
+import { error, fail, redirect } from '@sveltejs/kit';
+import { z } from 'zod';
+import { CareError } from '$lib/server/care/db';
+import { careAction } from '$lib/server/care/http';
+import { serviceVisitPhotoLinks } from '$lib/server/care/photos';
+import {
+	homeownerVisit,
+	requestAnotherDay,
+	startVisitCheckout,
+	visitForLink
+} from '$lib/server/care/service';
+import type { Actions, PageServerLoad } from './$types';
+
+const NOT_FOUND = 'This link does not open a visit. Ask us for a new one.';
+
+async function visitOf(token: string) {
+	const v = await visitForLink(token);
+	if (!v) error(404, NOT_FOUND);
+	return v;
+}
+
+export const load: PageServerLoad = async ({ params, url, setHeaders }) => {
+	setHeaders({ 'cache-control': 'no-store', 'referrer-policy': 'no-referrer' });
+	const v = await visitOf(params.token);
+	return {
+		view: await homeownerVisit(v),
+		photos: v.status === 'done' ? await serviceVisitPhotoLinks(v.id) : [],
+		cancelled: url.searchParams.get('cancelled') === '1'
+	};
+};
+
+export const actions: Actions = {
+	another: async ({ params, request }) => {
+		const v = await visitOf(params.token);
+		const parsed = z
+			.object({
+				message: z
+					.string()
+					.trim()
+					.min(3, 'Tell us which days suit you')
+					.max(1000, 'At most 1000 characters')
+			})
+			.safeParse(Object.fromEntries(await request.formData()));
+		if (!parsed.success) {
+			return fail(400, { form: 'another', message: parsed.error.issues[0].message });
+		}
+		const r = await careAction(() => requestAnotherDay(v, parsed.data.message), 'another');
+		return r ?? { form: 'another', sent: true };
+	},
+	pay: async ({ params }) => {
+		const v = await visitOf(params.token);
+		let url: string;
+		try {
+			url = await startVisitCheckout(v, params.token);
+		} catch (e) {
+			if (e instanceof CareError) return fail(409, { form: 'pay', message: e.message });
+			console.error('[care] visit checkout', e);
+			return fail(503, {
+				form: 'pay',
+				message:
+					'The payment service did not answer. Nothing was charged; please try again in a minute.'
+			});
+		}
+		redirect(303, url);
+	}
+};

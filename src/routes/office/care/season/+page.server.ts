@@ -1,0 +1,155 @@
+import { fail } from '@sveltejs/kit';
+import { z } from 'zod';
+import { fieldErrors } from '$lib/schema/auth';
+import { seasonSettingsSchema } from '$lib/schema/care';
+import { parseSeasonKey, SEASON_DEFAULTS } from '$lib/care/seasons';
+import { isDate, parseClock } from '$lib/scheduling/zone';
+import { requireRole } from '$lib/server/access';
+import { dayIn } from '$lib/server/care/db';
+import { careAction } from '$lib/server/care/http';
+import { saveSeasonSettings, seasonSettings } from '$lib/server/care/plans';
+import {
+	addCrewDays,
+	generateSeason,
+	moveVisit,
+	proposeSchedule,
+	removeCrewDay,
+	seasonBoard,
+	sendDates
+} from '$lib/server/care/season';
+import { crewLeads } from '$lib/server/jobsite';
+import { firmSettings } from '$lib/server/settings';
+import type { Actions, PageServerLoad } from './$types';
+
+/** The season in the address, else the next autumn (the one that matters most before frost). */
+async function seasonOf(url: URL): Promise<string> {
+	const asked = url.searchParams.get('season') ?? '';
+	if (parseSeasonKey(asked)) return asked;
+	const firm = await firmSettings();
+	const today = dayIn(firm.timeZone);
+	const settings = await seasonSettings();
+	const year = Number(today.slice(0, 4));
+	return today.slice(5) < settings.firstFrost ? `autumn-${year}` : `autumn-${year + 1}`;
+}
+
+export const load: PageServerLoad = async (event) => {
+	requireRole(event, 'owner');
+	const key = await seasonOf(event.url);
+	const year = Number(key.slice(-4));
+	const [board, settings, leads] = await Promise.all([
+		seasonBoard(key),
+		seasonSettings(),
+		crewLeads()
+	]);
+	const seasons = [year - 1, year, year + 1].flatMap((y) =>
+		(['spring', 'summer', 'autumn'] as const).map((s) => `${s}-${y}`)
+	);
+	return { key, board, settings, leads, seasons, defaults: SEASON_DEFAULTS };
+};
+
+const seasonField = z.object({
+	season: z.string().refine((s) => parseSeasonKey(s) !== null, 'Pick a season')
+});
+
+function keyFrom(data: FormData) {
+	const parsed = seasonField.safeParse({ season: data.get('season') });
+	return parsed.success ? parsed.data.season : null;
+}
+
+const crewDaysSchema = z
+	.object({
+		from: z.string().refine(isDate, 'A date'),
+		to: z.string().refine(isDate, 'A date'),
+		crewLeadId: z.string().min(1, 'Pick a crew lead'),
+		start: z.string().refine((v) => parseClock(v) !== null, 'A time like 08:00'),
+		end: z.string().refine((v) => parseClock(v) !== null, 'A time like 16:00'),
+		weekdaysOnly: z.string().optional()
+	})
+	.refine((v) => v.to >= v.from, { message: 'The last day comes after the first', path: ['to'] })
+	.refine((v) => (parseClock(v.end) ?? 0) > (parseClock(v.start) ?? 0), {
+		message: 'The day ends after it starts',
+		path: ['end']
+	});
+
+export const actions: Actions = {
+	settings: async (event) => {
+		requireRole(event, 'owner');
+		const values = Object.fromEntries(await event.request.formData());
+		const parsed = seasonSettingsSchema.safeParse(values);
+		if (!parsed.success) {
+			return fail(400, { form: 'settings', errors: fieldErrors(parsed.error), values });
+		}
+		await saveSeasonSettings(parsed.data);
+		return { form: 'settings', message: 'Saved.' };
+	},
+	generate: async (event) => {
+		requireRole(event, 'owner');
+		const key = keyFrom(await event.request.formData());
+		if (!key) return fail(400, { form: 'generate', message: 'Pick a season' });
+		const r = await generateSeason(key);
+		return { form: 'generate', message: `${r.created} new visits; ${r.total} in the season.` };
+	},
+	crewDays: async (event) => {
+		requireRole(event, 'owner');
+		const values = Object.fromEntries(await event.request.formData());
+		const parsed = crewDaysSchema.safeParse(values);
+		if (!parsed.success) {
+			return fail(400, { form: 'crewDays', errors: fieldErrors(parsed.error), values });
+		}
+		const d = parsed.data;
+		const added = await careAction(
+			() =>
+				addCrewDays({
+					from: d.from,
+					to: d.to,
+					crewLeadId: d.crewLeadId,
+					startMinute: parseClock(d.start)!,
+					endMinute: parseClock(d.end)!,
+					weekdaysOnly: d.weekdaysOnly === 'on'
+				}),
+			'crewDays'
+		);
+		if (typeof added !== 'number') return added;
+		return { form: 'crewDays', message: `${added} crew days added.` };
+	},
+	removeDay: async (event) => {
+		requireRole(event, 'owner');
+		const id = String((await event.request.formData()).get('crewDayId') ?? '');
+		if (!id) return fail(400, { form: 'removeDay', message: 'Pick a crew day' });
+		await removeCrewDay(id);
+		return { form: 'removeDay', message: 'Crew day removed; its visits are undated again.' };
+	},
+	propose: async (event) => {
+		requireRole(event, 'owner');
+		const key = keyFrom(await event.request.formData());
+		if (!key) return fail(400, { form: 'propose', message: 'Pick a season' });
+		const r = await careAction(() => proposeSchedule(key), 'propose');
+		if (!('placed' in r)) return r;
+		return {
+			form: 'propose',
+			message: `${r.placed} visits placed; ${r.unplaced} did not fit the crew days${r.unlocated ? `; ${r.unlocated} have no place on the map yet` : ''}.`
+		};
+	},
+	move: async (event) => {
+		requireRole(event, 'owner');
+		const parsed = z
+			.object({ visitId: z.string().min(1), crewDayId: z.string().min(1, 'Pick a day') })
+			.safeParse(Object.fromEntries(await event.request.formData()));
+		if (!parsed.success) {
+			return fail(400, { form: 'move', message: 'Pick a day to move the visit to' });
+		}
+		const r = await careAction(() => moveVisit(parsed.data.visitId, parsed.data.crewDayId), 'move');
+		if (r) return r;
+		return { form: 'move', message: 'Moved.' };
+	},
+	mail: async (event) => {
+		requireRole(event, 'owner');
+		const key = keyFrom(await event.request.formData());
+		if (!key) return fail(400, { form: 'mail', message: 'Pick a season' });
+		const sent = await sendDates(key);
+		return {
+			form: 'mail',
+			message: `${sent} ${sent === 1 ? 'homeowner was' : 'homeowners were'} mailed the date.`
+		};
+	}
+};
