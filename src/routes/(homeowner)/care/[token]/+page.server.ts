@@ -20,8 +20,7 @@ async function propertyOf(token: string): Promise<string> {
 	return link.propertyId;
 }
 
-export const load: PageServerLoad = async ({ params, url, setHeaders }) => {
-	setHeaders({ 'cache-control': 'no-store', 'referrer-policy': 'no-referrer' });
+export const load: PageServerLoad = async ({ params, url }) => {
 	const propertyId = await propertyOf(params.token);
 	return {
 		care: await homeownerCare(propertyId),

@@ -2,8 +2,7 @@ import { error } from '@sveltejs/kit';
 import { confirmCareReturn, subscriptionForLink } from '$lib/server/care/subscriptions';
 import type { PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async ({ params, url, setHeaders }) => {
-	setHeaders({ 'cache-control': 'no-store', 'referrer-policy': 'no-referrer' });
+export const load: PageServerLoad = async ({ params, url }) => {
 	const sessionId = url.searchParams.get('session') ?? '';
 	if (!/^cs_[A-Za-z0-9_]{1,200}$/.test(sessionId)) error(404, 'There is no such payment.');
 	const found = await subscriptionForLink(params.token);

@@ -19,8 +19,7 @@ async function visitOf(token: string) {
 	return v;
 }
 
-export const load: PageServerLoad = async ({ params, url, setHeaders }) => {
-	setHeaders({ 'cache-control': 'no-store', 'referrer-policy': 'no-referrer' });
+export const load: PageServerLoad = async ({ params, url }) => {
 	const v = await visitOf(params.token);
 	return {
 		view: await homeownerVisit(v),
