@@ -48,7 +48,12 @@ test('sold estimate to scheduled job, crew phone view, change order, completion,
 	await dayInputs.nth(0).fill(firmDay(0));
 	await dayInputs.nth(1).fill(firmDay(1));
 	await schedule.getByLabel('Crew lead').selectOption({ label: 'Rosa Lindqvist' });
+	// The form saves in the background: reload only once its answer is back.
+	const saved = page.waitForResponse(
+		(r) => r.url().includes('?/schedule') && r.request().method() === 'POST'
+	);
 	await schedule.getByRole('button', { name: 'Save schedule' }).click();
+	expect((await saved).ok()).toBe(true);
 	await page.reload();
 	await expect(schedule.getByLabel('Crew lead')).toHaveValue(/.+/);
 	await expect(schedule.getByLabel('Crew lead').locator('option:checked')).toHaveText(

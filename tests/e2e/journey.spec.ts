@@ -248,7 +248,12 @@ test('the journey: inquiry to testimonial request', async ({ browser }) => {
 		const dayInputs = schedule.locator('input[name="day"]');
 		await dayInputs.nth(0).fill(firmDay(0));
 		await schedule.getByLabel('Crew lead').selectOption({ label: 'Rosa Lindqvist' });
+		// The form saves in the background: reload only once its answer is back.
+		const saved = owner.waitForResponse(
+			(r) => r.url().includes('?/schedule') && r.request().method() === 'POST'
+		);
 		await schedule.getByRole('button', { name: 'Save schedule' }).click();
+		expect((await saved).ok()).toBe(true);
 		await owner.reload();
 		await expect(schedule.getByLabel('Crew lead').locator('option:checked')).toHaveText(
 			'Rosa Lindqvist'
