@@ -138,7 +138,12 @@ function quantities(result: PartResults, units: UnitSystem) {
 		if (f.pond) {
 			add(`pond-water-${f.id}`, `${f.name}: water`, 'volume', f.pond.volumeM3);
 			add(`pond-area-${f.id}`, `${f.name}: surface`, 'area', f.pond.areaM2);
-			add(`pond-loss-${f.id}`, `${f.name}: evaporation a day`, 'volume', f.pond.evaporationM3PerDay);
+			add(
+				`pond-loss-${f.id}`,
+				`${f.name}: evaporation a day`,
+				'volume',
+				f.pond.evaporationM3PerDay
+			);
 		}
 		if (f.stream) {
 			add(`stream-length-${f.id}`, `${f.name}: length`, 'length', f.stream.lengthM);
@@ -173,8 +178,8 @@ function cautionFacts(result: PartResults, design: ParsedDesign, openWaterDepthI
 	return {
 		digs: Boolean(
 			design.features.some((f) => f.kind !== 'fountain' || f.basin || f.branches.length) ||
-				design.walls.length ||
-				design.lighting
+			design.walls.length ||
+			design.lighting
 		),
 		hasPump: result.systems.length > 0,
 		hasLighting: Boolean(result.lighting),
@@ -237,10 +242,7 @@ function collectWarnings(parts: Parts, takeoffWarnings: string[], unpricedLabor:
 	const named = (system: WaterSystem, text: string) =>
 		parts.systems.length > 1 ? `${system.name}: ${text}` : text;
 	return [
-		...parts.systems.flatMap((s) => [
-			...s.warnings,
-			...s.pump.warnings.map((w) => named(s, w))
-		]),
+		...parts.systems.flatMap((s) => [...s.warnings, ...s.pump.warnings.map((w) => named(s, w))]),
 		...parts.features.flatMap((f) => [
 			...(f.basin?.warnings ?? []),
 			...(f.pond?.warnings ?? []),

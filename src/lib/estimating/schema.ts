@@ -216,7 +216,9 @@ const pondFeatureSchema = z.object({
 	optionId,
 	outline: pondOutlineSchema,
 	zones: z
-		.array(z.object({ depthIn: positive, percent: z.number().positive('Must be above 0').max(100) }))
+		.array(
+			z.object({ depthIn: positive, percent: z.number().positive('Must be above 0').max(100) })
+		)
 		.min(1, 'At least one depth zone'),
 	use: z.enum(['fish', 'plants']).default('plants'),
 	fishInches: nonNegative.default(0),

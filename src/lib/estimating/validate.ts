@@ -42,7 +42,10 @@ function checkFountain(c: Collector, f: Fountain, at: Path) {
 		}
 		fed.set(b.outletId, (fed.get(b.outletId) ?? 0) + 1);
 		if (!pipeExists(b.pipe.material, b.pipe.size)) {
-			c.add([...at, 'branches', i, 'pipe', 'size'], `${b.pipe.material} has no ${b.pipe.size} in size`);
+			c.add(
+				[...at, 'branches', i, 'pipe', 'size'],
+				`${b.pipe.material} has no ${b.pipe.size} in size`
+			);
 		}
 	});
 	f.outlets.forEach((o, i) => {
@@ -93,7 +96,10 @@ function checkPumps(c: Collector, design: ParsedDesign, catalog: ParsedCatalog) 
 	checkUnique(c, catalog.pumps, ['catalog', 'pumps']);
 	design.features.forEach((f, i) => {
 		if (f.pumpModelId && !catalog.pumps.some((p) => p.id === f.pumpModelId)) {
-			c.add(['design', 'features', i, 'pumpModelId'], `No pump model "${f.pumpModelId}" in the price list`);
+			c.add(
+				['design', 'features', i, 'pumpModelId'],
+				`No pump model "${f.pumpModelId}" in the price list`
+			);
 		}
 	});
 }
