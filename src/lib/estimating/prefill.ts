@@ -7,7 +7,7 @@
  */
 import { SLOPES, SOILS } from '$lib/schema/visits';
 import { demoCatalog, demoDesign } from './demo';
-import { upgradedDesign } from './upgrade';
+import { upgradeDesign, upgradedDesign } from './upgrade';
 import {
 	designSchema,
 	settingsSchema,
@@ -55,7 +55,7 @@ export const GEAR_WIDTH_IN: Partial<Record<HandlingMethod, { gear: string; width
  * about as long again as setting them, so their set hours once more (common practice, no source).
  */
 export function narrowAccessLabor(design: Design, accessIn: number, settings: Settings) {
-	const parsed = designSchema.safeParse(design);
+	const parsed = designSchema.safeParse(upgradeDesign(design));
 	if (!parsed.success) return [];
 	return analyseStones(parsed.data.stones, settings).stones.flatMap((stone) => {
 		const gear = GEAR_WIDTH_IN[stone.handling.method];
