@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { fountainIn } from '$lib/estimating/testing';
 import { demoDesign, designSchema } from '$lib/estimating';
 import { includedBuckets } from '$lib/estimating/pricing';
 import { inclusionFor, planOf } from './plan';
@@ -43,7 +44,7 @@ describe('plan drawing layout', () => {
 
 	it('spreads the outlets along the basin when they outnumber the wetted stones', () => {
 		const design = demo();
-		design.outlets.push({
+		fountainIn(design).outlets.push({
 			id: 'col-4',
 			name: 'Fourth',
 			kind: 'bubbler',
