@@ -263,7 +263,9 @@ function compute(design: ParsedDesign, catalog: ParsedCatalog, units: UnitSystem
 	const work = labor(design, parts, catalog);
 	const pricing = priceSummary(design, takeoff.lines, work.tasks, pickLaborRate(catalog), settings);
 	const unpricedLabor = catalog.laborRates.length === 0 && work.tasks.length > 0;
-	const { stoneInputs: _inputs, ...shown } = parts;
+	// The stone inputs were for the takeoff; the result carries the analysed stones only.
+	const shown: Omit<Parts, 'stoneInputs'> & { stoneInputs?: unknown } = { ...parts };
+	delete shown.stoneInputs;
 	const partial = Object.assign(shown, {
 		units,
 		labor: work,
