@@ -167,14 +167,25 @@ function sheetLines(
 	add(path, bucket, fit.sku, what, measure);
 }
 
-function fountainLines(f: Fountain, i: number, result: FeatureResult, add: AddLine) {
+function fountainLines(
+	f: Fountain,
+	i: number,
+	result: FeatureResult,
+	add: AddLine,
+	several: boolean
+) {
 	const basin = result.basin;
 	if (!f.basin || !basin) return;
 	const bucket = bucketOf(f.optionId);
 	const path = `design.features.${i}.basin`;
-	add(`${path}.sku`, bucket, f.basin.sku, 'Basin', { count: 1, volumeM3: basin.grossVolumeM3 });
+	// A lone fountain's lines read as they always have; with several features they carry its name.
+	const named = (text: string) => (several ? `${f.name}: ${text.toLowerCase()}` : text);
+	add(`${path}.sku`, bucket, f.basin.sku, named('Basin'), {
+		count: 1,
+		volumeM3: basin.grossVolumeM3
+	});
 	if (f.basin.fill.kind === 'gravel') {
-		add(`${path}.fill.sku`, bucket, f.basin.fill.sku, 'Basin fill', {
+		add(`${path}.fill.sku`, bucket, f.basin.fill.sku, named('Basin fill'), {
 			volumeM3: basin.grossVolumeM3
 		});
 	}
@@ -268,7 +279,7 @@ export function featureLines(
 ) {
 	design.features.forEach((f, i) => {
 		const r = results[i];
-		if (f.kind === 'fountain') fountainLines(f, i, r, add);
+		if (f.kind === 'fountain') fountainLines(f, i, r, add, design.features.length > 1);
 		else if (f.kind === 'pond' && r.pond) pondLines(f, i, r.pond, catalog, add, warn);
 		else if (f.kind === 'stream' && r.stream) streamLines(f, i, r.stream, catalog, add, warn);
 	});

@@ -33,6 +33,7 @@ interface PathedLine extends TakeoffLine {
 }
 
 interface Run {
+	feature: string;
 	run: PipeRun;
 	fittings: { kind: FittingKind; count: number }[];
 	label: string;
@@ -49,11 +50,12 @@ function pipeLines(
 		catalog.items.find((i) => i.pipe?.material === material && i.pipe.size === size);
 	const findFitting = (kind: FittingKind, size: NominalSize) =>
 		catalog.items.find((i) => i.fitting?.kind === kind && i.fitting.size === size);
-	for (const { run, fittings, label, bucket } of runs) {
+	for (const { run, fittings, label, bucket, feature } of runs) {
 		const pipe = findPipe(run.material, run.size);
 		if (pipe) {
 			lines.push({
 				bucket,
+				feature,
 				sku: pipe.sku,
 				description: label,
 				measure: { lengthM: run.lengthM },
@@ -67,6 +69,7 @@ function pipeLines(
 			if (item) {
 				lines.push({
 					bucket,
+					feature,
 					sku: item.sku,
 					description: label,
 					measure: { count: f.count },
@@ -83,6 +86,9 @@ function pipeLines(
 function waterRuns(parts: TakeoffParts): Run[] {
 	const { design } = parts;
 	const runs: Run[] = [];
+	// With several features, a fountain's lines carry its name so two fountains never share one.
+	const named = (name: string, text: string) =>
+		design.features.length > 1 ? `${name}: ${text}` : text;
 	for (const system of parts.systems) {
 		const feature = design.features.find((f) => f.id === system.featureId)!;
 		const bucket = bucketOf(feature.optionId);
@@ -94,16 +100,18 @@ function waterRuns(parts: TakeoffParts): Run[] {
 				runs.push({
 					run: b as PipeRun,
 					fittings: [...branch.fittings, ...valve],
-					label: `Branch to ${b.outletName}`,
-					bucket
+					label: named(feature.name, `Branch to ${b.outletName}`),
+					bucket,
+					feature: feature.id
 				});
 			});
 			if (hydraulics.supply && feature.supply) {
 				runs.push({
 					run: hydraulics.supply,
 					fittings: feature.supply.fittings,
-					label: 'Supply to manifold',
-					bucket
+					label: named(feature.name, 'Supply to manifold'),
+					bucket,
+					feature: feature.id
 				});
 			}
 		} else if (system.supply) {
@@ -115,7 +123,8 @@ function waterRuns(parts: TakeoffParts): Run[] {
 				run: system.supply,
 				fittings: input?.fittings ?? [],
 				label: `${system.name}: supply line`,
-				bucket
+				bucket,
+				feature: feature.id
 			});
 		}
 	}
@@ -202,7 +211,10 @@ function lightingLines({ design, lighting }: TakeoffParts, add: Add) {
 function partLines(parts: TakeoffParts, catalog: ParsedCatalog, warn: (t: string) => void) {
 	const lines: PathedLine[] = [];
 	const add: Add = (path, bucket, sku, description, measure) => {
-		if (sku) lines.push({ path, bucket, sku, description, measure });
+		const n = /^design\.features\.(\d+)\./.exec(path)?.[1];
+		const feature = n === undefined ? undefined : parts.design.features[Number(n)]?.id;
+		if (sku)
+			lines.push({ path, bucket, sku, description, measure, ...(feature ? { feature } : {}) });
 	};
 	featureLines(parts.design, parts.features, catalog, add, warn);
 	stoneAndAggregateLines(parts, add);
@@ -222,9 +234,15 @@ export interface TakeoffResult {
 	warnings: string[];
 }
 
-function pumpLine(pump: PumpModel, bucket: string, description: string): PricedLine {
+function pumpLine(
+	pump: PumpModel,
+	bucket: string,
+	description: string,
+	feature: string
+): PricedLine {
 	return {
 		bucket,
+		feature,
 		sku: `pump:${pump.id}`,
 		name: pump.name,
 		description,
@@ -258,7 +276,7 @@ export function buildTakeoff(parts: TakeoffParts, catalog: ParsedCatalog): Takeo
 			});
 			continue;
 		}
-		const key = `${line.bucket}\u0000${line.sku}`;
+		const key = `${line.bucket}\u0000${line.feature ?? ''}\u0000${line.sku}`;
 		const group = grouped.get(key) ?? { line, item, quantity: 0, descriptions: new Set<string>() };
 		group.quantity += quantity;
 		group.descriptions.add(line.description);
@@ -274,7 +292,7 @@ export function buildTakeoff(parts: TakeoffParts, catalog: ParsedCatalog): Takeo
 		if (!pump) return [];
 		const feature = parts.design.features.find((f) => f.id === system.featureId);
 		const description = parts.systems.length === 1 ? 'Pump' : `Pump for ${system.name}`;
-		return [pumpLine(pump, bucketOf(feature?.optionId), description)];
+		return [pumpLine(pump, bucketOf(feature?.optionId), description, system.featureId)];
 	});
 	lines.unshift(...pumps);
 	return { lines, errors, warnings: [...warnings] };
