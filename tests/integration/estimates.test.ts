@@ -199,7 +199,7 @@ describe('saving an estimate', () => {
 			sales
 		);
 		expect(out.kind === 'saved' && out.errors[0].path).toMatch(
-			/design\.outlets\.0\.bubbleHeightIn/
+			/design\.features\.0\.outlets\.0\.bubbleHeightIn/
 		);
 		expect((await getEstimate(row.id))!.result).toBeNull();
 		expect((await sendEstimate(row.id, sales)).kind).toBe('invalid');
