@@ -213,8 +213,9 @@ function partLines(parts: TakeoffParts, catalog: ParsedCatalog, warn: (t: string
 	const add: Add = (path, bucket, sku, description, measure) => {
 		const n = /^design\.features\.(\d+)\./.exec(path)?.[1];
 		const feature = n === undefined ? undefined : parts.design.features[Number(n)]?.id;
-		if (sku)
+		if (sku) {
 			lines.push({ path, bucket, sku, description, measure, ...(feature ? { feature } : {}) });
+		}
 	};
 	featureLines(parts.design, parts.features, catalog, add, warn);
 	stoneAndAggregateLines(parts, add);
