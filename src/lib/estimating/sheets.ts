@@ -2,7 +2,8 @@
  * Liner and underlayment: the rectangle a pond or stream bed needs, bought either by the square
  * foot or as stocked sheets. A sheet item names its size (`sheetLengthFt` × `sheetWidthFt`) and its
  * family; the smallest sheet of the family that covers the rectangle in one piece is taken, and when
- * none does, the sheets are seamed, with a note for the crew. Pure; lengths in feet.
+ * none does, the fewest sheets that cover it seamed (then the least liner bought), with a note for
+ * the crew. Pure; lengths in feet.
  */
 import type { CatalogItem } from './schema';
 
@@ -68,7 +69,7 @@ export function fitSheets(
 	const seamed = family
 		.map((i) => ({ item: i, count: tiling(need, i) }))
 		.filter((t) => Number.isFinite(t.count))
-		.sort((x, y) => x.count * x.item.unitPrice - y.count * y.item.unitPrice);
+		.sort((x, y) => x.count - y.count || x.count * sheetArea(x.item) - y.count * sheetArea(y.item));
 	const best = seamed[0] ?? { item: chosen, count: 1 };
 	const size = `${need.lengthFt.toFixed(1)} × ${need.widthFt.toFixed(1)} ft`;
 	return {
