@@ -82,9 +82,11 @@ test('a pond lead: built from a pond, sent, and accepted on a 390 px phone', asy
 	const home = await phone.newPage();
 	await home.goto(link);
 	await expect(home.getByTestId('homeowner-total')).toHaveText(formatCents(row.total_cents));
+	await home.getByText(/^What is included/).click();
 	await expect(
 		home.getByTestId('included-group').getByRole('heading', { name: 'Pond', exact: true })
 	).toBeVisible();
+	await expect(home.getByTestId('included-group').first()).toContainText('EPDM pond liner');
 	const plan = home.getByTestId('plan-drawing');
 	await expect(
 		plan.getByTestId('plan-feature').filter({ hasText: /^Waves: Pond, oval/ })
@@ -123,7 +125,10 @@ test('a stream with a fountain as an option: the homeowner leaves it out and the
 	await fountain.getByLabel('Part of').selectOption({ label: 'Option: Basalt column fountain' });
 	// One pump for the stream, one for the fountain.
 	await expect(page.getByTestId('water-system')).toHaveCount(2);
-	await expect(page.getByTestId('plan-drawing').getByTestId('plan-feature')).toHaveCount(2);
+	// The plan shows the stream and, dotted, the fountain that is an option not taken.
+	const key = page.getByTestId('plan-drawing').getByTestId('plan-feature');
+	await expect(key).toHaveCount(2);
+	await expect(key.last()).toContainText(/^Dotted outline: Fountain, .*\(an option\)/);
 
 	const { link, row } = await sendAndOpen(page, lead);
 	const [{ design }] = await sql`select design from estimates where id = ${row.id}`;

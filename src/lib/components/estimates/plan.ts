@@ -348,7 +348,7 @@ function featuresBeside(
 
 export function planOf(design: ParsedDesign, include: Inclusion): Plan {
 	const fountain = design.features.find(
-		(f): f is Fountain => f.kind === 'fountain' && include(f.optionId) !== 'out'
+		(f): f is Fountain => f.kind === 'fountain' && include(f.optionId) === 'in'
 	);
 	const basin = basinOf(fountain);
 	const basinBox = basin ? boxOf(basin.points) : undefined;
