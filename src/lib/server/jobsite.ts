@@ -96,6 +96,8 @@ function isWaterFeature(result: Record<string, unknown>): boolean {
 const CATEGORY_ORDER = [
 	'stone',
 	'basin',
+	'liner',
+	'filtration',
 	'pump',
 	'pipe',
 	'fitting',
