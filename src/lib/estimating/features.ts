@@ -7,7 +7,7 @@
 import { basinBudget, type BasinBudget } from './basin';
 import type { HydraulicsResult } from './hydraulics';
 import { BASE_BUCKET, type LaborTask } from './labor';
-import { analysePond, pondPlan, type PondResult } from './pond';
+import { analysePond, pondGallons, pondPlan, turnoverGph, type PondResult } from './pond';
 import type { Measure } from './pricing';
 import type {
 	CatalogItem,
@@ -22,7 +22,7 @@ import type {
 import { fitSheets } from './sheets';
 import type { StonesResult } from './stones';
 import { analyseStream, bankBoulders, streamFlowM3s, type StreamResult } from './stream';
-import { fromSI, toSI, type UnitSystem } from './units';
+import { fromSI, gph, toSI, type UnitSystem } from './units';
 import { fountainSystem, pondSystem, streamSystem, type WaterSystem } from './watersystem';
 
 export const FEATURE_LABELS: Record<Feature['kind'], string> = {
@@ -78,8 +78,11 @@ export function analyseFeatures(
 			if (system) systems.push(system);
 			results.push({ ...base, systemId: system?.featureId });
 		} else if (f.kind === 'pond') {
-			const turnover = analysePond(f, catalog.items, settings);
-			const system = pondSystem(f, turnover.turnoverFlowM3s, feeding(f.id), catalog, units);
+			const hours =
+				f.use === 'fish' ? settings.pond.turnoverHoursFish : settings.pond.turnoverHoursPlants;
+			const gallons = pondGallons(pondPlan(f.outline).areaFt2, f.zones);
+			const turnover = gph(turnoverGph(gallons, hours));
+			const system = pondSystem(f, turnover, feeding(f.id), catalog, units);
 			for (const id of system.feeds) systemOf.set(id, system);
 			systems.push(system);
 			results.push({
