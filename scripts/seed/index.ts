@@ -8,6 +8,7 @@ import { appEnv, serviceConfig } from '../lib/config';
 import { seedLeads } from './leads';
 import { seedPriceList } from './pricelist';
 import { seedJobs } from './jobs';
+import { seedSentEstimates } from './estimates';
 import { seedVisits } from './visits';
 import { seedCare } from './care';
 
@@ -61,6 +62,8 @@ export async function seedDemo(url: string): Promise<void> {
 	const jobsDb = scriptDb(url);
 	try {
 		await seedJobs(jobsDb.db);
+		// A pond lead and a stream lead with estimates sent (the firm's pond and stream work).
+		await seedSentEstimates(jobsDb.db);
 	} finally {
 		await jobsDb.close();
 	}

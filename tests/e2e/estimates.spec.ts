@@ -76,7 +76,9 @@ test('build, send, accept on a phone, sold in the office', async ({ page, browse
 	// The builder, the print document and the stored totals agree to the cent.
 	const [saved] =
 		await sql`select e.id, total_cents, deposit_cents, design from estimates e where lead_id = ${lead.id}`;
-	expect((saved.design as { outlets: unknown[] }).outlets).toHaveLength(outlets + 1);
+	expect((saved.design as { features: { outlets: unknown[] }[] }).features[0].outlets).toHaveLength(
+		outlets + 1
+	);
 	await expect(page.getByTestId('total')).toHaveText(formatCents(saved.total_cents));
 	await expect(page.getByTestId('deposit')).toHaveText(formatCents(saved.deposit_cents));
 	expect(await page.getByTestId('print-total').textContent()).toBe(formatCents(saved.total_cents));

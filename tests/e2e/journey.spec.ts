@@ -179,9 +179,12 @@ test('the journey: inquiry to testimonial request', async ({ browser }) => {
 	await test.step('the estimate is built with a pump match and an option, and sent', async () => {
 		await sales.goto(`${leadUrl}/estimate`);
 		await sales.getByRole('button', { name: 'Start the estimate' }).click();
-		const chart = sales.getByTestId('pump-chart');
+		// The inquiry asked for a pond: the design starts with one, each feature with its own pump.
+		await expect(sales.locator('[data-testid="feature"][data-kind="pond"]')).toHaveCount(1);
+		const fountain = sales.getByTestId('water-system').filter({ hasText: 'Basalt columns' });
+		const chart = fountain.getByTestId('pump-chart');
 		await expect(chart).toBeVisible();
-		await expect(sales.getByTestId('operating-point')).toBeVisible();
+		await expect(fountain.getByTestId('operating-point')).toBeVisible();
 		const before = Number(await chart.getAttribute('data-operating-flow'));
 		expect(before).toBeGreaterThan(0);
 		const outlets = await sales.getByTestId('outlet-row').count();

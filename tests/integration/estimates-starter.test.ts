@@ -3,6 +3,7 @@
 import { eq, sql } from 'drizzle-orm';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { db } from '$lib/server/db';
+import { fountainIn } from '$lib/estimating/testing';
 import { activities, priceListItems } from '$lib/server/db/schema';
 import { createEstimate, getEstimate } from '$lib/server/estimates';
 import { resetDatabase } from '../support/database';
@@ -24,8 +25,11 @@ describe('the first estimate of a lead', () => {
 		const estimate = (await getEstimate(id!))!;
 		expect(estimate.result).not.toBeNull();
 		expect(estimate.totalCents).toBeGreaterThan(0);
-		const design = estimate.design as { basin: { sku: string }; stones: { sku: string }[] };
-		expect(design.basin.sku).toMatch(/^OWN-/);
+		const design = estimate.design as {
+			features: { kind: string; basin?: { sku?: string } }[];
+			stones: { sku: string }[];
+		};
+		expect(fountainIn(design).basin?.sku).toMatch(/^OWN-/);
 		expect(design.stones.every((s) => s.sku.startsWith('OWN-'))).toBe(true);
 		const notes = await db.select().from(activities).where(eq(activities.kind, 'note'));
 		expect(notes).toHaveLength(0);

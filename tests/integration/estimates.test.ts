@@ -1,4 +1,5 @@
 import { eq } from 'drizzle-orm';
+import { fountainIn } from '$lib/estimating/testing';
 import { isHttpError } from '@sveltejs/kit';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { db } from '$lib/server/db';
@@ -131,10 +132,10 @@ describe('starting from the visit notes', () => {
 		const id = (await createEstimate(lead.id, sales))!;
 		const row = (await getEstimate(id))!;
 		const design = row.design as {
-			basin: { size: { lengthFt: number; widthFt: number; depthFt: number } };
+			features: { kind: string; basin: { size: { lengthFt: number } } }[];
 			lighting: { runs: { fixtures: { distanceFt: number }[] }[] };
 		};
-		expect(design.basin.size).toMatchObject({ lengthFt: 7, widthFt: 5, depthFt: 1.5 });
+		expect(fountainIn(design).basin?.size).toMatchObject({ lengthFt: 7, widthFt: 5, depthFt: 1.5 });
 		expect(design.lighting.runs[0].fixtures[0].distanceFt).toBe(40);
 		expect(row.scope).toBe('Gate is 34 in wide\nPower: GFCI by the back door');
 		expect(row.result).not.toBeNull();
@@ -198,7 +199,7 @@ describe('saving an estimate', () => {
 			sales
 		);
 		expect(out.kind === 'saved' && out.errors[0].path).toMatch(
-			/design\.outlets\.0\.bubbleHeightIn/
+			/design\.features\.0\.outlets\.0\.bubbleHeightIn/
 		);
 		expect((await getEstimate(row.id))!.result).toBeNull();
 		expect((await sendEstimate(row.id, sales)).kind).toBe('invalid');
@@ -349,7 +350,9 @@ describe("the homeowner's page", () => {
 		expect(thumb.pathname).toContain('intake/yard-1/thumb.webp');
 		expect(thumb.searchParams.get('X-Amz-Expires')).toBe('600');
 		expect(view.photos[0].fullUrl).toContain('intake/yard-1/display.webp');
-		expect(view.design?.basin?.size).toMatchObject({ shape: 'rectangle' });
+		expect(view.design && fountainIn(view.design).basin?.size).toMatchObject({
+			shape: 'rectangle'
+		});
 		// The homeowner reads the safety notes that concern them, ending with the local-codes one.
 		const cautions = (data.view as { cautions: { id: string }[] }).cautions.map((c) => c.id);
 		expect(cautions).toEqual(expect.arrayContaining(['locate-utilities', 'licensed-electrician']));

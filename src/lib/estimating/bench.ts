@@ -1,8 +1,42 @@
 /**
  * The designs the estimate benchmark (scripts/bench/estimate.ts, `npm run bench:estimate`) times:
- * the three-outlet demo and a twelve-outlet design with lighting and a wall.
+ * the three-outlet demo, a twelve-outlet design with lighting and a wall, and a whole yard: a pond,
+ * a three-fall pondless stream, the three-column fountain, lights and a wall.
  */
-import { demoDesign, type Design } from './index';
+import { demoCatalog, demoDesign, demoFountain } from './demo';
+import type { Design } from './schema';
+import { starterPond, starterStream } from './starter-features';
+
+export function yardDesign(): Design {
+	const base = demoDesign();
+	const items = demoCatalog().items ?? [];
+	const stream = starterStream(items as never);
+	return {
+		...base,
+		name: 'Pond, stream and fountain',
+		features: [
+			{
+				...starterPond(),
+				linerSku: 'LINER-EPDM-10X15',
+				underlaymentSku: 'UNDERLAY-FT2',
+				gravelSku: 'AGG-PEBBLE-RIVER',
+				edgeStoneSku: 'STONE-EDGE-FLAG'
+			},
+			{
+				...stream,
+				linerSku: 'LINER-EPDM-10X15',
+				underlaymentSku: 'UNDERLAY-FT2',
+				gravelSku: 'AGG-STREAM-GRAVEL',
+				boulderSku: 'STONE-BANK-BOULDER',
+				weirBoxSku: 'WEIR-BOX-18',
+				reservoir: { ...stream.reservoir!, sku: 'RESERVOIR-VAULT', fillSku: 'AGG-GRAVEL-WASHED' }
+			},
+			demoFountain()
+		],
+		walls: base.walls!.map((w) => ({ ...w, optionId: undefined })),
+		options: []
+	};
+}
 
 export function twelveOutletDesign(): Design {
 	const base = demoDesign();
@@ -32,13 +66,18 @@ export function twelveOutletDesign(): Design {
 	}));
 	return {
 		...base,
-		outlets,
-		branches,
-		supply: {
-			pipe: { material: 'pvc-sch40', size: '2' },
-			lengthFt: 10,
-			fittings: [{ kind: 'elbow-90', count: 2 }]
-		},
+		features: [
+			{
+				...demoFountain(),
+				outlets,
+				branches,
+				supply: {
+					pipe: { material: 'pvc-sch40', size: '2' },
+					lengthFt: 10,
+					fittings: [{ kind: 'elbow-90', count: 2 }]
+				}
+			}
+		],
 		stones: outlets.map((o, i) => ({
 			id: `st-${i}`,
 			name: `Column stone ${i + 1}`,

@@ -5,6 +5,8 @@ export const CATEGORIES = [
 	'valve',
 	'pump',
 	'basin',
+	'liner',
+	'filtration',
 	'stone',
 	'aggregate',
 	'wall',

@@ -14,6 +14,8 @@ export interface CautionFacts {
 	wallsNeedingPermit: string[];
 	wallsNeedingEngineering: string[];
 	openWaterDepthM: number;
+	/** Where the deepest open water is ("The basin", a pond's name); "The basin" when not given. */
+	openWaterWhere?: string;
 	openWaterLimitM: number;
 }
 
@@ -72,15 +74,17 @@ function wallHeight(permit: string[], engineering: string[]): Caution {
 	};
 }
 
-function openWater(depthM: number, limitM: number): Caution {
+function openWater(depthM: number, limitM: number, where = 'The basin'): Caution {
 	const barrier =
 		depthM > limitM
 			? ' It is deep enough that codes commonly want a barrier around it.'
-			: ' Consider a gravel-filled basin or a grate.';
+			: where === 'The basin'
+				? ' Consider a gravel-filled basin or a grate.'
+				: ' Consider a shallow shelf all round and a safety grid or a fence.';
 	return {
 		id: 'open-water',
 		title: 'Open water and children',
-		reason: `The basin holds about ${(depthM / 0.0254).toFixed(0)} in of open water, and small children can drown in a few inches.${barrier} Supervise children near it.`,
+		reason: `${where} holds about ${(depthM / 0.0254).toFixed(0)} in of open water, and small children can drown in a few inches.${barrier} Supervise children near it.`,
 		reference:
 			'CPSC "Safety Barrier Guidelines for Residential Pools" (publication 362); ISPSC section 305 barriers for water over 24 in deep (from memory); local code.'
 	};
@@ -94,7 +98,9 @@ export function cautionsFor(facts: CautionFacts): Caution[] {
 	if (facts.wallsNeedingPermit.length || facts.wallsNeedingEngineering.length) {
 		list.push(wallHeight(facts.wallsNeedingPermit, facts.wallsNeedingEngineering));
 	}
-	if (facts.openWaterDepthM > 0) list.push(openWater(facts.openWaterDepthM, facts.openWaterLimitM));
+	if (facts.openWaterDepthM > 0) {
+		list.push(openWater(facts.openWaterDepthM, facts.openWaterLimitM, facts.openWaterWhere));
+	}
 	list.push(LOCAL_CODES);
 	return list;
 }

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { fountainIn } from './testing';
 import { demoCatalog, demoDesign } from './demo';
 import { catalogSchema, designSchema } from './schema';
 
@@ -10,8 +11,8 @@ describe('demo data', () => {
 
 	it('has a three-column bubbling feature, a gravel basin, lights, a topping alternate and an optional wall', () => {
 		const d = designSchema.parse(demoDesign());
-		expect(d.outlets.filter((o) => o.kind === 'bubbler')).toHaveLength(3);
-		expect(d.basin?.fill.kind).toBe('gravel');
+		expect(fountainIn(d).outlets.filter((o) => o.kind === 'bubbler')).toHaveLength(3);
+		expect(fountainIn(d).basin?.fill.kind).toBe('gravel');
 		expect(d.lighting!.fixtures.length).toBeGreaterThanOrEqual(2);
 		expect(d.lighting!.fixtures.length).toBeLessThanOrEqual(3);
 		expect(d.alternates[0].choices.map((c) => c.id)).toEqual(['topping-pebble', 'topping-slate']);
@@ -21,8 +22,8 @@ describe('demo data', () => {
 
 	it('returns fresh objects each time, so the builder may edit them', () => {
 		const a = demoDesign();
-		a.outlets!.pop();
-		expect(demoDesign().outlets).toHaveLength(3);
+		fountainIn(a).outlets!.pop();
+		expect(fountainIn(demoDesign()).outlets).toHaveLength(3);
 	});
 
 	it('prices in whole cents, with price at or above cost', () => {

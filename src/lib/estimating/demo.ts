@@ -3,7 +3,7 @@
  * manifold with a valve per column, a gravel-filled basin, three lights, a pebble topping with an
  * alternate, and an optional low wall. Prices and pump curves are made up for the demo.
  */
-import type { Catalog, CatalogItem, Design, ItemUnit } from './schema';
+import type { Catalog, CatalogItem, Design, FeatureInput, ItemUnit } from './schema';
 
 const columnBranch = (id: string, outletId: string, lengthFt: number, staticLiftFt: number) => ({
 	id,
@@ -18,9 +18,12 @@ const columnBranch = (id: string, outletId: string, lengthFt: number, staticLift
 	valve: 'ball-valve' as const
 });
 
-export function demoDesign(): Design {
+/** The demo's three-column fountain: its outlets, manifold, pump choice and basin. */
+export function demoFountain(): Extract<FeatureInput, { kind: 'fountain' }> {
 	return {
-		name: 'Three basalt columns over a gravel basin',
+		id: 'fountain-1',
+		kind: 'fountain',
+		name: 'Basalt columns',
 		outlets: [
 			{ id: 'col-low', name: 'Low column', kind: 'bubbler', bubbleHeightIn: 3, boreIn: 0.824 },
 			{ id: 'col-mid', name: 'Middle column', kind: 'bubbler', bubbleHeightIn: 3, boreIn: 0.824 },
@@ -43,7 +46,14 @@ export function demoDesign(): Design {
 			pumpMinLevelIn: 6,
 			freeboardIn: 2,
 			sku: 'BASIN-LINER-KIT'
-		},
+		}
+	};
+}
+
+export function demoDesign(): Design {
+	return {
+		name: 'Three basalt columns over a gravel basin',
+		features: [demoFountain()],
 		stones: [
 			{
 				id: 'st-low',
@@ -235,7 +245,73 @@ export function demoCatalog(): Catalog {
 				32000
 			),
 			item('CABLE-12-2', 'Direct-burial cable 12/2', 'electrical', 'ft', 55, 120),
-			item('SVC-CORE-DRILL', 'Core drilling through a column', 'other', 'each', 4000, 9000)
+			item('SVC-CORE-DRILL', 'Core drilling through a column', 'other', 'each', 4000, 9000),
+			// Ponds and streams. A liner sheet names its size and family: the engine takes the
+			// smallest sheet of the family that covers the bed, or seams sheets when none does.
+			...(
+				[
+					[10, 15, 16500, 33000],
+					[15, 20, 31000, 62000],
+					[20, 25, 50000, 98000],
+					[25, 30, 74000, 145000]
+				] as const
+			).map(([l, w, cost, price]) =>
+				item(
+					`LINER-EPDM-${l}X${w}`,
+					`EPDM pond liner, 45 mil, ${l} × ${w} ft`,
+					'liner',
+					'each',
+					cost,
+					price,
+					{
+						sheetLengthFt: w,
+						sheetWidthFt: l,
+						sheetFamily: 'epdm-45'
+					}
+				)
+			),
+			item('UNDERLAY-FT2', 'Liner underlayment, by the square foot', 'liner', 'ft2', 18, 45),
+			item('SKIM-2000', 'Pond skimmer, rated 2,000 gph', 'filtration', 'each', 21000, 42000, {
+				ratedFlowGph: 2000
+			}),
+			item('SKIM-5000', 'Pond skimmer, rated 5,000 gph', 'filtration', 'each', 32000, 64000, {
+				ratedFlowGph: 5000
+			}),
+			item(
+				'BIOFILTER-1500',
+				'Biological filter, ponds to 1,500 gal',
+				'filtration',
+				'each',
+				26000,
+				52000,
+				{
+					ratedVolumeGal: 1500
+				}
+			),
+			item(
+				'BIOFILTER-4000',
+				'Biological filter, ponds to 4,000 gal',
+				'filtration',
+				'each',
+				39000,
+				78000,
+				{
+					ratedVolumeGal: 4000
+				}
+			),
+			item('WEIR-BOX-18', 'Waterfall weir box, 18 in', 'filtration', 'each', 17000, 36000),
+			item('PIPE-FLEX-150', '1-1/2 in flexible PVC pipe', 'pipe', 'ft', 140, 290, {
+				pipe: { material: 'flex-pvc', size: '1-1/2' }
+			}),
+			item('PIPE-FLEX-200', '2 in flexible PVC pipe', 'pipe', 'ft', 190, 390, {
+				pipe: { material: 'flex-pvc', size: '2' }
+			}),
+			item('RESERVOIR-VAULT', 'Reservoir liner and pump vault', 'basin', 'each', 24000, 48000),
+			item('AGG-STREAM-GRAVEL', 'Stream gravel, mixed 1–3 in', 'aggregate', 'ton', 5200, 10500, {
+				bulkDensityLbFt3: 100
+			}),
+			item('STONE-BANK-BOULDER', 'Bank boulder, 12–18 in', 'stone', 'each', 4500, 9500),
+			item('STONE-EDGE-FLAG', 'Flagstone pond edging', 'stone', 'ft2', 650, 1400)
 		],
 		pumps: [
 			{

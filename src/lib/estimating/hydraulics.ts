@@ -76,7 +76,7 @@ export interface HydraulicsResult {
 	warnings: string[];
 }
 
-function pipeRun(
+export function pipeRun(
 	spec: { material: PipeMaterial; size: NominalSize },
 	lengthM: number,
 	flowM3s: number,
@@ -113,7 +113,7 @@ export function limitsFrom(settings: Settings): SizeLimits {
 	};
 }
 
-function exceeds(run: Pick<PipeRun, 'velocityMs' | 'lossPer100'>, limits: SizeLimits) {
+export function exceeds(run: Pick<PipeRun, 'velocityMs' | 'lossPer100'>, limits: SizeLimits) {
 	return run.velocityMs > limits.velocityLimitMs || run.lossPer100 > limits.lossPer100Limit;
 }
 

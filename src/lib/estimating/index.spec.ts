@@ -1,4 +1,5 @@
 import fc from 'fast-check';
+import { fountainIn } from './testing';
 import { describe, expect, it } from 'vitest';
 import { demoCatalog, demoDesign, estimate, type Design, type EstimateSuccess } from './index';
 import { sizesFor, PIPE_MATERIALS } from './pipes';
@@ -36,8 +37,8 @@ describe('the demo estimate', () => {
 
 	it('is a three-column feature on a manifold with a ball valve per column', () => {
 		const design = demoDesign();
-		expect(design.outlets).toHaveLength(3);
-		expect(design.branches!.every((b) => b.valve === 'ball-valve')).toBe(true);
+		expect(fountainIn(design).outlets).toHaveLength(3);
+		expect(fountainIn(design).branches!.every((b) => b.valve === 'ball-valve')).toBe(true);
 		expect(result.water!.branches.filter((b) => b.hardest)).toHaveLength(1);
 		expect(result.water!.branches.filter((b) => b.throttleHeadM > 0)).toHaveLength(2);
 	});
@@ -109,7 +110,9 @@ describe('the demo estimate', () => {
 				'elbow feature ft granite gravel in installer kit led light liner low manifold middle multi ' +
 				'over path pebble pipe port pump pvc retaining river road round s schedule segmental slate ' +
 				'stone submersible tall tap the three through topping transformer underlayment unit ' +
-				'uplight va valve voltage wall washed'
+				'uplight va valve voltage wall washed ' +
+				'epdm mil pond ponds skimmer rated gph biological filter to gal waterfall weir box flexible ' +
+				'reservoir vault stream mixed bank flagstone edging by square foot'
 			).split(' ')
 		);
 		const names: string[] = [];
@@ -130,35 +133,35 @@ describe('the demo estimate', () => {
 describe('bad designs give field-level errors, never NaN, Infinity or an exception', () => {
 	it('a negative length', () => {
 		const design = demoDesign();
-		design.branches![0].lengthFt = -5;
+		fountainIn(design).branches![0].lengthFt = -5;
 		expect(errorsOf(design)).toContainEqual({
-			path: 'design.branches.0.lengthFt',
+			path: 'design.features.0.branches.0.lengthFt',
 			message: 'Must be greater than zero'
 		});
 	});
 
 	it('a pipe size that does not exist, or not in that material', () => {
 		const design = demoDesign();
-		(design.branches![0].pipe as { size: string }).size = '5/8';
-		expect(errorsOf(design)[0].path).toBe('design.branches.0.pipe.size');
+		(fountainIn(design).branches![0].pipe as { size: string }).size = '5/8';
+		expect(errorsOf(design)[0].path).toBe('design.features.0.branches.0.pipe.size');
 		const flex = demoDesign();
-		flex.branches![1].pipe = { material: 'flex-pvc', size: '3' };
+		fountainIn(flex).branches![1].pipe = { material: 'flex-pvc', size: '3' };
 		expect(errorsOf(flex)).toContainEqual({
-			path: 'design.branches.1.pipe.size',
+			path: 'design.features.0.branches.1.pipe.size',
 			message: 'flex-pvc has no 3 in size'
 		});
 	});
 
 	it('an outlet with no branch, and a branch to no outlet', () => {
 		const design = demoDesign();
-		design.branches = design.branches!.slice(1);
+		fountainIn(design).branches = fountainIn(design).branches!.slice(1);
 		expect(errorsOf(design)).toContainEqual({
-			path: 'design.outlets.0',
+			path: 'design.features.0.outlets.0',
 			message: 'This outlet has no branch to feed it'
 		});
 		const stray = demoDesign();
-		stray.branches![0].outletId = 'nowhere';
-		expect(errorsOf(stray).map((e) => e.path)).toContain('design.branches.0.outletId');
+		fountainIn(stray).branches![0].outletId = 'nowhere';
+		expect(errorsOf(stray).map((e) => e.path)).toContain('design.features.0.branches.0.outletId');
 	});
 
 	it('a pump curve that is not monotone', () => {
@@ -172,15 +175,15 @@ describe('bad designs give field-level errors, never NaN, Infinity or an excepti
 
 	it('NaN, Infinity, strings and missing objects are refused field by field', () => {
 		const design = demoDesign() as Record<string, unknown>;
-		(design.branches as { lengthFt: number }[])[0].lengthFt = NaN;
-		(design.branches as { staticLiftFt: number }[])[1].staticLiftFt = Infinity;
-		(design.outlets as { bubbleHeightIn: unknown }[])[0].bubbleHeightIn = '3';
+		(fountainIn(design).branches as { lengthFt: number }[])[0].lengthFt = NaN;
+		(fountainIn(design).branches as { staticLiftFt: number }[])[1].staticLiftFt = Infinity;
+		(fountainIn(design).outlets as { bubbleHeightIn: unknown }[])[0].bubbleHeightIn = '3';
 		const paths = errorsOf(design).map((e) => e.path);
 		expect(paths).toEqual(
 			expect.arrayContaining([
-				'design.branches.0.lengthFt',
-				'design.branches.1.staticLiftFt',
-				'design.outlets.0.bubbleHeightIn'
+				'design.features.0.branches.0.lengthFt',
+				'design.features.0.branches.1.staticLiftFt',
+				'design.features.0.outlets.0.bubbleHeightIn'
 			])
 		);
 		const nothing = estimate(null, undefined);
@@ -189,9 +192,9 @@ describe('bad designs give field-level errors, never NaN, Infinity or an excepti
 
 	it('absurdly large numbers are refused before they can overflow', () => {
 		const design = demoDesign();
-		design.branches![0].lengthFt = 1e300;
+		fountainIn(design).branches![0].lengthFt = 1e300;
 		expect(errorsOf(design)).toContainEqual({
-			path: 'design.branches.0.lengthFt',
+			path: 'design.features.0.branches.0.lengthFt',
 			message: 'Must be at most 1,000,000'
 		});
 	});

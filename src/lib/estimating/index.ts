@@ -5,13 +5,20 @@
  */
 import type { z } from 'zod';
 import { aggregateResult, type AggregateResult } from './aggregate';
-import { basinBudget, type BasinBudget } from './basin';
+import type { BasinBudget } from './basin';
 import { cautionsFor, type Caution } from './cautions';
-import { analyseHydraulics, type HydraulicsResult } from './hydraulics';
+import {
+	analyseFeatures,
+	featureTasks,
+	fountainBasins,
+	openWater,
+	type FeatureResult
+} from './features';
+import type { HydraulicsResult } from './hydraulics';
 import { laborSummary, laborTasks, type LaborSummary, type LaborTask } from './labor';
 import { analyseLighting, type LightingResult } from './lighting';
 import { includedBuckets, pickLaborRate, priceSummary, type PriceSummary } from './pricing';
-import { matchPump, type PumpMatch } from './pumps';
+import type { PumpMatch } from './pumps';
 import {
 	catalogSchema,
 	designSchema,
@@ -23,8 +30,10 @@ import {
 import { analyseStones, type StonesResult } from './stones';
 import { buildTakeoff } from './takeoff';
 import { formatQuantity, type DisplayKind, type UnitSystem } from './units';
+import { upgradeDesign } from './upgrade';
 import { crossCheck, type FieldError } from './validate';
 import { wallTakeoff, type WallResult } from './walls';
+import type { WaterSystem } from './watersystem';
 
 export interface QuantityLine {
 	id: string;
@@ -39,7 +48,13 @@ export interface EstimateSuccess {
 	ok: true;
 	units: UnitSystem;
 	quantities: QuantityLine[];
+	/** One per pump: fountains, ponds (with the streams that fall into them), pondless streams. */
+	systems: WaterSystem[];
+	/** Per feature, in the design's order: its basin, pond or stream figures. */
+	features: FeatureResult[];
+	/** The first fountain's outlets and pump (kept for readers of single-fountain results). */
 	water?: HydraulicsResult & { pump: PumpMatch };
+	/** The first fountain's basin. */
 	basin?: BasinBudget;
 	stones: StonesResult;
 	aggregates: AggregateResult[];
@@ -70,7 +85,7 @@ function zodErrors(root: string, error: z.ZodError): FieldError[] {
 }
 
 function parse(design: unknown, catalog: unknown) {
-	const d = designSchema.safeParse(design);
+	const d = designSchema.safeParse(upgradeDesign(design));
 	const c = catalogSchema.safeParse(catalog);
 	const errors = [
 		...(d.success ? [] : zodErrors('design', d.error)),
@@ -98,41 +113,48 @@ function firstNonFinite(value: unknown, path: string[] = []): string | undefined
 	return undefined;
 }
 
-function water(design: ParsedDesign, catalog: ParsedCatalog, units: UnitSystem) {
-	if (design.outlets.length === 0) return undefined;
-	const settings = catalog.settings;
-	const hydraulics = analyseHydraulics(
-		design.outlets,
-		design.branches,
-		design.supply,
-		settings,
-		units
-	);
-	const pump = matchPump(
-		catalog.pumps,
-		hydraulics.system,
-		hydraulics.totalFlowM3s,
-		hydraulics.requiredHeadM,
-		settings,
-		design.pumpModelId
-	);
-	return Object.assign(hydraulics, { pump });
-}
-
 type PartResults = Omit<EstimateSuccess, 'quantities' | 'ok' | 'cautions'>;
 
 function quantities(result: PartResults, units: UnitSystem) {
 	const lines: QuantityLine[] = [];
 	const add = (id: string, label: string, kind: DisplayKind, si: number) =>
 		lines.push({ id, label, kind, si, display: formatQuantity(si, kind, units).text });
-	if (result.water) {
-		add('total-flow', 'Total flow', 'flow', result.water.totalFlowM3s);
-		add('required-head', 'Head at the hardest branch', 'head', result.water.requiredHeadM);
+	const many = result.features.length > 1;
+	for (const system of result.systems) {
+		const key = many ? `-${system.featureId}` : '';
+		const of = many ? `, ${system.name}` : '';
+		add(`total-flow${key}`, `Total flow${of}`, 'flow', system.flowM3s);
+		const head = system.kind === 'fountain' ? 'Head at the hardest branch' : 'Head at the pump';
+		add(`required-head${key}`, `${head}${of}`, 'head', system.requiredHeadM);
 	}
-	if (result.basin) {
-		add('basin-water', 'Water the basin holds', 'volume', result.basin.waterCapacityM3);
-		add('basin-reserve', 'Usable reserve', 'volume', result.basin.usableReserveM3);
-		add('daily-loss', 'Daily water loss', 'volume', result.basin.dailyLossM3);
+	for (const f of result.features) {
+		const key = many ? `-${f.id}` : '';
+		const of = many ? `, ${f.name}` : '';
+		if (f.basin) {
+			add(`basin-water${key}`, `Water the basin holds${of}`, 'volume', f.basin.waterCapacityM3);
+			add(`basin-reserve${key}`, `Usable reserve${of}`, 'volume', f.basin.usableReserveM3);
+			add(`daily-loss${key}`, `Daily water loss${of}`, 'volume', f.basin.dailyLossM3);
+		}
+		if (f.pond) {
+			add(`pond-water-${f.id}`, `${f.name}: water`, 'volume', f.pond.volumeM3);
+			add(`pond-area-${f.id}`, `${f.name}: surface`, 'area', f.pond.areaM2);
+			add(
+				`pond-loss-${f.id}`,
+				`${f.name}: evaporation a day`,
+				'volume',
+				f.pond.evaporationM3PerDay
+			);
+		}
+		if (f.stream) {
+			add(`stream-length-${f.id}`, `${f.name}: length`, 'length', f.stream.lengthM);
+			add(`stream-drain-${f.id}`, `${f.name}: drains back`, 'volume', f.stream.drainBackM3);
+			add(
+				`stream-reserve-${f.id}`,
+				`${f.name}: reservoir must hold`,
+				'volume',
+				f.stream.requiredReserveM3
+			);
+		}
 	}
 	if (result.stones.stones.length) {
 		add('stone-weight', 'Stone, total weight', 'mass', result.stones.totalWeightKg);
@@ -152,36 +174,40 @@ function quantities(result: PartResults, units: UnitSystem) {
 }
 
 function cautionFacts(result: PartResults, design: ParsedDesign, openWaterDepthIn: number) {
+	const deepest = openWater(design, result.features);
 	return {
-		digs: Boolean(design.basin || design.branches.length || design.walls.length || design.lighting),
-		hasPump: Boolean(result.water),
+		digs: Boolean(
+			design.features.some((f) => f.kind !== 'fountain' || f.basin || f.branches.length) ||
+			design.walls.length ||
+			design.lighting
+		),
+		hasPump: result.systems.length > 0,
 		hasLighting: Boolean(result.lighting),
 		stonesNeedingHelp: result.stones.stones.filter((s) => s.handling.people > 1).map((s) => s.name),
 		wallsNeedingPermit: result.walls.filter((w) => w.needsPermit).map((w) => w.name),
 		wallsNeedingEngineering: result.walls.filter((w) => w.needsEngineering).map((w) => w.name),
-		openWaterDepthM: result.basin?.openWaterDepthM ?? 0,
+		openWaterDepthM: deepest.depthM,
+		openWaterWhere: deepest.where,
 		openWaterLimitM: openWaterDepthIn * 0.0254
 	};
 }
 
 function analyseParts(design: ParsedDesign, catalog: ParsedCatalog, units: UnitSystem) {
 	const settings = catalog.settings;
-	const waterResult = water(design, catalog, units);
-	const stones = analyseStones(design.stones, settings);
+	const features = analyseFeatures(design, catalog, units);
+	const stoneInputs = [...design.stones, ...features.stones];
+	const stones = analyseStones(stoneInputs, settings);
+	fountainBasins(design, features, stones, catalog);
 	const items = new Map(catalog.items.map((i) => [i.sku, i]));
-	const basin = design.basin
-		? basinBudget({
-				basin: design.basin,
-				pipeDrainBackM3: waterResult?.drainBackM3 ?? 0,
-				wettedStoneAreaM2: stones.wettedSurfaceM2,
-				wettedStoneTopM2: stones.wettedTopM2,
-				flowM3s: waterResult?.totalFlowM3s ?? 0,
-				settings
-			})
-		: undefined;
+	const firstFountain = features.systems.find((s) => s.kind === 'fountain');
 	return {
-		water: waterResult,
-		basin,
+		systems: features.systems,
+		features: features.results,
+		water: firstFountain?.hydraulics
+			? Object.assign({}, firstFountain.hydraulics, { pump: firstFountain.pump })
+			: undefined,
+		basin: features.results.find((r) => r.basin)?.basin,
+		stoneInputs,
 		stones,
 		aggregates: design.aggregates.map((a) =>
 			aggregateResult(a, items.get(a.sku), settings.aggregateWastePercent)
@@ -193,12 +219,12 @@ function analyseParts(design: ParsedDesign, catalog: ParsedCatalog, units: UnitS
 
 type Parts = ReturnType<typeof analyseParts>;
 
-function labor(design: ParsedDesign, parts: Parts, settings: ParsedCatalog['settings']) {
+function labor(design: ParsedDesign, parts: Parts, catalog: ParsedCatalog) {
+	const settings = catalog.settings;
 	const included = includedBuckets(design);
 	const tasks = laborTasks(
 		{
-			hasBasin: Boolean(design.basin),
-			outletCount: design.outlets.length,
+			features: featureTasks(design, parts.features, catalog),
 			stones: parts.stones.stones,
 			aggregates: parts.aggregates,
 			walls: parts.walls,
@@ -213,10 +239,15 @@ function labor(design: ParsedDesign, parts: Parts, settings: ParsedCatalog['sett
 }
 
 function collectWarnings(parts: Parts, takeoffWarnings: string[], unpricedLabor: boolean) {
+	const named = (system: WaterSystem, text: string) =>
+		parts.systems.length > 1 ? `${system.name}: ${text}` : text;
 	return [
-		...(parts.water?.warnings ?? []),
-		...(parts.water?.pump.warnings ?? []),
-		...(parts.basin?.warnings ?? []),
+		...parts.systems.flatMap((s) => [...s.warnings, ...s.pump.warnings.map((w) => named(s, w))]),
+		...parts.features.flatMap((f) => [
+			...(f.basin?.warnings ?? []),
+			...(f.pond?.warnings ?? []),
+			...(f.stream?.warnings ?? [])
+		]),
 		...parts.stones.warnings,
 		...(parts.lighting?.warnings ?? []),
 		...takeoffWarnings,
@@ -227,13 +258,15 @@ function collectWarnings(parts: Parts, takeoffWarnings: string[], unpricedLabor:
 function compute(design: ParsedDesign, catalog: ParsedCatalog, units: UnitSystem): EstimateResult {
 	const settings = catalog.settings;
 	const parts = analyseParts(design, catalog, units);
-	const pump = catalog.pumps.find((p) => p.id === parts.water?.pump.chosenId);
-	const takeoff = buildTakeoff({ design, hydraulics: parts.water, pump, ...parts }, catalog);
+	const takeoff = buildTakeoff({ design, ...parts }, catalog);
 	if (takeoff.errors.length) return { ok: false, errors: takeoff.errors };
-	const work = labor(design, parts, settings);
+	const work = labor(design, parts, catalog);
 	const pricing = priceSummary(design, takeoff.lines, work.tasks, pickLaborRate(catalog), settings);
 	const unpricedLabor = catalog.laborRates.length === 0 && work.tasks.length > 0;
-	const partial = Object.assign(parts, {
+	// The stone inputs were for the takeoff; the result carries the analysed stones only.
+	const shown: Omit<Parts, 'stoneInputs'> & { stoneInputs?: unknown } = { ...parts };
+	delete shown.stoneInputs;
+	const partial = Object.assign(shown, {
 		units,
 		labor: work,
 		pricing,
@@ -280,6 +313,12 @@ export type { Settings, CatalogItem, PumpModel } from './schema';
 export type { HydraulicsResult, BranchResult } from './hydraulics';
 export type { PumpMatch, PumpEvaluation, CurvePoint, OperatingPoint } from './pumps';
 export type { BasinBudget } from './basin';
+export type { WaterSystem } from './watersystem';
+export type { FeatureResult } from './features';
+export type { PondResult } from './pond';
+export type { StreamResult } from './stream';
+export type { Feature, FeatureKind, Fountain, Pond, Stream } from './schema';
+export { readDesign, upgradeDesign } from './upgrade';
 export type { StonesResult, StoneResult, HandlingPlan } from './stones';
 export type { AggregateResult } from './aggregate';
 export type { WallResult } from './walls';

@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { laborSummary, laborTasks, type LaborParts } from './labor';
-import { settingsSchema } from './schema';
+import { demoDesign } from './demo';
+import { featureTasks } from './features';
+import { catalogSchema, designSchema, settingsSchema } from './schema';
 import type { StoneResult } from './stones';
 import { toSI } from './units';
 
@@ -30,9 +32,15 @@ const stone = (
 	optionId
 });
 
+// The demo fountain's own tasks: its basin and its three outlets.
+const fountainTasks = featureTasks(
+	designSchema.parse(demoDesign()),
+	[],
+	catalogSchema.parse({ settings: {} })
+);
+
 const parts = (overrides: Partial<LaborParts> = {}): LaborParts => ({
-	hasBasin: true,
-	outletCount: 3,
+	features: fountainTasks,
 	stones: [],
 	aggregates: [],
 	walls: [],
@@ -57,8 +65,7 @@ describe('task hours from the settings (invented defaults, no source)', () => {
 	it('topping by square foot and walls by unit, each in its own bucket', () => {
 		const tasks = laborTasks(
 			parts({
-				hasBasin: false,
-				outletCount: 0,
+				features: [],
 				aggregates: [
 					{
 						id: 'a',

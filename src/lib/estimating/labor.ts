@@ -16,8 +16,8 @@ export interface LaborTask {
 }
 
 export interface LaborParts {
-	hasBasin: boolean;
-	outletCount: number;
+	/** Each feature's own tasks (basins, outlets, ponds, streams), already in their buckets. */
+	features: readonly LaborTask[];
 	stones: readonly StoneResult[];
 	aggregates: readonly AggregateResult[];
 	walls: readonly WallResult[];
@@ -44,17 +44,7 @@ function lightingTasks(lighting: LaborParts['lighting'], hours: Settings['labor'
 
 export function laborTasks(parts: LaborParts, settings: Settings): LaborTask[] {
 	const hours = settings.labor;
-	const tasks: LaborTask[] = [];
-	if (parts.hasBasin) {
-		tasks.push({ bucket: BASE_BUCKET, task: 'Dig and set basin', hours: hours.basinHours });
-	}
-	if (parts.outletCount > 0) {
-		tasks.push({
-			bucket: BASE_BUCKET,
-			task: 'Plumb outlets',
-			hours: parts.outletCount * hours.outletHours
-		});
-	}
+	const tasks: LaborTask[] = [...parts.features];
 	for (const stone of parts.stones) {
 		tasks.push({
 			bucket: bucketOf(stone.optionId),

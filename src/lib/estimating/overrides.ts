@@ -14,6 +14,7 @@ import {
 	type PricedLine
 } from './pricing';
 import { catalogSchema, designSchema, ITEM_UNITS, type ItemUnit } from './schema';
+import { upgradeDesign } from './upgrade';
 import type { EstimateSuccess } from './index';
 
 export interface LineOverride {
@@ -101,7 +102,7 @@ export function priceWithOverrides(
 	catalog: unknown,
 	overrides: readonly LineOverride[]
 ): PricedEstimate {
-	const d = designSchema.parse(design);
+	const d = designSchema.parse(upgradeDesign(design));
 	const c = catalogSchema.parse(catalog);
 	const lines = shownLines(result.pricing.lines, overrides);
 	const pricing = priceSummary(d, lines, result.labor.tasks, pickLaborRate(c), c.settings);

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { fountainIn } from './testing';
 import { estimate } from './index';
 import { demoCatalog, demoDesign } from './demo';
 import { settingsSchema, type Design } from './schema';
@@ -20,8 +21,14 @@ describe('starting design from the visit notes (common practice, no source; see 
 	it('is the standard feature named for the lead without notes, and a stored design wins', () => {
 		const plain = starterDesign('Ada — water feature', null);
 		expect(plain).toEqual({ ...demoDesign(), name: 'Ada — water feature' });
-		const stored = { name: 'Drawn on site', outlets: [] };
+		const stored = { name: 'Drawn on site', features: [] };
 		expect(starterDesign('x', { design: stored, slope: 'steep' })).toBe(stored);
+		// A design stored before features existed comes back as one fountain, nothing else changed.
+		const old = { name: 'Drawn on site', outlets: [] };
+		expect(starterDesign('x', { design: old })).toEqual({
+			name: 'Drawn on site',
+			features: [{ id: 'fountain-1', kind: 'fountain', name: 'Fountain', outlets: [] }]
+		});
 	});
 
 	it('sizes the basin to the spot and the cable run to the house', () => {
@@ -33,7 +40,7 @@ describe('starting design from the visit notes (common practice, no source; see 
 		});
 		// The basin is the spot less 1 ft of stone edge each side: 9 − 2 = 7, 7 − 2 = 5; 18 in deep
 		// (common practice, no source).
-		expect(design.basin?.size).toMatchObject({ lengthFt: 7, widthFt: 5, depthFt: 1.5 });
+		expect(fountainIn(design).basin?.size).toMatchObject({ lengthFt: 7, widthFt: 5, depthFt: 1.5 });
 		// The demo run's fixture spacing (invented, no source), shifted so the first sits at the
 		// 40 ft to the house.
 		expect(design.lighting?.runs[0].fixtures.map((f) => f.distanceFt)).toEqual([40, 46, 65]);

@@ -6,8 +6,16 @@
  * and can change in the builder. Every trade rule here is common practice, with no source.
  */
 import { SLOPES, SOILS } from '$lib/schema/visits';
-import { demoDesign } from './demo';
-import { designSchema, settingsSchema, type Design, type Settings } from './schema';
+import { demoCatalog, demoDesign } from './demo';
+import { upgradeDesign, upgradedDesign } from './upgrade';
+import {
+	designSchema,
+	settingsSchema,
+	type Design,
+	type FeatureInput,
+	type Settings
+} from './schema';
+import { sizeReservoir } from './starter-features';
 import { analyseStones, type HandlingMethod } from './stones';
 import { starterFromCatalog } from './starter';
 
@@ -47,7 +55,7 @@ export const GEAR_WIDTH_IN: Partial<Record<HandlingMethod, { gear: string; width
  * about as long again as setting them, so their set hours once more (common practice, no source).
  */
 export function narrowAccessLabor(design: Design, accessIn: number, settings: Settings) {
-	const parsed = designSchema.safeParse(design);
+	const parsed = designSchema.safeParse(upgradeDesign(design));
 	if (!parsed.success) return [];
 	return analyseStones(parsed.data.stones, settings).stones.flatMap((stone) => {
 		const gear = GEAR_WIDTH_IN[stone.handling.method];
@@ -73,13 +81,40 @@ export const SOIL_DIG_FACTOR: Partial<Record<Soil, number>> = {
 };
 
 /** Extra hours for the basin hole and the lighting cable trench in hard or mixed soil. */
+/** The design's fountain with a basin, if any (the starting designs have one at most). */
+const fountainOf = (design: Design) =>
+	design.features?.find(
+		(f): f is Extract<FeatureInput, { kind: 'fountain' }> => f.kind === 'fountain' && !!f.basin
+	);
+
 export function soilLabor(design: Design, soil: Soil, settings: Settings) {
 	const factor = SOIL_DIG_FACTOR[soil];
 	if (!factor) return [];
 	const labor = settings.labor;
 	const tasks: { task: string; hours: number; optionId?: string }[] = [];
-	if (design.basin) {
+	if (fountainOf(design)) {
 		tasks.push({ task: `Extra digging in ${soil} soil: basin`, hours: labor.basinHours * factor });
+	}
+	for (const f of design.features ?? []) {
+		if (f.kind === 'pond') {
+			const o = f.outline;
+			const areaFt2 =
+				o.shape === 'rectangle'
+					? o.lengthFt * o.widthFt
+					: o.shape === 'oval'
+						? (Math.PI / 4) * o.lengthFt * o.widthFt
+						: 0;
+			tasks.push({
+				task: `Extra digging in ${soil} soil: ${f.name}`,
+				hours: areaFt2 * labor.pondHoursPerFt2 * factor
+			});
+		} else if (f.kind === 'stream') {
+			const lengthFt = f.segments.reduce((s, seg) => s + seg.lengthFt, 0);
+			tasks.push({
+				task: `Extra digging in ${soil} soil: ${f.name}`,
+				hours: lengthFt * labor.streamHoursPerFt * factor
+			});
+		}
 	}
 	const trenchFt = (design.lighting?.runs ?? []).reduce(
 		(sum, run) => sum + Math.max(0, ...run.fixtures.map((f) => f.distanceFt)),
@@ -133,7 +168,7 @@ export function applySlope(
 			design.options = (design.options ?? []).filter((o) => o.id !== optionId);
 		}
 	}
-	if (design.basin) {
+	if (fountainOf(design)) {
 		const hours = quarterHours(settings.labor.basinHours * levelling);
 		if (hours > 0) {
 			design.extraLabor = [
@@ -144,11 +179,40 @@ export function applySlope(
 	}
 }
 
+/**
+ * A pond sits inside the spot with 2 ft for the edge stone and working room each side; its zones
+ * go no deeper than the depth available. A stream runs the spot's length, rises with the slope
+ * (at least a foot), and its three falls share the rise (common practice, no source).
+ */
+function sizeWaterToSpot(design: Design, notes: Notes, settings: Settings) {
+	const length = numberIn(notes, 'spotLengthFt');
+	const width = numberIn(notes, 'spotWidthFt');
+	const depthIn = numberIn(notes, 'depthAvailableIn');
+	const slope = choiceIn(notes, 'slope', SLOPES);
+	for (const f of design.features ?? []) {
+		if (f.kind === 'pond' && f.outline.shape !== 'polygon') {
+			if (length) f.outline.lengthFt = Math.max(4, Math.min(length - 4, 60));
+			if (width) f.outline.widthFt = Math.max(3, Math.min(width - 4, 40));
+			if (depthIn) f.zones = f.zones.map((z) => ({ ...z, depthIn: Math.min(z.depthIn, depthIn) }));
+		}
+		if (f.kind === 'stream' && length) {
+			const each = Math.max(3, Math.round((Math.min(length, 150) / f.segments.length) * 2) / 2);
+			f.segments = f.segments.map((s) => ({ ...s, lengthFt: each }));
+			const rise = Math.max(1, Math.round(SLOPE_GRADE[slope ?? 'gentle'] * length * 2) / 2);
+			f.riseFt = rise;
+			const fallIn = Math.floor((rise * 12) / f.segments.length);
+			f.segments = f.segments.map((s) => ({ ...s, fallHeightIn: fallIn }));
+			f.supply.lengthFt = Math.ceil(each * f.segments.length + 5);
+			sizeReservoir(f, settings);
+		}
+	}
+}
+
 function sizeToSpot(design: Design, notes: Notes) {
 	const length = numberIn(notes, 'spotLengthFt');
 	const width = numberIn(notes, 'spotWidthFt');
 	const depthIn = numberIn(notes, 'depthAvailableIn');
-	const size = design.basin?.size;
+	const size = fountainOf(design)?.basin?.size;
 	if (size && size.shape === 'rectangle') {
 		// The basin sits inside the spot with a foot of stone edge each side (common practice, no source).
 		if (length) size.lengthFt = Math.max(2, Math.min(length - 2, 20));
@@ -173,15 +237,22 @@ export function starterDesign(
 	label: string,
 	notes: Notes | null,
 	engine?: unknown,
-	catalog?: unknown
+	catalog?: unknown,
+	services: readonly string[] = []
 ): Design {
-	if (notes && typeof notes.design === 'object' && notes.design) return notes.design as Design;
-	const design = catalog === undefined ? demoDesign() : starterFromCatalog(catalog).design;
+	if (notes && typeof notes.design === 'object' && notes.design) {
+		return upgradedDesign(notes.design);
+	}
+	const design =
+		catalog === undefined && services.length === 0
+			? demoDesign()
+			: starterFromCatalog(catalog ?? demoCatalog(), services).design;
 	design.name = label;
-	if (!notes) return design;
 	const parsedSettings = settingsSchema.safeParse(engine ?? {});
 	const settings = parsedSettings.success ? parsedSettings.data : settingsSchema.parse({});
+	if (!notes) return design;
 	sizeToSpot(design, notes);
+	sizeWaterToSpot(design, notes, settings);
 	const slope = choiceIn(notes, 'slope', SLOPES);
 	if (slope) {
 		const spot = {

@@ -30,6 +30,8 @@ export interface Measure {
 
 export interface TakeoffLine {
 	bucket: string;
+	/** The feature the line belongs to (a pond, a stream, a fountain); none for shared parts. */
+	feature?: string;
 	sku: string;
 	description: string;
 	measure: Measure;
@@ -90,6 +92,7 @@ export function purchaseQuantity(quantity: number, item: CatalogItem): number {
 
 export interface PricedLine {
 	bucket: string;
+	feature?: string;
 	sku: string;
 	name: string;
 	description: string;
@@ -105,6 +108,7 @@ export function priceLine(line: TakeoffLine, item: CatalogItem, quantity: number
 	const purchased = purchaseQuantity(quantity, item);
 	return {
 		bucket: line.bucket,
+		...(line.feature ? { feature: line.feature } : {}),
 		sku: item.sku,
 		name: item.name,
 		description: line.description,

@@ -173,6 +173,28 @@ function sample(maxFlowM3s: number, headFn: (q: number) => number): CurvePoint[]
 	});
 }
 
+// A design with several water systems matches each against the same pumps: a pump's curve, its
+// plotted points and running cost are worked out once per model object (the parsed catalog's own,
+// new on every estimate, so nothing outlives the catalog it came from).
+const preparedCache = new WeakMap<
+	PumpModel,
+	{ settings: Settings; curve: PumpCurve; plot: CurvePoint[]; cost: RunningCost }
+>();
+
+function prepared(model: PumpModel, settings: Settings) {
+	const hit = preparedCache.get(model);
+	if (hit && hit.settings === settings) return hit;
+	const curve = pumpCurve(model);
+	const entry = {
+		settings,
+		curve,
+		plot: sample(maxFlow(curve), (q) => headAt(curve, q)),
+		cost: runningCost(model.watts, settings)
+	};
+	preparedCache.set(model, entry);
+	return entry;
+}
+
 function evaluate(
 	model: PumpModel,
 	system: SystemCoefficients,
@@ -180,7 +202,7 @@ function evaluate(
 	requiredHead: number,
 	settings: Settings
 ): PumpEvaluation {
-	const curve = pumpCurve(model);
+	const { curve, plot, cost } = prepared(model, settings);
 	const headAtMarginFlowM = headAt(curve, marginFlow);
 	return {
 		id: model.id,
@@ -190,8 +212,8 @@ function evaluate(
 		operatingPoint: operatingPoint(curve, system),
 		headAtMarginFlowM,
 		suitable: marginFlow <= maxFlow(curve) && headAtMarginFlowM >= requiredHead,
-		curve: sample(maxFlow(curve), (q) => headAt(curve, q)),
-		runningCost: runningCost(model.watts, settings)
+		curve: plot,
+		runningCost: cost
 	};
 }
 

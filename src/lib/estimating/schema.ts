@@ -113,6 +113,8 @@ const stoneSchema = z.object({
 	rock: z.enum(ROCK_TYPES),
 	count: count.min(1, 'At least one').default(1),
 	wetted: z.boolean().default(false),
+	/** The fountain whose basin a wetted stone drains into (else the first fountain with a basin). */
+	featureId: z.string().optional(),
 	sku: z.string().optional(),
 	optionId
 });
@@ -181,13 +183,122 @@ const lightingSchema = z.object({
 const extraLineSchema = z.object({ sku: id, quantity: positive, optionId });
 const extraLaborSchema = z.object({ task: name, hours: positive, optionId });
 
-export const designSchema = z.object({
-	name: name.default('Untitled design'),
+const waterSupplySchema = supplySchema.optional();
+
+// A stone fountain over a hidden basin: outlets fed by branches from one manifold and one pump.
+const fountainFeatureSchema = z.object({
+	id,
+	kind: z.literal('fountain'),
+	name: name.default('Fountain'),
+	optionId,
 	outlets: z.array(outletSchema).default([]),
-	supply: supplySchema.optional(),
+	supply: waterSupplySchema,
 	branches: z.array(branchSchema).default([]),
 	pumpModelId: z.string().optional(),
-	basin: basinSchema.optional(),
+	basin: basinSchema.optional()
+});
+
+export const pondOutlineSchema = z.discriminatedUnion('shape', [
+	z.object({ shape: z.literal('rectangle'), lengthFt: positive, widthFt: positive }),
+	z.object({ shape: z.literal('oval'), lengthFt: positive, widthFt: positive }),
+	z.object({
+		shape: z.literal('polygon'),
+		pointsFt: z.array(point).min(3, 'At least three corners')
+	})
+]);
+
+// A pond: an outline, depth zones (shelves), a pump that turns the water over, a skimmer and a
+// biological filter, liner, gravel and edge stone. It may feed a waterfall or stream.
+const pondFeatureSchema = z.object({
+	id,
+	kind: z.literal('pond'),
+	name: name.default('Pond'),
+	optionId,
+	outline: pondOutlineSchema,
+	zones: z
+		.array(
+			z.object({ depthIn: positive, percent: z.number().positive('Must be above 0').max(100) })
+		)
+		.min(1, 'At least one depth zone'),
+	use: z.enum(['fish', 'plants']).default('plants'),
+	fishInches: nonNegative.default(0),
+	returnLiftFt: nonNegative.default(1),
+	supply: waterSupplySchema,
+	pumpModelId: z.string().optional(),
+	linerSku: z.string().optional(),
+	underlaymentSku: z.string().optional(),
+	skimmerSku: z.string().optional(),
+	filterSku: z.string().optional(),
+	gravelSku: z.string().optional(),
+	gravelDepthIn: nonNegative.default(2),
+	edgeStoneSku: z.string().optional(),
+	edgeWidthFt: nonNegative.default(1),
+	edgeDepthIn: nonNegative.default(6)
+});
+
+const streamSegmentSchema = z.object({
+	id,
+	lengthFt: positive,
+	widthFt: positive,
+	waterDepthIn: nonNegative.default(2),
+	fallHeightIn: nonNegative.default(0),
+	weirWidthIn: nonNegative.default(0)
+});
+
+export const reservoirSchema = z.object({
+	kind: z.enum(['open', 'gravel']),
+	lengthFt: positive,
+	widthFt: positive,
+	depthFt: positive,
+	voidFraction: z.number().gt(0, 'Must be above 0').max(1, 'At most 1').default(0.35),
+	pumpMinLevelIn: nonNegative.default(6),
+	sku: z.string().optional(),
+	fillSku: z.string().optional()
+});
+
+// A pondless stream or waterfall: segments that fall to a hidden reservoir (or into a pond).
+const streamFeatureSchema = z.object({
+	id,
+	kind: z.literal('stream'),
+	name: name.default('Stream'),
+	optionId,
+	riseFt: positive,
+	segments: z.array(streamSegmentSchema).min(1, 'At least one segment'),
+	flow: z.discriminatedUnion('method', [
+		z.object({ method: z.literal('weir'), sheet: z.enum(['light', 'medium', 'heavy']) }),
+		z.object({ method: z.literal('per-inch') })
+	]),
+	supply: supplySchema,
+	pumpModelId: z.string().optional(),
+	feedsPondId: z.string().optional(),
+	reservoir: reservoirSchema.optional(),
+	linerSku: z.string().optional(),
+	underlaymentSku: z.string().optional(),
+	weirBoxSku: z.string().optional(),
+	gravelSku: z.string().optional(),
+	gravelDepthIn: nonNegative.default(2),
+	boulderSku: z.string().optional(),
+	boulder: z
+		.object({
+			lengthIn: positive,
+			widthIn: positive,
+			heightIn: positive,
+			rock: z.enum(ROCK_TYPES),
+			spacingFt: positive
+		})
+		.optional()
+});
+
+export const FEATURE_KINDS = ['fountain', 'pond', 'stream'] as const;
+export const featureSchema = z.discriminatedUnion('kind', [
+	fountainFeatureSchema,
+	pondFeatureSchema,
+	streamFeatureSchema
+]);
+
+export const designSchema = z.object({
+	name: name.default('Untitled design'),
+	features: z.array(featureSchema).default([]),
 	stones: z.array(stoneSchema).default([]),
 	aggregates: z.array(aggregateSchema).default([]),
 	walls: z.array(wallSchema).default([]),
@@ -223,6 +334,14 @@ const itemSchema = z.object({
 	loadVolumeYd3: positive.optional(),
 	pipe: pipeSpecSchema.optional(),
 	fitting: z.object({ kind: z.enum(FITTING_KINDS), size: z.enum(NOMINAL_SIZES) }).optional(),
+	/** A liner or underlayment sold by the sheet: the sheet's size. */
+	sheetLengthFt: positive.optional(),
+	sheetWidthFt: positive.optional(),
+	/** A skimmer's rated flow, or a biological filter's rated pond volume. */
+	ratedFlowGph: positive.optional(),
+	ratedVolumeGal: positive.optional(),
+	/** Sheets of one family (one liner material) are the same goods in different sizes. */
+	sheetFamily: z.string().optional(),
 	taxable: z.boolean().default(true)
 });
 
@@ -266,6 +385,27 @@ export const settingsSchema = z.object({
 	// ISPSC section 305 wants a barrier around water over 24 in deep (from memory).
 	openWaterDepthIn: positive.default(24),
 	aggregateWastePercent: percent.default(10),
+	pond: z
+		.object({
+			// Turn the pond over once an hour with fish, every two hours for plants; 1 ft of liner
+			// overlap at each edge; 1 in of fish per 10 gal (common practice, no source).
+			turnoverHoursFish: positive.default(1),
+			turnoverHoursPlants: positive.default(2),
+			linerOverlapFt: nonNegative.default(1),
+			fishGalPerInch: positive.default(10),
+			// The drop in level a skimmer pond tolerates before a top-up (common practice, no source).
+			topUpDropIn: positive.default(2)
+		})
+		.prefault({}),
+	stream: z
+		.object({
+			// 100 gph per inch of weir width for a medium sheet, 1 ft of liner lapped under each
+			// fall, and a reservoir that holds 1.5 × the drain-back (common practice, no source).
+			gphPerInch: positive.default(100),
+			fallOverlapFt: nonNegative.default(1),
+			reserveFactor: z.number().min(1, 'At least 1').max(10, 'At most 10').default(1.5)
+		})
+		.prefault({}),
 	lift: z
 		.object({
 			// NIOSH 94-110 ideal geometry: hands 25 cm out, starting at 75 cm, moving 25 cm or less.
@@ -329,7 +469,11 @@ export const settingsSchema = z.object({
 			fixtureHours: hours.default(0.75),
 			cableHoursPerFt: hours.default(0.02),
 			toppingHoursPerFt2: hours.default(0.02),
-			wallHoursPerUnit: hours.default(0.1)
+			wallHoursPerUnit: hours.default(0.1),
+			pondHoursPerFt2: hours.default(0.2),
+			streamHoursPerFt: hours.default(0.75),
+			fallHours: hours.default(2),
+			reservoirHours: hours.default(6)
 		})
 		.prefault({})
 });
@@ -348,12 +492,20 @@ export type ParsedCatalog = z.output<typeof catalogSchema>;
 export type Settings = z.output<typeof settingsSchema>;
 export type CatalogItem = ParsedCatalog['items'][number];
 export type PumpModel = ParsedCatalog['pumps'][number];
-export type Branch = ParsedDesign['branches'][number];
-export type Supply = NonNullable<ParsedDesign['supply']>;
-export type Basin = NonNullable<ParsedDesign['basin']>;
+export type Feature = ParsedDesign['features'][number];
+export type FeatureInput = NonNullable<Design['features']>[number];
+export type FeatureKind = Feature['kind'];
+export type Fountain = Extract<Feature, { kind: 'fountain' }>;
+export type Pond = Extract<Feature, { kind: 'pond' }>;
+export type Stream = Extract<Feature, { kind: 'stream' }>;
+export type PondOutline = Pond['outline'];
+export type Reservoir = NonNullable<Stream['reservoir']>;
+export type Branch = Fountain['branches'][number];
+export type Supply = NonNullable<Fountain['supply']>;
+export type Basin = NonNullable<Fountain['basin']>;
 export type Stone = ParsedDesign['stones'][number];
 export type Aggregate = ParsedDesign['aggregates'][number];
 export type Area = z.output<typeof areaSchema>;
 export type Wall = ParsedDesign['walls'][number];
 export type Lighting = NonNullable<ParsedDesign['lighting']>;
-export type Outlet = ParsedDesign['outlets'][number];
+export type Outlet = Fountain['outlets'][number];

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { fountainIn } from './testing';
 import { estimate } from './index';
 import { demoCatalog, demoDesign } from './demo';
 import { starterDesign } from './prefill';
@@ -16,8 +17,11 @@ function renamedCatalog(): Catalog {
 
 function skusOf(design: ReturnType<typeof demoDesign>): string[] {
 	return [
-		design.basin?.sku,
-		design.basin?.fill.kind === 'gravel' ? design.basin.fill.sku : undefined,
+		fountainIn(design).basin?.sku,
+		...(() => {
+			const fill = fountainIn(design).basin?.fill;
+			return fill?.kind === 'gravel' ? [fill.sku] : [];
+		})(),
 		...(design.stones ?? []).map((s) => s.sku),
 		...(design.aggregates ?? []).map((a) => a.sku),
 		...(design.walls ?? []).flatMap((w) => [w.unitSku, w.capSku, w.padSku, w.drainSku]),
@@ -112,7 +116,7 @@ describe('the starting design comes from the firm’s price list', () => {
 		};
 		const { design, notes } = starterFromCatalog(catalog);
 		expect(design.stones!.map((s) => s.sku)).toEqual(['S1', 'S1', 'S1', 'S1']);
-		expect(design.basin!.fill).toMatchObject({ kind: 'gravel', sku: 'A1' });
+		expect(fountainIn(design).basin!.fill).toMatchObject({ kind: 'gravel', sku: 'A1' });
 		expect(design.lighting!.fixtures.map((f) => f.sku)).toEqual(['L1', 'L1', 'L1']);
 		expect(design.lighting!.transformers[0].sku).toBe('L2');
 		expect(design.lighting!.runs[0].cableSku).toBe('C1');
@@ -157,7 +161,7 @@ describe('the starting design comes from the firm’s price list', () => {
 			renamedCatalog()
 		);
 		expect(design.name).toBe('Ada — water feature');
-		expect(design.basin!.sku).toMatch(/^FIRM-/);
+		expect(fountainIn(design).basin!.sku).toMatch(/^FIRM-/);
 		expect(estimate(design, renamedCatalog()).ok).toBe(true);
 	});
 });

@@ -8,6 +8,7 @@ import type { CATEGORIES } from './categories';
 import { demoCatalog, demoDesign } from './demo';
 import { quantityInUnit, type Measure } from './pricing';
 import { catalogSchema, type CatalogItem, type Design } from './schema';
+import { featuresForServices } from './starter-features';
 
 export interface Starter {
 	design: Design;
@@ -15,7 +16,7 @@ export interface Starter {
 	notes: string[];
 }
 
-interface Slot {
+export interface Slot {
 	category: (typeof CATEGORIES)[number];
 	/** What the takeoff measures for this part: an item must be able to price it. */
 	measure: Measure;
@@ -71,10 +72,11 @@ export function pickItem(
 	);
 }
 
-type Pick = (slot: Slot, demoSku: string | undefined) => CatalogItem | undefined;
+export type Pick = (slot: Slot, demoSku: string | undefined) => CatalogItem | undefined;
 
 function basinParts(design: Design, pick: Pick, note: (text: string) => void) {
-	const basin = design.basin;
+	const fountain = design.features?.find((f) => f.kind === 'fountain');
+	const basin = fountain?.kind === 'fountain' ? fountain.basin : undefined;
 	if (!basin) return;
 	const liner = pick(SLOTS.basin, basin.sku);
 	if (liner) basin.sku = liner.sku;
@@ -223,14 +225,19 @@ function extraParts(design: Design, pick: Pick, note: (text: string) => void) {
 	});
 }
 
-/** The standard starting design with the firm's items, and what it had to leave out. */
-export function starterFromCatalog(catalog: unknown): Starter {
+/**
+ * The standard starting design with the firm's items, and what it had to leave out. The features
+ * follow the services the homeowner asked for (see starter-features.ts); the fountain is the
+ * standard when none of them is a water feature.
+ */
+export function starterFromCatalog(catalog: unknown, services: readonly string[] = []): Starter {
 	const parsed = catalogSchema.safeParse(catalog ?? {});
 	const items = parsed.success ? parsed.data.items : [];
 	const design = demoDesign();
 	const notes = new Set<string>();
 	const pick: Pick = (slot, demoSku) => pickItem(slot, demoSku ?? '', items);
 	const note = (text: string) => notes.add(text);
+	featuresForServices(design, services, items, pick, note);
 	basinParts(design, pick, note);
 	stoneParts(design, pick, note);
 	toppingParts(design, pick, note);

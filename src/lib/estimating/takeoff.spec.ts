@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { fountainIn } from './testing';
 import { demoCatalog, demoDesign } from './demo';
 import { estimate } from './index';
 import { fromSI } from './units';
@@ -61,7 +62,7 @@ describe('takeoff lines (demo catalog, invented defaults, no source)', () => {
 
 	it('warns, rather than guesses, when the price list has no item for a pipe', () => {
 		const noOneInch = run((d) => {
-			d.branches![0].pipe = { material: 'flex-pvc', size: '1' };
+			fountainIn(d).branches![0].pipe = { material: 'flex-pvc', size: '1' };
 		});
 		expect(noOneInch.warnings).toContain('No price-list item for 1 in flex-pvc pipe: not priced');
 	});

@@ -1,8 +1,7 @@
 /** Turns the part results into price-list lines, grouped by bucket (base, option, alternate). */
 import type { AggregateResult } from './aggregate';
-import type { BasinBudget } from './basin';
-import type { HydraulicsResult, PipeRun } from './hydraulics';
-import { BASE_BUCKET } from './labor';
+import { bucketOf, featureLines, type FeatureResult } from './features';
+import type { PipeRun } from './hydraulics';
 import type { LightingResult } from './lighting';
 import type { FittingKind, NominalSize, PipeMaterial } from './pipes';
 import {
@@ -12,15 +11,17 @@ import {
 	type PricedLine,
 	type TakeoffLine
 } from './pricing';
-import type { CatalogItem, ParsedCatalog, ParsedDesign, PumpModel } from './schema';
+import type { CatalogItem, ParsedCatalog, ParsedDesign, PumpModel, Stone } from './schema';
 import type { StonesResult } from './stones';
 import type { WallResult } from './walls';
+import type { WaterSystem } from './watersystem';
 
 export interface TakeoffParts {
 	design: ParsedDesign;
-	hydraulics?: HydraulicsResult;
-	pump?: PumpModel;
-	basin?: BasinBudget;
+	systems: readonly WaterSystem[];
+	features: readonly FeatureResult[];
+	/** The design's stones followed by the streams' bank boulders, as analysed. */
+	stoneInputs: readonly Stone[];
 	stones: StonesResult;
 	aggregates: readonly AggregateResult[];
 	walls: readonly WallResult[];
@@ -31,10 +32,16 @@ interface PathedLine extends TakeoffLine {
 	path: string;
 }
 
-const bucketOf = (optionId?: string) => optionId ?? BASE_BUCKET;
+interface Run {
+	feature: string;
+	run: PipeRun;
+	fittings: { kind: FittingKind; count: number }[];
+	label: string;
+	bucket: string;
+}
 
 function pipeLines(
-	runs: { run: PipeRun; fittings: { kind: FittingKind; count: number }[]; label: string }[],
+	runs: Run[],
 	catalog: ParsedCatalog
 ): { lines: PathedLine[]; warnings: string[] } {
 	const lines: PathedLine[] = [];
@@ -43,11 +50,12 @@ function pipeLines(
 		catalog.items.find((i) => i.pipe?.material === material && i.pipe.size === size);
 	const findFitting = (kind: FittingKind, size: NominalSize) =>
 		catalog.items.find((i) => i.fitting?.kind === kind && i.fitting.size === size);
-	for (const { run, fittings, label } of runs) {
+	for (const { run, fittings, label, bucket, feature } of runs) {
 		const pipe = findPipe(run.material, run.size);
 		if (pipe) {
 			lines.push({
-				bucket: BASE_BUCKET,
+				bucket,
+				feature,
 				sku: pipe.sku,
 				description: label,
 				measure: { lengthM: run.lengthM },
@@ -60,7 +68,8 @@ function pipeLines(
 			const item = findFitting(f.kind, run.size);
 			if (item) {
 				lines.push({
-					bucket: BASE_BUCKET,
+					bucket,
+					feature,
 					sku: item.sku,
 					description: label,
 					measure: { count: f.count },
@@ -74,24 +83,50 @@ function pipeLines(
 	return { lines, warnings: [...warnings] };
 }
 
-function waterRuns(parts: TakeoffParts) {
-	const { design, hydraulics } = parts;
-	if (!hydraulics) return [];
-	const runs = hydraulics.branches.map((b, i) => {
-		const branch = design.branches[i];
-		const valve = branch.valve === 'none' ? [] : [{ kind: branch.valve, count: 1 }];
-		return {
-			run: b as PipeRun,
-			fittings: [...branch.fittings, ...valve],
-			label: `Branch to ${b.outletName}`
-		};
-	});
-	if (hydraulics.supply && design.supply) {
-		runs.push({
-			run: hydraulics.supply,
-			fittings: design.supply.fittings,
-			label: 'Supply to manifold'
-		});
+function waterRuns(parts: TakeoffParts): Run[] {
+	const { design } = parts;
+	const runs: Run[] = [];
+	// With several features, a fountain's lines carry its name so two fountains never share one.
+	const named = (name: string, text: string) =>
+		design.features.length > 1 ? `${name}: ${text}` : text;
+	for (const system of parts.systems) {
+		const feature = design.features.find((f) => f.id === system.featureId)!;
+		const bucket = bucketOf(feature.optionId);
+		if (feature.kind === 'fountain' && system.hydraulics) {
+			const hydraulics = system.hydraulics;
+			hydraulics.branches.forEach((b, i) => {
+				const branch = feature.branches[i];
+				const valve = branch.valve === 'none' ? [] : [{ kind: branch.valve, count: 1 }];
+				runs.push({
+					run: b as PipeRun,
+					fittings: [...branch.fittings, ...valve],
+					label: named(feature.name, `Branch to ${b.outletName}`),
+					bucket,
+					feature: feature.id
+				});
+			});
+			if (hydraulics.supply && feature.supply) {
+				runs.push({
+					run: hydraulics.supply,
+					fittings: feature.supply.fittings,
+					label: named(feature.name, 'Supply to manifold'),
+					bucket,
+					feature: feature.id
+				});
+			}
+		} else if (system.supply) {
+			const fed = design.features.find(
+				(f) => f.kind === 'stream' && system.feeds.includes(f.id) && f.id !== feature.id
+			);
+			const input = feature.kind === 'pond' && fed?.kind === 'stream' ? fed.supply : feature.supply;
+			runs.push({
+				run: system.supply,
+				fittings: input?.fittings ?? [],
+				label: `${system.name}: supply line`,
+				bucket,
+				feature: feature.id
+			});
+		}
 	}
 	return runs;
 }
@@ -104,22 +139,16 @@ type Add = (
 	measure: TakeoffLine['measure']
 ) => void;
 
-function basinLines({ design, basin }: TakeoffParts, add: Add) {
-	if (!design.basin || !basin) return;
-	add('design.basin.sku', BASE_BUCKET, design.basin.sku, 'Basin', {
-		count: 1,
-		volumeM3: basin.grossVolumeM3
-	});
-	if (design.basin.fill.kind === 'gravel') {
-		add('design.basin.fill.sku', BASE_BUCKET, design.basin.fill.sku, 'Basin fill', {
-			volumeM3: basin.grossVolumeM3
-		});
-	}
-}
-
-function stoneAndAggregateLines({ design, stones, aggregates }: TakeoffParts, add: Add) {
+function stoneAndAggregateLines(
+	{ design, stones, stoneInputs, aggregates }: TakeoffParts,
+	add: Add
+) {
+	const own = design.stones.length;
 	stones.stones.forEach((s, i) => {
-		add(`design.stones.${i}.sku`, bucketOf(s.optionId), design.stones[i].sku, s.name, {
+		const input = stoneInputs[i];
+		const streamIndex = design.features.findIndex((f) => `${f.id}-boulders` === input.id);
+		const path = i < own ? `design.stones.${i}.sku` : `design.features.${streamIndex}.boulderSku`;
+		add(path, bucketOf(s.optionId), input.sku, s.name, {
 			count: s.count,
 			massKg: s.totalWeightKg,
 			volumeM3: s.volumeM3 * s.count
@@ -179,12 +208,16 @@ function lightingLines({ design, lighting }: TakeoffParts, add: Add) {
 	});
 }
 
-function partLines(parts: TakeoffParts): PathedLine[] {
+function partLines(parts: TakeoffParts, catalog: ParsedCatalog, warn: (t: string) => void) {
 	const lines: PathedLine[] = [];
 	const add: Add = (path, bucket, sku, description, measure) => {
-		if (sku) lines.push({ path, bucket, sku, description, measure });
+		const n = /^design\.features\.(\d+)\./.exec(path)?.[1];
+		const feature = n === undefined ? undefined : parts.design.features[Number(n)]?.id;
+		if (sku) {
+			lines.push({ path, bucket, sku, description, measure, ...(feature ? { feature } : {}) });
+		}
 	};
-	basinLines(parts, add);
+	featureLines(parts.design, parts.features, catalog, add, warn);
 	stoneAndAggregateLines(parts, add);
 	wallLines(parts, add);
 	lightingLines(parts, add);
@@ -202,12 +235,18 @@ export interface TakeoffResult {
 	warnings: string[];
 }
 
-function pumpLine(pump: PumpModel): PricedLine {
+function pumpLine(
+	pump: PumpModel,
+	bucket: string,
+	description: string,
+	feature: string
+): PricedLine {
 	return {
-		bucket: BASE_BUCKET,
+		bucket,
+		feature,
 		sku: `pump:${pump.id}`,
 		name: pump.name,
-		description: 'Pump',
+		description,
 		unit: 'each',
 		quantity: 1,
 		unitPriceCents: pump.priceCents,
@@ -220,7 +259,8 @@ function pumpLine(pump: PumpModel): PricedLine {
 /** Sums lines of one SKU within one bucket before rounding up to the purchase increment. */
 export function buildTakeoff(parts: TakeoffParts, catalog: ParsedCatalog): TakeoffResult {
 	const water = pipeLines(waterRuns(parts), catalog);
-	const all = [...water.lines, ...partLines(parts)];
+	const warnings = new Set(water.warnings);
+	const all = [...water.lines, ...partLines(parts, catalog, (t) => warnings.add(t))];
 	const items = new Map<string, CatalogItem>(catalog.items.map((i) => [i.sku, i]));
 	const grouped = new Map<
 		string,
@@ -237,7 +277,7 @@ export function buildTakeoff(parts: TakeoffParts, catalog: ParsedCatalog): Takeo
 			});
 			continue;
 		}
-		const key = `${line.bucket}\u0000${line.sku}`;
+		const key = `${line.bucket}\u0000${line.feature ?? ''}\u0000${line.sku}`;
 		const group = grouped.get(key) ?? { line, item, quantity: 0, descriptions: new Set<string>() };
 		group.quantity += quantity;
 		group.descriptions.add(line.description);
@@ -248,6 +288,13 @@ export function buildTakeoff(parts: TakeoffParts, catalog: ParsedCatalog): Takeo
 		.map((g) =>
 			priceLine({ ...g.line, description: [...g.descriptions].join('; ') }, g.item, g.quantity)
 		);
-	if (parts.pump) lines.unshift(pumpLine(parts.pump));
-	return { lines, errors, warnings: water.warnings };
+	const pumps = parts.systems.flatMap((system) => {
+		const pump = catalog.pumps.find((p) => p.id === system.pump.chosenId);
+		if (!pump) return [];
+		const feature = parts.design.features.find((f) => f.id === system.featureId);
+		const description = parts.systems.length === 1 ? 'Pump' : `Pump for ${system.name}`;
+		return [pumpLine(pump, bucketOf(feature?.optionId), description, system.featureId)];
+	});
+	lines.unshift(...pumps);
+	return { lines, errors, warnings: [...warnings] };
 }

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { fountainIn } from './testing';
 import { demoCatalog, demoDesign } from './demo';
 import { catalogSchema, designSchema } from './schema';
 import { crossCheck } from './validate';
@@ -21,14 +22,14 @@ describe('cross-checks between the design and the catalog', () => {
 
 	it('an outlet fed twice', () => {
 		const errors = parsed((d) => {
-			d.branches![1].outletId = 'col-low';
+			fountainIn(d).branches![1].outletId = 'col-low';
 		});
 		expect(errors).toContainEqual({
-			path: 'design.outlets.0',
+			path: 'design.features.0.outlets.0',
 			message: 'This outlet is fed by more than one branch'
 		});
 		expect(errors).toContainEqual({
-			path: 'design.outlets.1',
+			path: 'design.features.0.outlets.1',
 			message: 'This outlet has no branch to feed it'
 		});
 	});
@@ -36,24 +37,27 @@ describe('cross-checks between the design and the catalog', () => {
 	it('duplicate ids and SKUs', () => {
 		const errors = parsed(
 			(d) => {
-				d.outlets![1].id = 'col-low';
+				fountainIn(d).outlets![1].id = 'col-low';
 			},
 			(c) => {
 				c.items![1].sku = c.items![0].sku;
 			}
 		);
 		expect(errors.map((e) => e.path)).toEqual(
-			expect.arrayContaining(['design.outlets.1.id', 'catalog.items.1.sku'])
+			expect.arrayContaining(['design.features.0.outlets.1.id', 'catalog.items.1.sku'])
 		);
 	});
 
 	it('a supply pipe size the material lacks, and an unknown pinned pump', () => {
 		const errors = parsed((d) => {
-			d.supply!.pipe = { material: 'poly-sidr15', size: '3' };
-			d.pumpModelId = 'pump-x';
+			fountainIn(d).supply!.pipe = { material: 'poly-sidr15', size: '3' };
+			fountainIn(d).pumpModelId = 'pump-x';
 		});
 		expect(errors.map((e) => e.path)).toEqual(
-			expect.arrayContaining(['design.supply.pipe.size', 'design.pumpModelId'])
+			expect.arrayContaining([
+				'design.features.0.supply.pipe.size',
+				'design.features.0.pumpModelId'
+			])
 		);
 	});
 

@@ -1,7 +1,9 @@
 /** Checks that need the whole design and catalog at once: references, sizes, curves. */
 import { pipeExists } from './pipes';
+import { pondErrors } from './pond';
 import { firstNonMonotoneIndex } from './pumps';
-import type { ParsedCatalog, ParsedDesign } from './schema';
+import type { Fountain, ParsedCatalog, ParsedDesign, Supply } from './schema';
+import { streamErrors } from './stream';
 
 export interface FieldError {
 	path: string;
@@ -25,35 +27,60 @@ function checkUnique(c: Collector, items: readonly { id: string }[], path: Path)
 	});
 }
 
-function checkWater(c: Collector, design: ParsedDesign) {
-	const outletIds = new Set(design.outlets.map((o) => o.id));
+function checkSupply(c: Collector, supply: Supply | undefined, path: Path) {
+	if (supply && !pipeExists(supply.pipe.material, supply.pipe.size)) {
+		c.add([...path, 'pipe', 'size'], `${supply.pipe.material} has no ${supply.pipe.size} in size`);
+	}
+}
+
+function checkFountain(c: Collector, f: Fountain, at: Path) {
+	const outletIds = new Set(f.outlets.map((o) => o.id));
 	const fed = new Map<string, number>();
-	design.branches.forEach((b, i) => {
+	f.branches.forEach((b, i) => {
 		if (!outletIds.has(b.outletId)) {
-			c.add(['design', 'branches', i, 'outletId'], `No outlet "${b.outletId}"`);
+			c.add([...at, 'branches', i, 'outletId'], `No outlet "${b.outletId}"`);
 		}
 		fed.set(b.outletId, (fed.get(b.outletId) ?? 0) + 1);
 		if (!pipeExists(b.pipe.material, b.pipe.size)) {
 			c.add(
-				['design', 'branches', i, 'pipe', 'size'],
+				[...at, 'branches', i, 'pipe', 'size'],
 				`${b.pipe.material} has no ${b.pipe.size} in size`
 			);
 		}
 	});
-	design.outlets.forEach((o, i) => {
+	f.outlets.forEach((o, i) => {
 		const branches = fed.get(o.id) ?? 0;
-		if (branches === 0) c.add(['design', 'outlets', i], 'This outlet has no branch to feed it');
-		if (branches > 1) c.add(['design', 'outlets', i], 'This outlet is fed by more than one branch');
+		if (branches === 0) c.add([...at, 'outlets', i], 'This outlet has no branch to feed it');
+		if (branches > 1) c.add([...at, 'outlets', i], 'This outlet is fed by more than one branch');
 	});
-	const supply = design.supply;
-	if (supply && !pipeExists(supply.pipe.material, supply.pipe.size)) {
-		c.add(
-			['design', 'supply', 'pipe', 'size'],
-			`${supply.pipe.material} has no ${supply.pipe.size} in size`
-		);
-	}
-	checkUnique(c, design.outlets, ['design', 'outlets']);
-	checkUnique(c, design.branches, ['design', 'branches']);
+	checkSupply(c, f.supply, [...at, 'supply']);
+	checkUnique(c, f.outlets, [...at, 'outlets']);
+	checkUnique(c, f.branches, [...at, 'branches']);
+}
+
+function checkFeatures(c: Collector, design: ParsedDesign) {
+	const ponds = new Set(design.features.filter((f) => f.kind === 'pond').map((f) => f.id));
+	design.features.forEach((f, i) => {
+		const at: Path = ['design', 'features', i];
+		if (f.kind === 'fountain') checkFountain(c, f, at);
+		else if (f.kind === 'pond') {
+			checkSupply(c, f.supply, [...at, 'supply']);
+			for (const e of pondErrors(f)) c.add([...at, ...e.path], e.message);
+		} else {
+			checkSupply(c, f.supply, [...at, 'supply']);
+			for (const e of streamErrors(f)) c.add([...at, ...e.path], e.message);
+			if (f.feedsPondId && !ponds.has(f.feedsPondId)) {
+				c.add([...at, 'feedsPondId'], `No pond "${f.feedsPondId}" in this design`);
+			}
+		}
+	});
+	checkUnique(c, design.features, ['design', 'features']);
+	const features = new Set(design.features.map((f) => f.id));
+	design.stones.forEach((s, i) => {
+		if (s.featureId && !features.has(s.featureId)) {
+			c.add(['design', 'stones', i, 'featureId'], `No feature "${s.featureId}"`);
+		}
+	});
 }
 
 function checkPumps(c: Collector, design: ParsedDesign, catalog: ParsedCatalog) {
@@ -67,16 +94,40 @@ function checkPumps(c: Collector, design: ParsedDesign, catalog: ParsedCatalog) 
 		}
 	});
 	checkUnique(c, catalog.pumps, ['catalog', 'pumps']);
-	if (design.pumpModelId && !catalog.pumps.some((p) => p.id === design.pumpModelId)) {
-		c.add(['design', 'pumpModelId'], `No pump model "${design.pumpModelId}" in the price list`);
-	}
+	design.features.forEach((f, i) => {
+		if (f.pumpModelId && !catalog.pumps.some((p) => p.id === f.pumpModelId)) {
+			c.add(
+				['design', 'features', i, 'pumpModelId'],
+				`No pump model "${f.pumpModelId}" in the price list`
+			);
+		}
+	});
 }
 
 function skuReferences(design: ParsedDesign): [Path, string | undefined][] {
 	const refs: [Path, string | undefined][] = [];
 	const push = (path: Path, sku: string | undefined) => refs.push([['design', ...path], sku]);
-	push(['basin', 'sku'], design.basin?.sku);
-	if (design.basin?.fill.kind === 'gravel') push(['basin', 'fill', 'sku'], design.basin.fill.sku);
+	design.features.forEach((f, i) => {
+		const at = ['features', i];
+		if (f.kind === 'fountain') {
+			push([...at, 'basin', 'sku'], f.basin?.sku);
+			if (f.basin?.fill.kind === 'gravel') push([...at, 'basin', 'fill', 'sku'], f.basin.fill.sku);
+			return;
+		}
+		for (const key of ['linerSku', 'underlaymentSku', 'gravelSku'] as const) {
+			push([...at, key], f[key]);
+		}
+		if (f.kind === 'pond') {
+			for (const key of ['skimmerSku', 'filterSku', 'edgeStoneSku'] as const) {
+				push([...at, key], f[key]);
+			}
+		} else {
+			push([...at, 'weirBoxSku'], f.weirBoxSku);
+			push([...at, 'boulderSku'], f.boulderSku);
+			push([...at, 'reservoir', 'sku'], f.reservoir?.sku);
+			push([...at, 'reservoir', 'fillSku'], f.reservoir?.fillSku);
+		}
+	});
 	design.stones.forEach((s, i) => push(['stones', i, 'sku'], s.sku));
 	design.aggregates.forEach((a, i) => push(['aggregates', i, 'sku'], a.sku));
 	design.walls.forEach((w, i) => {
@@ -133,7 +184,8 @@ function optionReferences(design: ParsedDesign): [Path, string | undefined][] {
 		...design.walls.map((w, i): [Path, string | undefined] => [['walls', i], w.optionId]),
 		...design.extraLines.map((l, i): [Path, string | undefined] => [['extraLines', i], l.optionId]),
 		...design.extraLabor.map((l, i): [Path, string | undefined] => [['extraLabor', i], l.optionId]),
-		[['lighting'], design.lighting?.optionId]
+		[['lighting'], design.lighting?.optionId],
+		...design.features.map((f, i): [Path, string | undefined] => [['features', i], f.optionId])
 	];
 }
 
@@ -157,7 +209,7 @@ function checkOptions(c: Collector, design: ParsedDesign) {
 
 export function crossCheck(design: ParsedDesign, catalog: ParsedCatalog): FieldError[] {
 	const c = new Collector();
-	checkWater(c, design);
+	checkFeatures(c, design);
 	checkPumps(c, design, catalog);
 	checkSkus(c, design, catalog);
 	checkLighting(c, design);

@@ -149,7 +149,8 @@ export async function createEstimate(leadId: string, user: SessionUser) {
 	const label = `${found.contact.name} — water feature`;
 	// What the price list cannot supply goes to the staff's timeline, never into the homeowner's scope.
 	const ownDesign = Boolean(notes && typeof notes.design === 'object' && notes.design);
-	const gaps = ownDesign ? '' : starterGapsNote(starterFromCatalog(catalog).notes);
+	const services = found.lead.services ?? [];
+	const gaps = ownDesign ? '' : starterGapsNote(starterFromCatalog(catalog, services).notes);
 	const scope = scopeFromNotes(notes, found.lead.message);
 	return db.transaction(async (tx) => {
 		await tx.execute(sql`select id from leads where id = ${leadId} for update`);
@@ -157,7 +158,7 @@ export async function createEstimate(leadId: string, user: SessionUser) {
 			tx,
 			leadId,
 			user,
-			starterDesign(label, notes, config.engine, catalog),
+			starterDesign(label, notes, config.engine, catalog, services),
 			[],
 			scope
 		);

@@ -88,12 +88,17 @@ export function crewNeededFrom(result: Record<string, unknown>): number {
 }
 
 function isWaterFeature(result: Record<string, unknown>): boolean {
-	return Boolean(result.water) || Boolean(result.basin);
+	const systems = result.systems;
+	return (
+		Boolean(result.water) || Boolean(result.basin) || (Array.isArray(systems) && systems.length > 0)
+	);
 }
 
 const CATEGORY_ORDER = [
 	'stone',
 	'basin',
+	'liner',
+	'filtration',
 	'pump',
 	'pipe',
 	'fitting',

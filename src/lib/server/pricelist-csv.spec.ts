@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import {
 	detectList,
+	itemsToCsv,
 	LABOR_TASKS,
 	laborToCsv,
 	parseCsv,
@@ -21,6 +22,22 @@ describe('price-list CSV', () => {
 			['multi\nline', 'z']
 		]);
 		expect(parseCsv(toCsv(parseCsv(text)))).toEqual(parseCsv(text));
+	});
+	it('carries liner sheet sizes and skimmer and filter ratings both ways', () => {
+		const csv =
+			'sku,name,category,unit,unit_cost,unit_price,sheet_length_ft,sheet_width_ft,sheet_family,rated_flow_gph,rated_volume_gal\n' +
+			'L1,Liner 10 x 15,liner,each,100.00,200.00,15,10,epdm,,\n' +
+			'S1,Skimmer,filtration,each,100.00,200.00,,,,2000,\n';
+		const p = previewCsv(csv);
+		expect(p.ok).toBe(true);
+		expect(p.rows[0].item?.attributes).toEqual({
+			sheetLengthFt: 15,
+			sheetWidthFt: 10,
+			sheetFamily: 'epdm'
+		});
+		expect(p.rows[1].item?.attributes).toEqual({ ratedFlowGph: 2000 });
+		const again = previewCsv(itemsToCsv(p.rows.map((r) => r.item!)));
+		expect(again.rows.map((r) => r.item)).toEqual(p.rows.map((r) => r.item));
 	});
 	it('names missing and unknown columns', () => {
 		const p = previewCsv('sku,name,colour\nA,B,red\n');

@@ -43,7 +43,12 @@ export const CSV_COLUMNS = [
 	'bulk_density_lb_ft3',
 	'bag_volume_ft3',
 	'load_volume_yd3',
-	'increment'
+	'increment',
+	'sheet_length_ft',
+	'sheet_width_ft',
+	'sheet_family',
+	'rated_flow_gph',
+	'rated_volume_gal'
 ] as const;
 
 export interface ItemRecord {
@@ -118,12 +123,17 @@ export function rowToItem(cells: Record<string, string>, line: number): RowResul
 		['bulk_density_lb_ft3', 'bulkDensityLbFt3'],
 		['bag_volume_ft3', 'bagVolumeFt3'],
 		['load_volume_yd3', 'loadVolumeYd3'],
-		['increment', 'increment']
+		['increment', 'increment'],
+		['sheet_length_ft', 'sheetLengthFt'],
+		['sheet_width_ft', 'sheetWidthFt'],
+		['rated_flow_gph', 'ratedFlowGph'],
+		['rated_volume_gal', 'ratedVolumeGal']
 	] as const;
 	for (const [col, key] of numbers) {
 		const n = num(get(col), col, errors);
 		if (n !== undefined) attributes[key] = n;
 	}
+	if (get('sheet_family')) attributes.sheetFamily = get('sheet_family');
 	if (errors.length) return itemRow(line, sku, errors);
 	const item: ItemRecord = {
 		sku,
@@ -318,6 +328,11 @@ export function itemsToCsv(items: ItemRecord[]): string {
 			bagVolumeFt3?: number;
 			loadVolumeYd3?: number;
 			increment?: number;
+			sheetLengthFt?: number;
+			sheetWidthFt?: number;
+			sheetFamily?: string;
+			ratedFlowGph?: number;
+			ratedVolumeGal?: number;
 		};
 		return [
 			i.sku,
@@ -335,7 +350,12 @@ export function itemsToCsv(items: ItemRecord[]): string {
 			String(a.bulkDensityLbFt3 ?? ''),
 			String(a.bagVolumeFt3 ?? ''),
 			String(a.loadVolumeYd3 ?? ''),
-			String(a.increment ?? '')
+			String(a.increment ?? ''),
+			String(a.sheetLengthFt ?? ''),
+			String(a.sheetWidthFt ?? ''),
+			a.sheetFamily ?? '',
+			String(a.ratedFlowGph ?? ''),
+			String(a.ratedVolumeGal ?? '')
 		];
 	});
 	return toCsv([[...CSV_COLUMNS], ...rows]);

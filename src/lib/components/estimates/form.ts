@@ -31,3 +31,11 @@ export function firstError(err: DesignFormProps['err'], path: string, count: num
 	}
 	return undefined;
 }
+
+/** What the form of one feature receives: the feature (bound), its place in the design's list. */
+export interface FeatureFormProps<F> {
+	feature: F;
+	index: number;
+	catalog: ParsedCatalog;
+	err: (path: string) => string | undefined;
+}

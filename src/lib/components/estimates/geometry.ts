@@ -2,6 +2,7 @@
 // formulas (aggregate.ts), so the figure shown beside a topping is the one it is priced from.
 import { areaM2 } from '$lib/estimating/aggregate';
 import type { Area } from '$lib/estimating/schema';
+import { edgesCross } from '$lib/estimating/polygon';
 
 const FT2_PER_M2 = 1 / (0.3048 * 0.3048);
 export type Point = readonly [number, number];
@@ -11,34 +12,11 @@ export function areaFt2(area: Area): number {
 	return Number.isFinite(a) ? a * FT2_PER_M2 : 0;
 }
 
-const cross = (o: Point, a: Point, b: Point) =>
-	(a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0]);
-
-function segmentsCross(p1: Point, p2: Point, q1: Point, q2: Point): boolean {
-	const d1 = cross(q1, q2, p1);
-	const d2 = cross(q1, q2, p2);
-	const d3 = cross(p1, p2, q1);
-	const d4 = cross(p1, p2, q2);
-	return ((d1 > 0 && d2 < 0) || (d1 < 0 && d2 > 0)) && ((d3 > 0 && d4 < 0) || (d3 < 0 && d4 > 0));
-}
-
 /**
- * True when two edges that do not share a corner cross: the corners are not in order around the
- * edge, and the shoelace area of such a figure is not the area on the ground.
+ * True when two edges that do not share a corner cross (the engine's own check, so the builder
+ * and the engine agree).
  */
-export function edgesCross(points: readonly Point[]): boolean {
-	const n = points.length;
-	if (n < 4) return false;
-	for (let i = 0; i < n; i++) {
-		for (let j = i + 2; j < n; j++) {
-			if (i === 0 && j === n - 1) continue; // neighbours through the closing edge
-			if (segmentsCross(points[i], points[(i + 1) % n], points[j], points[(j + 1) % n])) {
-				return true;
-			}
-		}
-	}
-	return false;
-}
+export { edgesCross };
 
 export interface Box {
 	minX: number;

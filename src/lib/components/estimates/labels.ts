@@ -46,3 +46,27 @@ export const HOMEOWNER_CAUTIONS = new Set([
 	'open-water',
 	'local-codes'
 ]);
+
+/**
+ * Lines grouped by the feature they belong to, in the design's order, then the parts shared
+ * across the yard (lighting, toppings, walls, extras). One group when nothing names a feature.
+ */
+export function featureGroups<L extends { feature?: string }>(
+	lines: readonly L[],
+	design: { features: readonly { id: string; name: string }[] } | null
+): { key: string; name: string; lines: L[] }[] {
+	const features = design?.features ?? [];
+	const known = new Set(features.map((f) => f.id));
+	const groups = features
+		.map((f) => ({ key: f.id, name: f.name, lines: lines.filter((l) => l.feature === f.id) }))
+		.filter((g) => g.lines.length > 0);
+	const rest = lines.filter((l) => !l.feature || !known.has(l.feature));
+	if (rest.length) {
+		groups.push({
+			key: 'shared',
+			name: groups.length ? 'Around the features' : 'Included',
+			lines: rest
+		});
+	}
+	return groups;
+}

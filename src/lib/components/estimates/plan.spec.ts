@@ -1,6 +1,9 @@
 import { describe, expect, it } from 'vitest';
+import { fountainIn } from '$lib/estimating/testing';
 import { demoDesign, designSchema } from '$lib/estimating';
 import { includedBuckets } from '$lib/estimating/pricing';
+import { yardDesign } from '$lib/estimating/bench';
+import { boxOf } from './geometry';
 import { inclusionFor, planOf } from './plan';
 
 const demo = () => designSchema.parse(demoDesign());
@@ -43,7 +46,7 @@ describe('plan drawing layout', () => {
 
 	it('spreads the outlets along the basin when they outnumber the wetted stones', () => {
 		const design = demo();
-		design.outlets.push({
+		fountainIn(design).outlets.push({
 			id: 'col-4',
 			name: 'Fourth',
 			kind: 'bubbler',
@@ -73,5 +76,35 @@ describe('plan drawing layout', () => {
 		expect(secondLeft).toBeGreaterThan(firstRight);
 		expect(plan.box.maxX).toBeGreaterThanOrEqual(Math.max(...second.points.map((p) => p[0])));
 		expect(plan.toppings[0].areaFt2).toBeCloseTo(48 + 15, 9);
+	});
+});
+
+describe('every feature is drawn', () => {
+	it('a pond, a three-fall stream with its reservoir, and the fountain, each to scale', () => {
+		const yard = designSchema.parse(yardDesign());
+		const plan = planOf(yard, inclusionFor(yard, new Set()));
+		expect(plan.basin?.label).toBe('Basin 6 × 4 ft');
+		expect(plan.features.map((f) => f.kind)).toEqual(['pond', 'stream']);
+		const [pond, stream] = plan.features;
+		expect(pond.detail).toBe('oval 12 × 8 ft, 30 in at the deepest, 3 depth zones');
+		// Three 8 ft segments and a 6 ft reservoir: four outlines, a bar at each of the three falls.
+		expect(stream.shapes).toHaveLength(4);
+		expect(stream.falls).toHaveLength(3);
+		const box = boxOf(stream.shapes[0]);
+		expect(box.maxX - box.minX).toBeCloseTo(8, 10);
+		// Nothing overlaps: each feature starts right of the one before.
+		expect(boxOf(stream.shapes.flat()).minX).toBeGreaterThan(boxOf(pond.shapes[0]).maxX);
+	});
+
+	it('a whole feature that is an option not taken is drawn dotted; one left out is not drawn', () => {
+		const yard = designSchema.parse({
+			...yardDesign(),
+			options: [{ id: 'pond-option', name: 'Pond', selected: false }]
+		});
+		yard.features[0].optionId = 'pond-option';
+		const plan = planOf(yard, inclusionFor(yard, new Set()));
+		expect(plan.features.find((f) => f.kind === 'pond')?.optional).toBe(true);
+		const chosen = planOf(yard, inclusionFor(yard, new Set(['pond-option'])));
+		expect(chosen.features.find((f) => f.kind === 'pond')?.optional).toBe(false);
 	});
 });

@@ -1,9 +1,11 @@
 // The plan drawing's layout, in feet, from the design alone. The design has sizes but no
-// positions, so the layout is a fixed arrangement: the basin in the middle with the wetted stones
-// (and their outlets) along it, dry stones in front, the toppings centred on it and beside it, walls
-// behind. Sizes are to scale; positions only show what goes where.
+// positions, so the layout is a fixed arrangement: the first fountain's basin in the middle with the
+// wetted stones (and their outlets) along it, dry stones in front, the toppings centred on it and
+// beside it, the other features (ponds, streams with their falls and reservoirs, more basins) to the
+// right, walls behind. Sizes are to scale; positions only show what goes where.
 import type { ParsedDesign } from '$lib/estimating';
-import type { Area, Stone } from '$lib/estimating/schema';
+import type { Area, Feature, Fountain, Stone } from '$lib/estimating/schema';
+import { pondPlan } from '$lib/estimating/pond';
 import { areaFt2, boxOf, outline, type Box, type Point } from './geometry';
 
 const GAL_PER_FT3 = 7.48052; // US gallons in a cubic foot (exact by definition of the gallon)
@@ -39,8 +41,22 @@ export interface PlanRun {
 	transformer: string;
 	fixtures: { n: number; name: string; distanceFt: number }[];
 }
+/** A feature drawn beside the first fountain: a pond, a stream, or another fountain's basin. */
+export interface PlanFeature {
+	key: string;
+	kind: Feature['kind'];
+	name: string;
+	/** The outline (a pond, a basin) or the stream's segments and reservoir, each a polygon. */
+	shapes: Point[][];
+	/** Short marks across the stream where it falls. */
+	falls: [Point, Point][];
+	label: string;
+	detail: string;
+	optional: boolean;
+}
 export interface Plan {
 	basin?: { points: Point[]; label: string; detail: string };
+	features: PlanFeature[];
 	areas: PlanArea[];
 	toppings: PlanTopping[];
 	stones: { points: Point[]; optional: boolean }[];
@@ -98,8 +114,8 @@ export function footprint(size: Stone['size']): Point[] {
 	}
 }
 
-function basinOf(design: ParsedDesign) {
-	const b = design.basin;
+function basinOf(fountain: Fountain | undefined) {
+	const b = fountain?.basin;
 	if (!b) return undefined;
 	const s = b.size;
 	const depth = `${fmt(s.depthFt)} ft deep`;
@@ -154,10 +170,14 @@ function stonesOf(design: ParsedDesign, include: Inclusion, basinBox: Box | unde
 }
 
 /** An outlet per wetted stone when the counts match; otherwise evenly along the basin. */
-function outletsOf(design: ParsedDesign, wetAt: readonly Point[], span: number): PlanMarker[] {
-	const n = design.outlets.length;
+function outletsOf(
+	outlets: Fountain['outlets'],
+	wetAt: readonly Point[],
+	span: number
+): PlanMarker[] {
+	const n = outlets.length;
 	const even = (i: number) => [-span / 2 + (span / (n + 1)) * (i + 1), 0] as const;
-	return design.outlets.map((o, i) => {
+	return outlets.map((o, i) => {
 		const detail =
 			o.kind === 'bubbler'
 				? `bubbler, ${fmt(o.bubbleHeightIn)} in high`
@@ -231,13 +251,112 @@ function runsOf(design: ParsedDesign): PlanRun[] {
 	}));
 }
 
+/** Ponds, streams and further fountains, each laid out to scale from its own origin. */
+function featureShape(f: Feature): Omit<PlanFeature, 'key' | 'optional'> | undefined {
+	if (f.kind === 'pond') {
+		const o = f.outline;
+		const plan = pondPlan(o);
+		const deepest = Math.max(...f.zones.map((z) => z.depthIn));
+		const points =
+			o.shape === 'polygon'
+				? o.pointsFt.map(([x, y]) => [x, y] as const)
+				: o.shape === 'oval'
+					? ellipse(o.lengthFt, o.widthFt)
+					: rect(o.lengthFt, o.widthFt);
+		const size =
+			o.shape === 'polygon'
+				? `${o.pointsFt.length} corners, ${fmt(plan.lengthFt)} × ${fmt(plan.widthFt)} ft across`
+				: `${o.shape === 'oval' ? 'oval' : 'rectangle'} ${fmt(o.lengthFt)} × ${fmt(o.widthFt)} ft`;
+		return {
+			kind: 'pond',
+			name: f.name,
+			shapes: [points],
+			falls: [],
+			label: f.name,
+			detail: `${size}, ${fmt(deepest)} in at the deepest, ${f.zones.length} depth zone${f.zones.length === 1 ? '' : 's'}`
+		};
+	}
+	if (f.kind === 'stream') {
+		const shapes: Point[][] = [];
+		const falls: [Point, Point][] = [];
+		let x = 0;
+		for (const seg of f.segments) {
+			shapes.push(shift(rect(seg.lengthFt, seg.widthFt), x + seg.lengthFt / 2, 0));
+			x += seg.lengthFt;
+			if (seg.fallHeightIn > 0) {
+				falls.push([
+					[x, -seg.widthFt / 2 - 0.4],
+					[x, seg.widthFt / 2 + 0.4]
+				]);
+			}
+		}
+		if (f.reservoir) {
+			const r = f.reservoir;
+			shapes.push(shift(rect(r.lengthFt, r.widthFt), x + GAP_FT / 2 + r.lengthFt / 2, 0));
+		}
+		const length = f.segments.reduce((s, seg) => s + seg.lengthFt, 0);
+		return {
+			kind: 'stream',
+			name: f.name,
+			shapes,
+			falls,
+			label: f.name,
+			detail: `${fmt(length)} ft long over ${falls.length} fall${falls.length === 1 ? '' : 's'}, rising ${fmt(f.riseFt)} ft; ${f.reservoir ? `reservoir ${fmt(f.reservoir.lengthFt)} × ${fmt(f.reservoir.widthFt)} ft` : 'falls into the pond'}`
+		};
+	}
+	const basin = basinOf(f);
+	if (!basin) return undefined;
+	return {
+		kind: 'fountain',
+		name: f.name,
+		shapes: [basin.points],
+		falls: [],
+		label: f.name,
+		detail: `${basin.label}, ${basin.detail}, ${f.outlets.length} outlet${f.outlets.length === 1 ? '' : 's'}`
+	};
+}
+
+/** The other features, left to right beside the first fountain's drawing. */
+function featuresBeside(
+	features: readonly Feature[],
+	include: Inclusion,
+	startX: number
+): PlanFeature[] {
+	let cursor = startX;
+	return features.flatMap((f, i) => {
+		const how = include(f.optionId);
+		const shape = how === 'out' ? undefined : featureShape(f);
+		if (!shape) return [];
+		const box = boxOf(shape.shapes.flat());
+		const dx = cursor + GAP_FT * 2 - box.minX;
+		const dy = -(box.minY + box.maxY) / 2;
+		cursor = box.maxX + dx;
+		return [
+			{
+				...shape,
+				key: `${f.id}-${i}`,
+				shapes: shape.shapes.map((pts) => shift(pts, dx, dy)),
+				falls: shape.falls.map(([a, b]) => [
+					[a[0] + dx, a[1] + dy],
+					[b[0] + dx, b[1] + dy]
+				]),
+				optional: how === 'option'
+			}
+		];
+	});
+}
+
 export function planOf(design: ParsedDesign, include: Inclusion): Plan {
-	const basin = basinOf(design);
+	const fountain = design.features.find(
+		(f): f is Fountain => f.kind === 'fountain' && include(f.optionId) === 'in'
+	);
+	const basin = basinOf(fountain);
 	const basinBox = basin ? boxOf(basin.points) : undefined;
 	const stones = stonesOf(design, include, basinBox);
-	const span = basinBox ? basinBox.maxX - basinBox.minX : Math.max(design.outlets.length, 2);
+	const fountainOutlets = fountain?.outlets ?? [];
+	const span = basinBox ? basinBox.maxX - basinBox.minX : Math.max(fountainOutlets.length, 2);
 	const outlets = outletsOf(
-		design,
+		fountainOutlets,
 		stones.wet.map((s) => s.at),
 		span
 	);
@@ -248,12 +367,20 @@ export function planOf(design: ParsedDesign, include: Inclusion): Plan {
 		...[...stones.wet, ...stones.dry].flatMap((s) => s.points),
 		...outlets.map((o) => o.at)
 	];
-	const top = everything.length ? boxOf(everything).minY : 0;
+	const right = everything.length ? boxOf(everything).maxX : -GAP_FT * 2;
+	const features = featuresBeside(
+		design.features.filter((f) => f !== fountain),
+		include,
+		right
+	);
+	const drawn = [...everything, ...features.flatMap((f) => f.shapes.flat())];
+	const top = drawn.length ? boxOf(drawn).minY : 0;
 	const walls = wallsOf(design, include, top);
-	const all = [...everything, ...walls.flatMap((w) => w.points)];
+	const all = [...drawn, ...walls.flatMap((w) => w.points)];
 	const kept = design.stones.filter((s) => include(s.optionId) !== 'out');
 	return {
 		basin,
+		features,
 		areas,
 		toppings,
 		stones: [...stones.wet, ...stones.dry].map((s) => ({ points: s.points, optional: s.optional })),

@@ -8,7 +8,7 @@ import {
 	leadWithContact,
 	openByToken
 } from '$lib/server/estimates';
-import { designSchema } from '$lib/estimating';
+import { readDesign } from '$lib/estimating';
 import { yardPhotos } from '$lib/server/estimate-photos';
 import { estimatingConfig } from '$lib/server/pricelist';
 import { firmSettings } from '$lib/server/settings';
@@ -54,7 +54,7 @@ export const load: PageServerLoad = async ({ params }) => {
 		estimatingConfig(),
 		yardPhotos(view.estimate.leadId)
 	]);
-	const design = designSchema.safeParse(view.estimate.design);
+	const design = readDesign(view.estimate.design);
 	return {
 		brand,
 		view: {
@@ -69,6 +69,7 @@ export const load: PageServerLoad = async ({ params }) => {
 			lines: priced.lines.map((l) => ({
 				key: l.key,
 				bucket: l.bucket,
+				feature: l.feature,
 				name: l.name,
 				quantity: l.quantity,
 				unit: l.unit,
