@@ -1,7 +1,7 @@
 // The body hook on its own: chunked bodies are counted as they stream and cut off at the route's
 // limit with its message; bodies within the limit reach the route whole (through a temp file for
 // the large limits); a declared length over the limit is refused before anything is read.
-import { readdirSync } from 'node:fs';
+import { readdirSync, readlinkSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { describe, expect, it, vi } from 'vitest';
 import { handleBody } from '$lib/server/hooks/body';
@@ -39,6 +39,16 @@ function event(
 		})
 	};
 }
+
+/** What this process's file descriptors point at (Linux). */
+const openFiles = () =>
+	readdirSync('/proc/self/fd').map((fd) => {
+		try {
+			return readlinkSync(`/proc/self/fd/${fd}`);
+		} catch {
+			return '';
+		}
+	});
 
 const spools = () => readdirSync(tmpdir()).filter((f) => f.startsWith('rillstone-body-')).length;
 
@@ -86,6 +96,27 @@ describe('request body limits', () => {
 		expect(received).toBe(12 * MB);
 		expect(allNines).toBe(true);
 		expect(spools()).toBe(before);
+	});
+
+	it('closes and removes the temp file when the route never reads the body', async () => {
+		const before = spools();
+		const { stream } = chunked(3 * MB);
+		let spoolPath = '';
+		const res = await handleBody({
+			event: event('/start', stream),
+			resolve: async () => {
+				await new Promise((r) => setTimeout(r, 50));
+				spoolPath = openFiles().find((p) => p.includes('rillstone-body-')) ?? '';
+				return new Response(null, { status: 303, headers: { location: '/sign-in' } });
+			}
+		} as never);
+		expect(res.status).toBe(303);
+		expect(spools()).toBe(before);
+		// The spool file was open while the route ran, and no descriptor is left on it after.
+		expect(spoolPath).toContain('rillstone-body-');
+		await vi.waitFor(() =>
+			expect(openFiles().filter((p) => p.includes('rillstone-body-'))).toEqual([])
+		);
 	});
 
 	it('answers a declared length over the limit at once, then drains the body so the connection stays usable', async () => {
