@@ -8,9 +8,10 @@
 //   properties and users;
 // - the stage facets come from the trigger-kept `lead_counts` when only stage, assignee, budget
 //   or "awaiting" filter the list, and are counted exactly (through the indexes) otherwise;
-// - a search first collects its matches once, through the trigram index (a materialised CTE, so
-//   the planner cannot turn it into a walk of the newest leads), and both the page and the facets
-//   are taken from that set.
+// - a search first collects its matches once (a materialised CTE, so the planner cannot turn it
+//   into a walk of the newest leads): words through the full-text GIN index of search_words, other
+//   fragments through the trigram index of search_text (searchParts); both the page and the
+//   facets are taken from that set.
 import { BUDGETS, STAGES, type LeadQuery, type Stage } from '../schema/leads';
 
 /** Days are the firm's days: the time zone comes from the settings row, inside the query. */
