@@ -4,13 +4,7 @@
 // who changed it and when, so two people never silently overwrite each other.
 import { and, asc, eq, inArray, isNull, sql } from 'drizzle-orm';
 import { STAGES, type LeadQuery, type Stage } from '$lib/schema/leads';
-import {
-	assembleList,
-	listSql,
-	searchParts,
-	type LeadList,
-	type ListContext
-} from './leads-sql';
+import { assembleList, listSql, searchParts, type LeadList, type ListContext } from './leads-sql';
 import { formatWhen } from '$lib/components/leads/format';
 import { client, db } from './db';
 import { activities, contacts, leads, photos, properties, users, type Lead } from './db/schema';

@@ -25,11 +25,7 @@ describe('requestPath: the path the role table sees is the one the router matche
 	});
 
 	it('gives crew no way around the owner-only rule', () => {
-		for (const raw of [
-			'/office/%74eam',
-			'//office/team',
-			'/office/jobs/../team'
-		]) {
+		for (const raw of ['/office/%74eam', '//office/team', '/office/jobs/../team']) {
 			expect(rolesFor(requestPath(raw)!), raw).toEqual(['owner']);
 		}
 	});

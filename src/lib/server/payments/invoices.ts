@@ -21,7 +21,6 @@ import { firmOn } from './mail';
 import { jobRef, type Tx } from '../jobsite';
 import { DEPOSIT_TERMS_DAYS, FINAL_TERMS_DAYS, jobMoney, lockJob, paymentsOf } from './ledger';
 
-
 async function nextNumber(tx: Tx): Promise<number> {
 	const [row] = await tx
 		.insert(invoiceCounter)
