@@ -35,7 +35,10 @@ async function startApp(port: number): Promise<{ url: string; child: ChildProces
 				PUBLIC_ORIGIN: url,
 				NODE_ENV: 'production',
 				ADDRESS_HEADER: 'x-forwarded-for',
-				XFF_DEPTH: '1'
+				XFF_DEPTH: '1',
+				// A session cache that outlives every test here: a session that ends shows on the
+				// other process only because it was told (NOTIFY), never because its entry expired.
+				SESSION_CACHE_MS: String(10 * 60 * 1000)
 			},
 			stdio: ['ignore', 'inherit', 'inherit']
 		}
@@ -97,20 +100,29 @@ test('sign-in throttling counts failures from both processes, and a known device
 	expect(first.status).toBe(303);
 	const device = first.cookies.find((c) => c.startsWith('rs_device='))!;
 	expect(device).toBeTruthy();
-	// Three wrong passwords, spread over both processes, from an attacker's address.
+	// Six wrong passwords, alternating between the processes, from an attacker's address; each
+	// one told to wait is sent again after the wait it named. Six failures make the next delay
+	// 8 s (1 s after the third, doubling), long enough for a loaded machine to check it below.
 	const attacker = ip();
-	for (const app of [a, b, a]) {
-		expect((await signIn(app.url, email, 'wrong guess', attacker)).status).toBe(400);
+	for (const app of [a, b, a, b, a, b]) {
+		for (;;) {
+			const guess = await signIn(app.url, email, 'wrong guess', attacker);
+			if (guess.status === 400) break;
+			expect(guess.status).toBe(429);
+			const seconds = Number(/Wait (\d+) seconds?/.exec(guess.text)?.[1]);
+			expect(seconds).toBeGreaterThan(0);
+			await new Promise((r) => setTimeout(r, seconds * 1000));
+		}
 	}
-	// A new device on B is delayed by the count that A helped build, with the wait named.
-	const fresh = await signIn(b.url, email, PASSWORD, ip());
+	// A new device on A is delayed by the count that both built, with the wait named.
+	const fresh = await signIn(a.url, email, PASSWORD, ip());
 	expect(fresh.status).toBe(429);
 	expect(fresh.text).toMatch(/Wait \d+ seconds?/);
 	// The known device is not held up, on either process.
 	expect((await signIn(b.url, email, PASSWORD, ip(), device)).status).toBe(303);
 });
 
-test('a disabled member is refused by both processes within the session cache lifetime', async ({
+test('a disabled member is refused by both processes, long before the session cache expires', async ({
 	baseURL
 }) => {
 	const [a, b] = apps;
@@ -139,15 +151,14 @@ test('a disabled member is refused by both processes within the session cache li
 	});
 	expect((await disabled.json()).type).toBe('success');
 	const at = Date.now();
-	// B refuses at once, well inside the five-second cache lifetime (it was told through NOTIFY).
+	// B refuses although its cached entry has minutes left: it was told through NOTIFY.
 	let status = 0;
-	while (Date.now() - at < 4000) {
+	while (Date.now() - at < 20_000) {
 		status = (await rawRequest(b.url, '/office', { cookie: session })).status;
 		if (status === 303) break;
 		await new Promise((r) => setTimeout(r, 50));
 	}
 	expect(status).toBe(303);
-	expect(Date.now() - at).toBeLessThan(1000);
 	expect((await rawRequest(a.url, '/office', { cookie: session })).status).toBe(303);
 	expect(baseURL).toBeTruthy();
 });

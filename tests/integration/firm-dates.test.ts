@@ -7,6 +7,7 @@ import { db } from '$lib/server/db';
 import { jobs, payments, settings } from '$lib/server/db/schema';
 import { firmToday } from '$lib/server/settings';
 import { DEPOSIT_TERMS_DAYS, insertPayment, lockJob } from '$lib/server/payments/ledger';
+import { ensureInvoice } from '$lib/server/payments/invoices';
 import { openBalances } from '$lib/server/payments/balances';
 import { addDays } from '$lib/scheduling/zone';
 import { stopQueue } from '$lib/server/queue';
@@ -60,5 +61,12 @@ describe('dates at 23:30 firm time (America/Denver)', () => {
 		const [balance] = await openBalances(EVENING);
 		expect(balance.dueOn).toBe(addDays('2027-03-10', DEPOSIT_TERMS_DAYS));
 		expect(balance.daysOverdue).toBe(0);
+	});
+
+	it("an invoice issued in the firm's evening is due counted from the firm's date", async () => {
+		await makeUser('owner');
+		const { job } = await makePaymentJob();
+		const invoice = await ensureInvoice(job.id, 'deposit');
+		expect(invoice.dueOn).toBe(addDays('2027-03-10', DEPOSIT_TERMS_DAYS));
 	});
 });

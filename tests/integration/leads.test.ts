@@ -252,6 +252,15 @@ describe('GET /api/leads: search', () => {
 		expect(names(await list('q=brookstone&service=pond&service=water-feature'))).toEqual(['Ada']);
 	});
 
+	it('finds a word that is only part of an e-mail address, such as its mail domain', async () => {
+		await makeLead({ name: 'Hal Ostrander', email: 'hal.o@quarrymail.example' });
+		expect(names(await list('q=quarrymail'))).toEqual(['Hal']);
+		expect(names(await list('q=ostrander quarrymail'))).toEqual(['Hal']);
+		// A word that begins a word of some lead is still matched only that way.
+		expect(names(await list('q=brook'))).toEqual(['Ada']);
+		expect(names(await list('q=quarrymail patio'))).toEqual([]);
+	});
+
 	it('answers words from the full-text index and fragments from the trigram index', async () => {
 		const plan = async (search: string) => {
 			const q = parseLeadQuery(new URLSearchParams(search));

@@ -81,6 +81,37 @@ describe('sign-in throttling without lock-out', () => {
 		});
 	});
 
+	it('wrong passwords sent all at once get no more password checks than the free count', async () => {
+		const user = await makeUser('crew');
+		const t0 = Date.now();
+		const results = await Promise.all(
+			Array.from({ length: 12 }, (_, i) =>
+				attemptSignIn(user.email, `parallel guess ${i}`, '10.8.0.1', undefined, t0)
+			)
+		);
+		const answered = results.filter((r) => !r.ok && r.reason === 'mismatch');
+		expect(answered.length).toBeLessThanOrEqual(THROTTLE.perAccount);
+		expect(results.filter((r) => !r.ok && r.reason === 'throttled')).toHaveLength(
+			12 - answered.length
+		);
+		// The right password right after is told to wait too, not checked.
+		expect(await attemptSignIn(user.email, PASSWORD, '10.8.0.2', undefined, t0 + 1)).toMatchObject({
+			reason: 'throttled'
+		});
+	});
+
+	it('a right password from an unknown device does not count as a failure', async () => {
+		const user = await makeUser('crew');
+		const t0 = Date.now();
+		for (let i = 0; i < 5; i++) {
+			expect(await attemptSignIn(user.email, PASSWORD, '10.9.0.1', undefined, t0 + i)).toEqual({
+				ok: true,
+				userId: user.id
+			});
+		}
+		expect(await waitFor({ email: user.email, ip: '10.9.0.1' }, t0 + 5)).toBe(0);
+	});
+
 	it('attempts refused during a delay do not add to it', async () => {
 		const user = await makeUser('crew');
 		const t0 = Date.now();

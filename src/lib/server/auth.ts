@@ -87,9 +87,17 @@ type ValidSession = { user: SessionUser; session: SessionInfo };
  * session ends in this app (sign-out, sign-in over it, role change, disabling, password reset)
  * goes through endSession/endAllSessionsOf/forgetSessionsOf below, which drop the entries here
  * and tell every other app process through PostgreSQL (NOTIFY on SESSION_CHANNEL; each process
- * LISTENs). A process that is not listening (yet, or after losing its connection) caches nothing.
+ * LISTENs). A process caches nothing until its LISTEN first succeeds. postgres.js gives no sign
+ * when that connection drops: it reconnects, and the cache is emptied then (onlisten below), but
+ * a session ended elsewhere while it was down may be trusted here for up to the cache lifetime.
  */
-const SESSION_CACHE_MS = 5_000;
+/** How long a validated session is trusted without asking the database: 5 s, or SESSION_CACHE_MS. */
+const SESSION_CACHE_MS = cacheLifetime(process.env.SESSION_CACHE_MS);
+
+function cacheLifetime(setting: string | undefined): number {
+	const ms = Number(setting);
+	return setting && Number.isInteger(ms) && ms >= 0 ? ms : 5_000;
+}
 const SESSION_CACHE_MAX = 5_000;
 const SESSION_CHANNEL = 'rillstone_sessions';
 const recentSessions = new Map<string, { until: number; value: ValidSession }>();

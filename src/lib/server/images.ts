@@ -111,7 +111,7 @@ async function inTurn<T>(work: () => Promise<T>): Promise<T> {
 
 /**
  * Turns an image as the EXIF orientation tag (1–8) says, as sharp's autoOrient does (checked
- * against it for every tag in tests/integration/intake-images.test.ts). sharp mirrors before it
+ * against it for every tag in src/lib/server/images.spec.ts). sharp mirrors before it
  * rotates.
  */
 function orient(image: sharp.Sharp, orientation: number | undefined): sharp.Sharp {

@@ -8,9 +8,10 @@
 //   properties and users;
 // - the stage facets come from the trigger-kept `lead_counts` when only stage, assignee, budget
 //   or "awaiting" filter the list, and are counted exactly (through the indexes) otherwise;
-// - a search first collects its matches once, through the trigram index (a materialised CTE, so
-//   the planner cannot turn it into a walk of the newest leads), and both the page and the facets
-//   are taken from that set.
+// - a search first collects its matches once (a materialised CTE, so the planner cannot turn it
+//   into a walk of the newest leads): words through the full-text GIN index of search_words, other
+//   fragments through the trigram index of search_text (searchParts); both the page and the
+//   facets are taken from that set.
 import { BUDGETS, STAGES, type LeadQuery, type Stage } from '../schema/leads';
 
 /** Days are the firm's days: the time zone comes from the settings row, inside the query. */
@@ -92,12 +93,18 @@ const WORD = /^[\p{L}\p{M}]+(?:['’-][\p{L}\p{M}]+)*$/u;
  * search: each of its parts must begin a word of the lead (`search_words`, accents ignored), all
  * of them in one tsquery. Anything else (digits, "@", ".", "%"…: phone numbers and e-mail
  * fragments) must appear as typed in `search_text`, through the trigram index.
+ * With `asTyped`, every term is a fragment: the second try of a word search that found nothing,
+ * for words that are only part of a token of the simple parser, such as the "gmail" of an
+ * e-mail address (listLeads).
  */
-export function searchParts(q: string | undefined): { words: string | null; fragments: string[] } {
+export function searchParts(
+	q: string | undefined,
+	asTyped = false
+): { words: string | null; fragments: string[] } {
 	const words: string[] = [];
 	const fragments: string[] = [];
 	for (const term of searchTerms(q)) {
-		if (WORD.test(term)) words.push(...term.split(/['’-]/).map((part) => `${part}:*`));
+		if (!asTyped && WORD.test(term)) words.push(...term.split(/['’-]/).map((part) => `${part}:*`));
 		else fragments.push(term);
 	}
 	return { words: words.length ? words.join(' & ') : null, fragments };
@@ -116,9 +123,15 @@ const stageClause = (q: LeadQuery, p: Params, alias: string) =>
 	`${alias}.stage = any(${p.add(q.stage)}::lead_stage[])`;
 
 /** The filters other than stage, on leads `l`. */
-function filterClauses(q: LeadQuery, ctx: ListContext, p: Params, search = true): string[] {
+function filterClauses(
+	q: LeadQuery,
+	ctx: ListContext,
+	p: Params,
+	search = true,
+	asTyped = false
+): string[] {
 	const clauses: string[] = [];
-	const words = search ? searchParts(q.q).words : null;
+	const words = search ? searchParts(q.q, asTyped).words : null;
 	if (q.service.length && !words) clauses.push(`l.services && ${p.add(q.service)}::text[]`);
 	if (q.budget.length) clauses.push(`l.budget = any(${p.add(q.budget)}::text[])`);
 	if (q.assignee === 'mine') clauses.push(`l.assignee_id = ${p.add(ctx.userId)}`);
@@ -142,7 +155,7 @@ function filterClauses(q: LeadQuery, ctx: ListContext, p: Params, search = true)
 					: `l.search_words @@ ${tsquery}`
 			);
 		}
-		for (const term of searchParts(q.q).fragments) {
+		for (const term of searchParts(q.q, asTyped).fragments) {
 			clauses.push(`l.search_text like ${p.add(`%${escapeLike(term)}%`)}`);
 		}
 	}
@@ -168,7 +181,7 @@ function countedFacets(q: LeadQuery, ctx: ListContext, p: Params): string | null
  * (`_facets`) and its sort key (`_k`); a single row of nulls with the facets when the page is empty.
  * Facets count every stage under the other filters, so the stage chips show what a click gives.
  */
-export function listSql(q: LeadQuery, ctx: ListContext): Statement {
+export function listSql(q: LeadQuery, ctx: ListContext, asTyped = false): Statement {
 	const p = new Params();
 	const dir = q.dir === 'asc' ? 'asc' : 'desc';
 	// Parameters, not literals: the statement's text stays the same from page to page, so one
@@ -177,7 +190,7 @@ export function listSql(q: LeadQuery, ctx: ListContext): Statement {
 	const key = SORT_SQL[q.sort];
 	let ctes: string;
 	if (searchTerms(q.q).length) {
-		const matches = filterClauses(q, ctx, p);
+		const matches = filterClauses(q, ctx, p, true, asTyped);
 		const stage = q.stage.length ? `where ${stageClause(q, p, 'm')}` : '';
 		ctes = `m as materialized (
 		select l.id, l.stage, l.number, ${key} as k from leads l ${where(matches)}

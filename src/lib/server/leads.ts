@@ -4,7 +4,7 @@
 // who changed it and when, so two people never silently overwrite each other.
 import { and, asc, eq, inArray, isNull, sql } from 'drizzle-orm';
 import { STAGES, type LeadQuery, type Stage } from '$lib/schema/leads';
-import { assembleList, listSql, type LeadList, type ListContext } from './leads-sql';
+import { assembleList, listSql, searchParts, type LeadList, type ListContext } from './leads-sql';
 import { formatWhen } from '$lib/components/leads/format';
 import { client, db } from './db';
 import { activities, contacts, leads, photos, properties, users, type Lead } from './db/schema';
@@ -27,8 +27,17 @@ export {
 type Param = Parameters<typeof client.unsafe>[1];
 
 export async function listLeads(q: LeadQuery, ctx: ListContext): Promise<LeadList> {
-	const s = listSql(q, ctx);
-	return assembleList(q, await client.unsafe(s.text, s.params as Param, { prepare: true }));
+	const run = async (asTyped: boolean) => {
+		const s = listSql(q, ctx, asTyped);
+		return assembleList(q, await client.unsafe(s.text, s.params as Param, { prepare: true }));
+	};
+	const list = await run(false);
+	// The word search knows whole tokens only, and keeps an e-mail address as one: the "gmail"
+	// of "ada@gmail.example" is no word of it. When the words find
+	// no lead in any stage, the terms are looked for as typed in the search text instead.
+	const found = Object.values(list.facets).some((n) => n > 0);
+	if (found || !searchParts(q.q).words) return list;
+	return run(true);
 }
 
 // --- one lead ----------------------------------------------------------------------------------

@@ -10,7 +10,3 @@ export const LINK_PAGE_HEADERS = {
 	'x-robots-tag': 'noindex',
 	'referrer-policy': 'same-origin'
 } as const;
-
-/** Route ids of the link pages: the `(homeowner)` group. */
-export const isLinkRoute = (routeId: string | null) =>
-	routeId?.startsWith('/(homeowner)/') ?? false;

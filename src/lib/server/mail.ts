@@ -11,7 +11,10 @@ function transporter(): Transporter {
 		secure: env.SMTP_SECURE === 'true',
 		auth: env.SMTP_USER ? { user: env.SMTP_USER, pass: env.SMTP_PASS ?? '' } : undefined,
 		connectionTimeout: 5000,
-		greetingTimeout: 5000
+		greetingTimeout: 5000,
+		// A server that stops answering mid-message must not hold the outbox row (locked while
+		// it is sent) for nodemailer's default ten minutes: give up after 30 s and retry later.
+		socketTimeout: Number(env.SMTP_SOCKET_TIMEOUT_MS ?? 30_000)
 	});
 	return transport;
 }

@@ -13,17 +13,19 @@ describe('requestPath: the path the role table sees is the one the router matche
 		expect(requestPath('/office/./team')).toBe('/office/team');
 		expect(requestPath('/office/jobs/../team')).toBe('/office/team');
 		expect(requestPath('/%2e%2e/office/team')).toBe('/office/team');
-		expect(requestPath('/office%2Fteam')).toBe('/office/team');
 		expect(requestPath('/office/team/')).toBe('/office/team/');
 	});
 
+	it('decodes as the router does: %25 stays, and an encoded / or \\ is refused (null)', () => {
+		expect(requestPath('/office/%2574eam')).toBe('/office/%2574eam');
+		expect(requestPath('/office%2Fteam')).toBeNull();
+		expect(requestPath('/office%2fteam')).toBeNull();
+		expect(requestPath('/office/payments/x%2F..%2F..%2Fjobs')).toBeNull();
+		expect(requestPath('/office%5Cteam')).toBeNull();
+	});
+
 	it('gives crew no way around the owner-only rule', () => {
-		for (const raw of [
-			'/office/%74eam',
-			'//office/team',
-			'/office/jobs/../team',
-			'/office%2fteam'
-		]) {
+		for (const raw of ['/office/%74eam', '//office/team', '/office/jobs/../team']) {
 			expect(rolesFor(requestPath(raw)!), raw).toEqual(['owner']);
 		}
 	});

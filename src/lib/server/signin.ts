@@ -2,7 +2,7 @@ import type { Cookies } from '@sveltejs/kit';
 import { createSession, endSession, findUserByEmail } from './auth';
 import { knownDevice } from './device';
 import { verifyAgainstDummy, verifyPassword } from './passwords';
-import { clearThrottle, deviceKey, recordAttempt, recordFailure, waitFor } from './throttle';
+import { claimAttempt, clearThrottle, deviceKey, recordAttempt, refundAttempt } from './throttle';
 
 export type SignInResult =
 	| { ok: true; userId: string }
@@ -24,18 +24,17 @@ export async function attemptSignIn(
 	const user = await findUserByEmail(email);
 	const device = knownDevice(deviceCookie, user?.id ?? null);
 	const scope = device ? { device } : { email, ip };
-	const wait = await waitFor(scope, now);
+	// Counted before the (slow) password check, so attempts sent in parallel can't all pass.
+	const wait = await claimAttempt(scope, now);
 	if (wait > 0) return { ok: false, reason: 'throttled', seconds: Math.ceil(wait / 1000) };
 	const matches = user
 		? await verifyPassword(user.passwordHash, password)
 		: await verifyAgainstDummy(password);
 	const ok = matches && !!user && !user.disabledAt;
 	await recordAttempt(email, ip, ok);
-	if (!ok) {
-		await recordFailure(scope, now);
-		return { ok: false, reason: 'mismatch' };
-	}
+	if (!ok) return { ok: false, reason: 'mismatch' };
 	if (device) await clearThrottle([deviceKey(device)]);
+	else await refundAttempt(scope);
 	return { ok: true, userId: user.id };
 }
 

@@ -5,7 +5,7 @@
 // account and per address, and never grows past a minute. Nothing is ever refused for longer.
 // The counts live in PostgreSQL, so every app process sees the same ones.
 // Numbers: common practice, no source (the cheat sheet asks for growing delays, not values).
-import { inArray, sql } from 'drizzle-orm';
+import { eq, inArray, sql } from 'drizzle-orm';
 import { db } from './db';
 import { signInAttempts, signInThrottles } from './db/schema';
 
@@ -47,7 +47,10 @@ function keysOf(scope: ThrottleScope): { key: string; free: number }[] {
 	];
 }
 
-/** Milliseconds until the next attempt is allowed, or 0 when one is allowed now. */
+/**
+ * Milliseconds until the next attempt is allowed, or 0 when one is allowed now. Reads only;
+ * the sign-in itself uses `claimAttempt`, which checks and counts in one step.
+ */
 export async function waitFor(scope: ThrottleScope, now = Date.now()): Promise<number> {
 	const keys = keysOf(scope);
 	const rows = await db
@@ -59,6 +62,14 @@ export async function waitFor(scope: ThrottleScope, now = Date.now()): Promise<n
 				keys.map((k) => k.key)
 			)
 		);
+	return waitOf(rows, keys, now);
+}
+
+function waitOf(
+	rows: { key: string; failures: number; lastFailureAt: Date }[],
+	keys: { key: string; free: number }[],
+	now: number
+): number {
 	let wait = 0;
 	for (const row of rows) {
 		const since = now - row.lastFailureAt.getTime();
@@ -69,22 +80,58 @@ export async function waitFor(scope: ThrottleScope, now = Date.now()): Promise<n
 	return Math.max(0, wait);
 }
 
-/** Counts a failure against every key of the scope (one statement per key, atomic). */
-export async function recordFailure(scope: ThrottleScope, now = Date.now()): Promise<void> {
+/**
+ * Checks the delay and counts the attempt as a failure in one transaction, before the password is
+ * checked: the scope's rows are locked, so attempts sent at once are counted one after another
+ * and only as many as the free count allows get a password check; the rest are told to wait.
+ * Returns the wait in milliseconds (nothing counted), or 0 when the attempt may go on (counted;
+ * `refundAttempt` takes the count back when the password was right).
+ */
+export async function claimAttempt(scope: ThrottleScope, now = Date.now()): Promise<number> {
+	// Always the same order, so two scopes that share a key (one address, two accounts) can't
+	// lock each other's rows crosswise.
+	const keys = keysOf(scope).sort((a, b) => (a.key < b.key ? -1 : 1));
 	const at = new Date(now);
-	const stale = new Date(now - THROTTLE.forgetAfterMs).toISOString();
-	for (const { key } of keysOf(scope)) {
-		await db
+	return db.transaction(async (tx) => {
+		await tx
 			.insert(signInThrottles)
-			.values({ key, failures: 1, lastFailureAt: at })
-			.onConflictDoUpdate({
-				target: signInThrottles.key,
-				set: {
-					failures: sql`case when ${signInThrottles.lastFailureAt} < ${stale}::timestamptz then 1 else ${signInThrottles.failures} + 1 end`,
-					lastFailureAt: at
-				}
-			});
-	}
+			.values(keys.map(({ key }) => ({ key, failures: 0, lastFailureAt: new Date(0) })))
+			.onConflictDoNothing();
+		const rows = await tx
+			.select()
+			.from(signInThrottles)
+			.where(
+				inArray(
+					signInThrottles.key,
+					keys.map((k) => k.key)
+				)
+			)
+			.orderBy(signInThrottles.key)
+			.for('update');
+		const wait = waitOf(rows, keys, now);
+		if (wait > 0) return wait;
+		for (const row of rows) {
+			const stale = now - row.lastFailureAt.getTime() > THROTTLE.forgetAfterMs;
+			await tx
+				.update(signInThrottles)
+				.set({ failures: stale ? 1 : row.failures + 1, lastFailureAt: at })
+				.where(eq(signInThrottles.key, row.key));
+		}
+		return 0;
+	});
+}
+
+/** Takes back the failure `claimAttempt` counted, for an attempt whose password was right. */
+export async function refundAttempt(scope: ThrottleScope): Promise<void> {
+	await db
+		.update(signInThrottles)
+		.set({ failures: sql`greatest(${signInThrottles.failures} - 1, 0)` })
+		.where(
+			inArray(
+				signInThrottles.key,
+				keysOf(scope).map((k) => k.key)
+			)
+		);
 }
 
 /** Forgets the counts of a scope (a known device signed in; an account's password was reset). */

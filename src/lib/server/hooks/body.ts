@@ -103,11 +103,18 @@ async function countBody(body: ReadableStream<Uint8Array>, limit: number): Promi
 		}
 		const path = join(dir, 'body');
 		const folder = dir;
+		const source = createReadStream(path);
+		// A route that never reads the body (a redirect, a refusal) leaves the stream open:
+		// destroyed here, its file descriptor is closed, not left for the process to run out of.
+		source.on('error', () => {});
 		return {
 			ok: true,
 			size,
-			body: Readable.toWeb(createReadStream(path)) as ReadableStream<Uint8Array>,
-			cleanup: () => rm(folder, { recursive: true, force: true })
+			body: Readable.toWeb(source) as ReadableStream<Uint8Array>,
+			cleanup: async () => {
+				source.destroy();
+				await rm(folder, { recursive: true, force: true });
+			}
 		};
 	}
 	return { ok: true, size, body: Buffer.concat(chunks), cleanup: async () => {} };

@@ -8,12 +8,14 @@ const HINT =
 
 /**
  * Enforces the route-to-role table for /office/** and /api/**, on the path as the router sees it
- * (decoded and normalised), so `/office/%74eam` or `//office/./team` meet the same rule as
- * `/office/team`.
+ * (decoded as the router decodes, and normalised), so `/office/%74eam` or `//office/./team` meet
+ * the same rule as `/office/team`, and an encoded `/` never moves a segment boundary.
  */
 export const handleGuard: Handle = async ({ event, resolve }) => {
 	const raw = event.url.pathname;
-	const pathname = requestPath(raw) ?? raw;
+	const pathname = requestPath(raw);
+	// A path the guard cannot read the router's way is not let through on a guess.
+	if (pathname === null) return refusal(raw, 400, 'The address cannot be read');
 	if (!isGuarded(pathname)) return resolve(event);
 	const roles = rolesFor(pathname);
 	if (roles && roles.length === 0) return resolve(event);

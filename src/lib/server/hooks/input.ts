@@ -1,7 +1,7 @@
 import type { Handle } from '@sveltejs/kit';
 import { building } from '$app/environment';
 import { refusal } from './refusal';
-import { requestPath } from '../request-path';
+import { ENCODED_SEPARATOR, requestPath } from '../request-path';
 
 // C0 control characters (NUL, tab, CR, LF, …) and DEL. No query parameter of this app carries
 // them legitimately, and a CR/LF in one could end up in a header, a log line or a CSV cell.
@@ -32,6 +32,9 @@ export const handleInput: Handle = async ({ event, resolve }) => {
 	// Prerendered pages have no query string (and may not read it).
 	if (building) return resolve(event);
 	const { pathname, search } = event.url;
+	if (ENCODED_SEPARATOR.test(pathname)) {
+		return refusal(pathname, 400, 'The address contains an encoded “/” or “\\”');
+	}
 	const path = requestPath(pathname);
 	if (path === null) return refusal(pathname, 400, 'The address has a bad percent-escape');
 	if (CONTROL.test(path)) return refusal(pathname, 400, 'The address contains a control character');

@@ -15,11 +15,11 @@ import {
 	type InvoiceSnapshot
 } from '../db/schema';
 import { newId } from '../crypto';
+import { addDays } from '$lib/scheduling/zone';
+import { firmToday } from '../settings';
 import { firmOn } from './mail';
 import { jobRef, type Tx } from '../jobsite';
 import { DEPOSIT_TERMS_DAYS, FINAL_TERMS_DAYS, jobMoney, lockJob, paymentsOf } from './ledger';
-
-const DAY = 86_400_000;
 
 async function nextNumber(tx: Tx): Promise<number> {
 	const [row] = await tx
@@ -106,11 +106,12 @@ async function issueIn(tx: Tx, jobId: string, kind: InvoiceKind): Promise<Invoic
 			paymentsCents: money.paidCents,
 			balanceDueCents: kind === 'deposit' ? money.depositOutstandingCents : money.balanceCents,
 			issuedAt: now,
-			dueOn: new Date(
-				now.getTime() + (kind === 'deposit' ? DEPOSIT_TERMS_DAYS : FINAL_TERMS_DAYS) * DAY
+			// Counted from today on the firm's calendar: the UTC date is already tomorrow in
+			// the firm's evening.
+			dueOn: addDays(
+				await firmToday(tx, now),
+				kind === 'deposit' ? DEPOSIT_TERMS_DAYS : FINAL_TERMS_DAYS
 			)
-				.toISOString()
-				.slice(0, 10)
 		})
 		.returning();
 	return row;
