@@ -5,6 +5,7 @@
 // the crew days run 07:00–18:00, weekdays, inside one autumn window.
 import { planSeason, type CrewDay, type PlanStop } from '../../src/lib/care/route';
 import { medianMs, writeResult } from './lib';
+import { addDays, weekdayOf } from '../../src/lib/scheduling/zone';
 
 function random(seed: number) {
 	let s = seed >>> 0;
@@ -25,12 +26,11 @@ const stops: PlanStop[] = Array.from({ length: 600 }, (_, i) => ({
 	windowEnd: '2027-10-14'
 }));
 const days: CrewDay[] = [];
-for (let t = Date.parse('2027-09-06T00:00:00Z'); days.length < 25; t += 86_400_000) {
-	const d = new Date(t);
-	if (d.getUTCDay() === 0 || d.getUTCDay() === 6) continue;
+for (let day = '2027-09-06'; days.length < 25; day = addDays(day, 1)) {
+	if (weekdayOf(day) === 0 || weekdayOf(day) === 6) continue;
 	days.push({
 		id: `d${days.length}`,
-		day: d.toISOString().slice(0, 10),
+		day,
 		startMinute: 420,
 		endMinute: 1080
 	});

@@ -2,6 +2,7 @@
 // clean-outs in a window from a date, autumn shut-downs (and the lighting check) in the weeks
 // before the first-frost date, so no water is left in pipes and pumps when it freezes.
 import type { Season } from './kinds';
+import { addDays } from '$lib/scheduling/zone';
 
 export interface SeasonSettings {
 	/** "MM-DD": the firm's first hard frost; shut-downs end the day before. */
@@ -33,8 +34,7 @@ export function isMonthDay(value: string): boolean {
 }
 
 function on(year: number, monthDay: string, plusDays = 0): string {
-	const [m, d] = monthDay.split('-').map(Number);
-	return new Date(Date.UTC(year, m - 1, d + plusDays)).toISOString().slice(0, 10);
+	return addDays(`${year}-${monthDay}`, plusDays);
 }
 
 /** The first and last day (inclusive, "YYYY-MM-DD") a season's visits may be made. */

@@ -23,6 +23,7 @@ import { newToken, sha256 } from '../crypto';
 import { origin } from '../env';
 import { firmSettings } from '../settings';
 import { addressOf } from './features';
+import { calendarDate } from '$lib/scheduling/zone';
 
 const DAYS_BACK = 60;
 const DAYS_AHEAD = 365;
@@ -68,8 +69,8 @@ export async function calendarFeed(token: string, now = new Date()): Promise<str
 	const tz = firm.timeZone;
 	const from = new Date(now.getTime() - DAYS_BACK * 86_400_000);
 	const to = new Date(now.getTime() + DAYS_AHEAD * 86_400_000);
-	const fromDay = from.toISOString().slice(0, 10);
-	const toDay = to.toISOString().slice(0, 10);
+	const fromDay = calendarDate(from, tz);
+	const toDay = calendarDate(to, tz);
 
 	const [visits, installs, services] = await Promise.all([
 		db

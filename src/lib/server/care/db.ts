@@ -1,4 +1,5 @@
 import { db } from '../db';
+import { isDate, todayIn } from '$lib/scheduling/zone';
 
 export type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
 export type Db = Tx | typeof db;
@@ -14,13 +15,13 @@ export class CareError extends Error {
 
 /** Today's date ("YYYY-MM-DD") in the firm's time zone. */
 export function dayIn(timeZone: string, at = new Date()): string {
-	return new Intl.DateTimeFormat('en-CA', { timeZone }).format(at);
+	return todayIn(timeZone, at);
 }
 
 /** The same month and day a year later (29 February becomes 28 February). */
 export function plusYear(day: string): string {
-	const [y, m, d] = day.split('-').map(Number);
-	const next = new Date(Date.UTC(y + 1, m - 1, d));
-	if (next.getUTCMonth() !== m - 1) next.setUTCDate(0);
-	return next.toISOString().slice(0, 10);
+	const year = String(Number(day.slice(0, 4)) + 1).padStart(4, '0');
+	const sameDay = `${year}${day.slice(4)}`;
+	// Only 29 February has no twin a year later.
+	return isDate(sameDay) ? sameDay : `${year}-02-28`;
 }

@@ -2,6 +2,7 @@
 // by hand for work another firm built. Care plans price them and service visits attach to them.
 // A property's place for routing is a pin staff set, or the centre of its US postal code from
 // the zipcodes package's own data file (nothing is asked of an online map or geocoder).
+import { upgradeDesign } from '$lib/estimating/upgrade';
 import { and, asc, eq, ilike, or, sql } from 'drizzle-orm';
 import { db } from '../db';
 import {
@@ -74,19 +75,51 @@ export async function removeFeature(propertyId: string, featureId: string) {
 const sizeBy = (n: number, small: number, medium: number): FeatureSize =>
 	n <= small ? 'small' : n <= medium ? 'medium' : 'large';
 
+type DesignFeature = {
+	kind?: string;
+	outlets?: unknown[];
+	basin?: unknown;
+	zones?: unknown[];
+	segments?: { fallHeightIn?: number }[];
+	pumpModelId?: string;
+};
+
+/** A water feature's size for the care price: by outlets, depth zones or falls (common practice, no source). */
+function waterFeatureSize(f: DesignFeature): FeatureSize {
+	if (f.kind === 'pond') return sizeBy(f.zones?.length ?? 1, 1, 2);
+	if (f.kind === 'stream') {
+		return sizeBy((f.segments ?? []).filter((s) => (s.fallHeightIn ?? 0) > 0).length, 1, 3);
+	}
+	return sizeBy(f.outlets?.length ?? 0, 1, 3);
+}
+
+/** The water features of a design of either stored shape (fountain, pond, stream). */
+export function waterFeaturesOf(design: unknown): DesignFeature[] {
+	const current = upgradeDesign(design) as { features?: DesignFeature[] };
+	return (current.features ?? []).filter(
+		(f) =>
+			(f.kind === 'fountain' && ((f.outlets?.length ?? 0) > 0 || f.basin)) ||
+			f.kind === 'pond' ||
+			f.kind === 'stream'
+	);
+}
+
 /**
- * The features a completed job puts on record, read from what was sold: a water feature (its
- * outlets and pump) and the lighting (its fixtures). Sizes follow the count of outlets or
- * fixtures (common practice, no source); staff can correct them.
+ * The features a completed job puts on record, read from what was sold: each water feature
+ * (fountain, pond, stream, with its pump) and the lighting (its fixtures). Sizes follow the
+ * count of outlets, depth zones, falls or fixtures (common practice, no source); staff can
+ * correct them.
  */
-export function featuresFromDesign(design: Record<string, unknown>, pumpName: string | null) {
+export function featuresFromDesign(
+	design: Record<string, unknown>,
+	pumpNames: Map<string, string> = new Map()
+) {
 	const out: (FeatureInput & { notes: string })[] = [];
-	const outlets = Array.isArray(design.outlets) ? design.outlets.length : 0;
-	if (outlets > 0 || design.basin) {
+	for (const f of waterFeaturesOf(design)) {
 		out.push({
-			kind: 'fountain',
-			size: sizeBy(outlets, 1, 3),
-			pump: pumpName ?? '',
+			kind: f.kind as FeatureInput['kind'],
+			size: waterFeatureSize(f),
+			pump: (f.pumpModelId && pumpNames.get(f.pumpModelId)) || '',
 			lights: 0,
 			notes: '',
 			builtBy: 'us'
@@ -118,11 +151,17 @@ export function featuresFromDesign(design: Record<string, unknown>, pumpName: st
 export async function recordFeaturesOfJob(tx: Tx, job: Job): Promise<void> {
 	if (!job.propertyId) return;
 	const design = (job.frozen.design ?? {}) as Record<string, unknown>;
-	const pumpId = typeof design.pumpModelId === 'string' ? design.pumpModelId : null;
-	const pump = pumpId
-		? await tx.execute<{ name: string }>(sql`select name from pump_models where id = ${pumpId}`)
-		: [];
-	const features = featuresFromDesign(design, pump[0]?.name ?? null);
+	const pumpIds = waterFeaturesOf(design)
+		.map((f) => f.pumpModelId)
+		.filter((id): id is string => typeof id === 'string');
+	const pumpNames = new Map<string, string>();
+	for (const id of pumpIds) {
+		const [pump] = await tx.execute<{ name: string }>(
+			sql`select name from pump_models where id = ${id}`
+		);
+		if (pump) pumpNames.set(id, pump.name);
+	}
+	const features = featuresFromDesign(design, pumpNames);
 	for (const f of features) {
 		await tx
 			.insert(propertyFeatures)

@@ -37,6 +37,7 @@ import { newCareLink } from './links';
 import { build, dayText } from './mail';
 import { seasonSettings } from './plans';
 import { billedPerVisit } from './subscriptions';
+import { addDays, weekdayOf } from '$lib/scheduling/zone';
 
 /** Straight-line to road distance (common practice, no source). */
 const ROAD_FACTOR = 1.3;
@@ -129,16 +130,12 @@ export async function addCrewDays(input: CrewDaysInput): Promise<number> {
 		.where(and(eq(users.id, input.crewLeadId), eq(users.role, 'crew'), isNull(users.disabledAt)));
 	if (!lead) throw new CareError('invalid', 'Pick a crew lead.');
 	const rows = [];
-	for (
-		let t = Date.parse(`${input.from}T00:00:00Z`);
-		t <= Date.parse(`${input.to}T00:00:00Z`);
-		t += 86_400_000
-	) {
-		const d = new Date(t);
-		if (input.weekdaysOnly && (d.getUTCDay() === 0 || d.getUTCDay() === 6)) continue;
+	for (let day = input.from; day <= input.to; day = addDays(day, 1)) {
+		const weekday = weekdayOf(day);
+		if (input.weekdaysOnly && (weekday === 0 || weekday === 6)) continue;
 		rows.push({
 			id: newId(),
-			day: d.toISOString().slice(0, 10),
+			day,
 			crewLeadId: input.crewLeadId,
 			startMinute: input.startMinute,
 			endMinute: input.endMinute

@@ -26,6 +26,7 @@ import { addressOf, featuresOf, propertyRecord } from './features';
 import { listPlans, planById } from './plans';
 import { careLink, newCareLink } from './links';
 import { build, dayText, money } from './mail';
+import { addDays } from '$lib/scheduling/zone';
 
 const RENEWAL_JOB = 'care.renewal';
 const RENEWAL_NOTICE_DAYS = 30;
@@ -83,9 +84,7 @@ export async function homeownerCare(propertyId: string) {
 /** A yearly plan may be paid for the next year from 45 days before it renews. */
 function renewalDue(s: CareSubscription, today: string): boolean {
 	if (s.billing !== 'year' || s.status !== 'active') return false;
-	const opens = new Date(Date.parse(`${s.renewsOn}T00:00:00Z`) - 45 * 86_400_000)
-		.toISOString()
-		.slice(0, 10);
+	const opens = addDays(s.renewsOn, -45);
 	return today >= opens && (s.paidThrough ?? '') < s.renewsOn;
 }
 
@@ -176,11 +175,7 @@ export async function startPlanCheckout(propertyId: string, token: string): Prom
 	if (renewing && !renewalDue(s, dayIn(firm.timeZone))) {
 		throw new CareError('invalid', 'This year is paid.');
 	}
-	const coversThrough = renewing
-		? new Date(Date.parse(`${plusYear(s.renewsOn)}T00:00:00Z`) - 86_400_000)
-				.toISOString()
-				.slice(0, 10)
-		: new Date(Date.parse(`${s.renewsOn}T00:00:00Z`) - 86_400_000).toISOString().slice(0, 10);
+	const coversThrough = addDays(renewing ? plusYear(s.renewsOn) : s.renewsOn, -1);
 	const [open] = await db
 		.select()
 		.from(careCheckouts)
