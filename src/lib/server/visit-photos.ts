@@ -6,6 +6,7 @@ import { db } from './db';
 import { photos, siteVisits } from './db/schema';
 import { newId } from './crypto';
 import { processPhoto } from './images';
+import { photoLinks } from './photo-links';
 import { deleteObjects, putObject, randomKey, signedUrl, StorageUnavailableError } from './storage';
 
 export type VisitPhoto = typeof photos.$inferSelect;
@@ -57,16 +58,7 @@ export async function visitPhotoLinks(visitId: string) {
 		.from(photos)
 		.where(and(eq(photos.visitId, visitId), eq(photos.context, 'visit')))
 		.orderBy(asc(photos.createdAt));
-	return Promise.all(
-		rows.map(async (p) => ({
-			id: p.id,
-			originalName: p.originalName,
-			width: p.width,
-			height: p.height,
-			thumbUrl: await signedUrl(p.thumbKey),
-			displayUrl: await signedUrl(p.displayKey)
-		}))
-	);
+	return photoLinks(rows);
 }
 
 /**

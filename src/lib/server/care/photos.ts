@@ -7,7 +7,8 @@ import { db } from '../db';
 import { featurePhotos, photos, serviceVisitPhotos } from '../db/schema';
 import { newId } from '../crypto';
 import { processPhoto } from '../images';
-import { getObject, putObject, randomKey, signedUrl } from '../storage';
+import { photoLinks } from '../photo-links';
+import { getObject, putObject, randomKey } from '../storage';
 
 /** Processes and stores one photo; throws PhotoError or StorageUnavailableError. */
 export async function storeCarePhoto(
@@ -44,19 +45,6 @@ export async function storeCarePhoto(
 	return id;
 }
 
-async function withLinks(rows: (typeof photos.$inferSelect)[]) {
-	return Promise.all(
-		rows.map(async (p) => ({
-			id: p.id,
-			originalName: p.originalName,
-			width: p.width,
-			height: p.height,
-			thumbUrl: await signedUrl(p.thumbKey),
-			displayUrl: await signedUrl(p.displayKey)
-		}))
-	);
-}
-
 /** Photos of these features, by feature id, with five-minute signed links. */
 export async function featurePhotoLinks(featureIds: string[]) {
 	if (!featureIds.length) return {};
@@ -66,9 +54,9 @@ export async function featurePhotoLinks(featureIds: string[]) {
 		.innerJoin(photos, eq(photos.id, featurePhotos.photoId))
 		.where(inArray(featurePhotos.featureId, featureIds))
 		.orderBy(asc(photos.createdAt));
-	const out: Record<string, Awaited<ReturnType<typeof withLinks>>> = {};
+	const out: Record<string, Awaited<ReturnType<typeof photoLinks>>> = {};
 	for (const id of featureIds) {
-		out[id] = await withLinks(rows.filter((r) => r.featureId === id).map((r) => r.photo));
+		out[id] = await photoLinks(rows.filter((r) => r.featureId === id).map((r) => r.photo));
 	}
 	return out;
 }
@@ -84,7 +72,7 @@ async function visitPhotoRows(serviceVisitId: string) {
 }
 
 export async function serviceVisitPhotoLinks(serviceVisitId: string) {
-	return withLinks(await visitPhotoRows(serviceVisitId));
+	return photoLinks(await visitPhotoRows(serviceVisitId));
 }
 
 /** The visit's photos as small attachments for the report mail (the 480 px thumbnails). */
