@@ -9,6 +9,7 @@ import type { BasinBudget } from './basin';
 import { cautionsFor, type Caution } from './cautions';
 import {
 	analyseFeatures,
+	featureDigs,
 	featureTasks,
 	fountainBasins,
 	openWater,
@@ -222,20 +223,28 @@ type Parts = ReturnType<typeof analyseParts>;
 function labor(design: ParsedDesign, parts: Parts, catalog: ParsedCatalog) {
 	const settings = catalog.settings;
 	const included = includedBuckets(design);
+	const digs = [
+		...featureDigs(design, parts.features),
+		...parts.walls.map((w) => ({
+			bucket: w.optionId ?? 'base',
+			what: `the footing: ${w.name}`,
+			volumeM3: w.trenchVolumeM3
+		}))
+	];
 	const tasks = laborTasks(
 		{
 			features: featureTasks(design, parts.features, catalog),
+			digs,
 			stones: parts.stones.stones,
 			aggregates: parts.aggregates,
 			walls: parts.walls,
 			lighting: parts.lighting && { result: parts.lighting, optionId: design.lighting?.optionId },
-			extra: design.extraLabor
+			extra: design.extraLabor,
+			site: design.site
 		},
 		settings
 	);
-	const includedStones = parts.stones.stones.filter((s) => included.has(s.optionId ?? 'base'));
-	const stoneCrew = Math.max(0, ...includedStones.map((s) => s.handling.people));
-	return { tasks, summary: laborSummary(tasks, included, stoneCrew, settings) };
+	return { tasks, digs, summary: laborSummary(tasks, included, settings) };
 }
 
 function collectWarnings(parts: Parts, takeoffWarnings: string[], unpricedLabor: boolean) {
