@@ -244,11 +244,12 @@ describe('imported task hours and the visit notes', () => {
 		expect(design.extraLabor.map((t) => [t.task.split(':')[0], t.hours])).toEqual([
 			// Half the firm's 10 h basin.
 			['Cut and level the pad on a steep slope', 5],
-			// The columns' set crew-hours once more: the firm's 1.5 h by cart, the default 1 h by
-			// hoist, each for the 4 people a column needs.
+			// The stones' set crew-hours once more: the firm's 1.5 h a stone by cart, the default 1 h
+			// by hoist, each for the 4 people the stone needs (the four accent boulders ride a cart).
 			['Move Low basalt column in by hand', 6],
 			['Move Middle basalt column in by hand', 6],
-			['Move Tall basalt column in by hand', 4]
+			['Move Tall basalt column in by hand', 4],
+			['Move Granite accent boulders in by hand', 24]
 		]);
 		expect(row.scope).toBe('Side gate only\nSite: steep slope, rocky soil, access 22 in wide');
 		const stored = row.result as { engine: { labor: { tasks: { task: string }[] } } };

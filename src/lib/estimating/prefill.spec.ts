@@ -99,8 +99,9 @@ describe('starting design from the visit notes (common practice, no source; see 
 	it('moves stones in by hand when the access is narrower than the cart or loader they need', () => {
 		// Gear widths: stone cart 24 in, compact loader 36 in (from memory; common practice, no
 		// source). Moving a stone in by hand takes its set crew-hours once more (common practice, no
-		// source): 0.5 h by cart or 1 h by hoist, for the 4 people each column needs. The demo's columns ride a stone cart (24 in) or come in for a hoist; the accent
-		// boulders are a team lift and need no gear.
+		// source): 0.5 h a stone by cart or 1 h by hoist, for the 4 people each needs. The demo's
+		// columns ride a stone cart (24 in) or come in for a hoist, and its four 56 lb accent
+		// boulders, past a four-person team lift at the setting-a-stone NIOSH limit, ride a cart too.
 		const narrow = starterDesign('x', { ...spot, accessWidthIn: 20 });
 		expect(narrow.extraLabor).toEqual([
 			{
@@ -114,6 +115,10 @@ describe('starting design from the visit notes (common practice, no source; see 
 			{
 				task: 'Move Tall basalt column in by hand: the 20 in access is narrower than a stone cart (24 in)',
 				hours: 4
+			},
+			{
+				task: 'Move Granite accent boulders in by hand: the 20 in access is narrower than a stone cart (24 in)',
+				hours: 8
 			}
 		]);
 		expect(starterDesign('x', { ...spot, accessWidthIn: 36 }).extraLabor).toEqual([]);

@@ -434,21 +434,41 @@ export const settingsSchema = z.object({
 		.prefault({}),
 	lift: z
 		.object({
-			// NIOSH 94-110 ideal geometry: hands 25 cm out, starting at 75 cm, moving 25 cm or less.
-			horizontalCm: positive.default(25),
-			originHeightCm: nonNegative.default(75),
-			travelCm: nonNegative.default(25),
+			// Setting a stone, in the terms of the NIOSH lifting equation (NIOSH 94-110): lifted from
+			// near the ground (hands at 15 cm), held out past the knees (40 cm from the ankles), raised
+			// 60 cm onto its bed, facing it (no twist), a few lifts in an hour or less (FM 1.00, table 5,
+			// under 0.2 lifts a minute), and a poor grip on rough rock (CM 0.90, table 7). The figures
+			// of the geometry are from memory of how a stone is set, for the firm to change.
+			horizontalCm: positive.default(40),
+			originHeightCm: nonNegative.default(15),
+			travelCm: nonNegative.default(60),
 			asymmetryDeg: nonNegative.default(0),
 			frequencyMultiplier: z.number().min(0).max(1).default(1),
-			couplingMultiplier: z.number().min(0).max(1).default(1)
+			couplingMultiplier: z.number().min(0).max(1).default(0.9)
 		})
 		.prefault({}),
-	// UK HSE L23: a two-person team manages about two-thirds of the sum of its members (from memory).
-	teamLiftEfficiency: z
-		.number()
-		.gt(0)
-		.max(1)
-		.default(2 / 3),
+	// What a team manages against the sum of its members' limits: two people two-thirds, three
+	// people half (UK HSE L23, guidance on the Manual Handling Operations Regulations, from memory);
+	// four or more, half as for three (from memory: teams past four rarely work well together).
+	teamFactors: z
+		.object({
+			two: z
+				.number()
+				.gt(0)
+				.max(1)
+				.default(2 / 3),
+			three: z
+				.number()
+				.gt(0)
+				.max(1)
+				.default(1 / 2),
+			fourOrMore: z
+				.number()
+				.gt(0)
+				.max(1)
+				.default(1 / 2)
+		})
+		.prefault({}),
 	teamLiftLimitLb: positive.default(120),
 	maxTeamSize: count.min(2, 'At least two').default(4),
 	cartLimitLb: positive.default(500),
