@@ -2,7 +2,7 @@ import { eq } from 'drizzle-orm';
 import { fountainIn } from '$lib/estimating/testing';
 import { isHttpError } from '@sveltejs/kit';
 import { beforeEach, describe, expect, it } from 'vitest';
-import { db } from '$lib/server/db';
+import { db } from '$lib/server/platform/db';
 import {
 	activities,
 	estimateAcceptances,
@@ -12,7 +12,7 @@ import {
 	photos,
 	priceListItems,
 	siteVisits
-} from '$lib/server/db/schema';
+} from '$lib/server/platform/db/schema';
 import { formatCents } from '$lib/components/estimates/money';
 import {
 	acceptEstimate,
@@ -24,11 +24,11 @@ import {
 	saveEstimate,
 	sendEstimate,
 	type StoredResult
-} from '$lib/server/estimates';
-import { exportCsv, importCsv, loadCatalog } from '$lib/server/pricelist';
-import { previewCsv } from '$lib/server/pricelist-csv';
+} from '$lib/server/estimates/estimates';
+import { exportCsv, importCsv, loadCatalog } from '$lib/server/pricelist/catalog';
+import { previewCsv } from '$lib/server/pricelist/csv';
 import { estimate as runEngine, type ParsedDesign } from '$lib/estimating';
-import type { YardPhoto } from '$lib/server/estimate-photos';
+import type { YardPhoto } from '$lib/server/photos/estimate-photos';
 import { load as homeownerLoad } from '../../src/routes/(homeowner)/estimate/[token]/+page.server';
 import { resetDatabase } from '../support/database';
 import { makeUser, seedFirm } from './fixtures';

@@ -1,6 +1,6 @@
 import { beforeEach, describe, expect, it } from 'vitest';
 import { and, eq } from 'drizzle-orm';
-import { db } from '$lib/server/db';
+import { db } from '$lib/server/platform/db';
 import {
 	activities,
 	changeOrders,
@@ -10,7 +10,7 @@ import {
 	leads,
 	outbox,
 	testimonials
-} from '$lib/server/db/schema';
+} from '$lib/server/platform/db/schema';
 import {
 	addPunchItem,
 	convertAcceptedEstimate,
@@ -23,11 +23,11 @@ import {
 	scheduleJob,
 	setPunchDone,
 	setStage
-} from '$lib/server/jobsite';
-import { createChangeOrder, decideChangeOrder, sendChangeOrder } from '$lib/server/change-orders';
-import { nextCareDate, sendCareReminder, unsubscribeCare } from '$lib/server/care';
-import { deliverOutboxMessage } from '$lib/server/outbox';
-import type { SessionUser } from '$lib/server/auth';
+} from '$lib/server/jobs/jobs';
+import { createChangeOrder, decideChangeOrder, sendChangeOrder } from '$lib/server/jobs/change-orders';
+import { nextCareDate, sendCareReminder, unsubscribeCare } from '$lib/server/care/reminders';
+import { deliverOutboxMessage } from '$lib/server/platform/outbox';
+import type { SessionUser } from '$lib/server/auth/sessions';
 import { resetDatabase } from '../support/database';
 import { allMail, clearMail, linkIn, waitForMail } from '../support/mailbox';
 import { demoDesign } from '$lib/estimating/demo';

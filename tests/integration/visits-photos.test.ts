@@ -4,12 +4,12 @@
 import sharp from 'sharp';
 import { eq } from 'drizzle-orm';
 import { beforeEach, describe, expect, it } from 'vitest';
-import { db } from '$lib/server/db';
-import { photos } from '$lib/server/db/schema';
-import { PhotoError } from '$lib/server/images';
-import { getObject } from '$lib/server/storage';
-import { agendaThumbs, storeVisitPhoto, visitPhotoLinks } from '$lib/server/visit-photos';
-import { bookVisit, saveNotes } from '$lib/server/visits';
+import { db } from '$lib/server/platform/db';
+import { photos } from '$lib/server/platform/db/schema';
+import { PhotoError } from '$lib/server/platform/images';
+import { getObject } from '$lib/server/platform/storage';
+import { agendaThumbs, storeVisitPhoto, visitPhotoLinks } from '$lib/server/photos/visit-photos';
+import { bookVisit, saveNotes } from '$lib/server/visits/visits';
 import { zonedInstant } from '$lib/scheduling/zone';
 import { actions } from '../../src/routes/office/visits/[id]/+page.server';
 import { load as leadLoad } from '../../src/routes/office/leads/[id]/+page.server';

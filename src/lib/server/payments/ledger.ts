@@ -3,7 +3,7 @@
 // the balance paid on a complete job moves it to paid). Every write locks the job row first,
 // so two payments recorded at once cannot both pass the balance check.
 import { asc, desc, eq, sql } from 'drizzle-orm';
-import { db } from '../db';
+import { db, type Db, type Tx } from '../platform/db';
 import {
 	contacts,
 	jobs,
@@ -11,15 +11,14 @@ import {
 	type Job,
 	type PaymentKind,
 	type PaymentMethod
-} from '../db/schema';
-import { newId } from '../crypto';
-import { firmToday } from '../settings';
-import { addActivity, jobBalance, jobRef, type Tx } from '../jobsite';
-import { writeMail, dispatchMail } from '../outbox';
+} from '../platform/db/schema';
+import { newId } from '../platform/crypto';
+import { firmToday } from '../platform/settings';
+import { addActivity, jobBalance, jobRef } from '../jobs/jobs';
+import { writeMail, dispatchMail } from '../platform/outbox';
 import { receiptMail } from './mail';
-import type { SessionUser } from '../auth';
+import type { SessionUser } from '../auth/sessions';
 
-type Db = Tx | typeof db;
 
 export const CURRENCY = (process.env.PAYMENTS_CURRENCY ?? 'usd').toLowerCase();
 /** Days after acceptance (deposit) or completion (balance) before a payment counts as overdue. */

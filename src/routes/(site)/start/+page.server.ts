@@ -1,7 +1,7 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { projectBySlug } from '$lib/content';
 import { inquiryValues } from '$lib/schema/intake';
-import { formStamp, inquiryLimiter, receiveInquiry, thanksPath } from '$lib/server/intake';
+import { formStamp, inquiryLimiter, receiveInquiry, thanksPath } from '$lib/server/leads/intake';
 import type { Actions, PageServerLoad } from './$types';
 
 export const prerender = false;

@@ -7,11 +7,11 @@ import {
 	homeownerMessage,
 	leadWithContact,
 	openByToken
-} from '$lib/server/estimates';
+} from '$lib/server/estimates/estimates';
 import { readDesign } from '$lib/estimating';
-import { yardPhotos } from '$lib/server/estimate-photos';
-import { estimatingConfig } from '$lib/server/pricelist';
-import { firmSettings } from '$lib/server/settings';
+import { yardPhotos } from '$lib/server/photos/estimate-photos';
+import { estimatingConfig } from '$lib/server/pricelist/catalog';
+import { firmSettings } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad } from './$types';
 
 // The homeowner's private page: no sign-in, the token is the key. Wrong, expired and superseded

@@ -1,6 +1,6 @@
 import { error, json } from '@sveltejs/kit';
-import { requireRole } from '$lib/server/access';
-import { getEstimate, saveEstimate } from '$lib/server/estimates';
+import { requireRole } from '$lib/server/auth/access';
+import { getEstimate, saveEstimate } from '$lib/server/estimates/estimates';
 import { saveEstimateSchema } from '$lib/schema/estimates';
 import type { RequestHandler } from './$types';
 

@@ -8,9 +8,9 @@ import {
 	scheduleSchema,
 	sendChangeOrderSchema
 } from '$lib/schema/jobs';
-import { requireRole } from '$lib/server/access';
-import { createChangeOrder, listChangeOrders, sendChangeOrder } from '$lib/server/change-orders';
-import { jobAction, orHttp } from '$lib/server/job-http';
+import { requireRole } from '$lib/server/auth/access';
+import { createChangeOrder, listChangeOrders, sendChangeOrder } from '$lib/server/jobs/change-orders';
+import { jobAction, orHttp } from '$lib/server/jobs/http';
 import {
 	addPunchItem,
 	attachJobPhoto,
@@ -24,9 +24,9 @@ import {
 	setMaterialFlag,
 	setPunchDone,
 	setStage
-} from '$lib/server/jobsite';
-import { PhotoError, processPhoto } from '$lib/server/images';
-import { putObject, randomKey, signedUrl, StorageUnavailableError } from '$lib/server/storage';
+} from '$lib/server/jobs/jobs';
+import { PhotoError, processPhoto } from '$lib/server/platform/images';
+import { putObject, randomKey, signedUrl, StorageUnavailableError } from '$lib/server/platform/storage';
 import type { Actions, PageServerLoad } from './$types';
 
 async function withLinks<T extends { id: string; thumbKey: string; displayKey: string }>(

@@ -1,5 +1,5 @@
 import { error, fail, redirect } from '@sveltejs/kit';
-import { requireRole } from '$lib/server/access';
+import { requireRole } from '$lib/server/auth/access';
 import {
 	acceptanceFor,
 	createEstimate,
@@ -8,10 +8,10 @@ import {
 	leadWithContact,
 	newVersion,
 	sendEstimate
-} from '$lib/server/estimates';
-import { estimatingConfig, loadCatalog } from '$lib/server/pricelist';
+} from '$lib/server/estimates/estimates';
+import { estimatingConfig, loadCatalog } from '$lib/server/pricelist/catalog';
 import { estimateActionSchema } from '$lib/schema/estimates';
-import { firmSettings } from '$lib/server/settings';
+import { firmSettings } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 
 /** The estimate a button names, only when it is one of this lead's versions. */

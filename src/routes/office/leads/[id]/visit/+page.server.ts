@@ -1,7 +1,7 @@
 import { error, fail } from '@sveltejs/kit';
 import { fieldErrors, formValues } from '$lib/schema/auth';
 import { bookSchema, cancelFormSchema, rescheduleFormSchema } from '$lib/schema/visits';
-import { requireRole } from '$lib/server/access';
+import { requireRole } from '$lib/server/auth/access';
 import {
 	VisitError,
 	bookVisit,
@@ -10,8 +10,8 @@ import {
 	rescheduleVisit,
 	salespeople,
 	visitsOfLead
-} from '$lib/server/visits';
-import { firmToday } from '$lib/server/settings';
+} from '$lib/server/visits/visits';
+import { firmToday } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
