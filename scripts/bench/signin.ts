@@ -5,7 +5,11 @@
 // verification an unknown e-mail would answer after the database lookup alone, many times faster.
 // The database lookup and throttle queries are the same on both paths and are left out here.
 // BENCH_ITERATIONS (default 20) sets the number of timed runs of each.
-import { hashPassword, verifyAgainstDummy, verifyPassword } from '../../src/lib/server/auth/passwords';
+import {
+	hashPassword,
+	verifyAgainstDummy,
+	verifyPassword
+} from '../../src/lib/server/auth/passwords';
 import { medianMs, writeResult } from './lib';
 
 const iterations = Number(process.env.BENCH_ITERATIONS ?? 20);

@@ -66,7 +66,11 @@ async function jobsDomain() {
 	}
 	// The app's database module opens its pool lazily; every query below runs in our transaction.
 	process.env.DATABASE_URL ??= 'postgres://unused@127.0.0.1:9/unused';
-	return import('../../src/lib/server/jobs/jobs');
+	const [conversion, labels] = await Promise.all([
+		import('../../src/lib/server/jobs/conversion'),
+		import('../../src/lib/server/jobs/labels')
+	]);
+	return { ...conversion, ...labels };
 }
 
 export async function seedJobs(db: Db): Promise<void> {

@@ -2,7 +2,12 @@ import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { db } from '$lib/server/platform/db';
 import { sessions, users } from '$lib/server/platform/db/schema';
-import { cookieForToken, createSession, endSession, validateSessionToken } from '$lib/server/auth/sessions';
+import {
+	cookieForToken,
+	createSession,
+	endSession,
+	validateSessionToken
+} from '$lib/server/auth/sessions';
 import { attemptSignIn } from '$lib/server/auth/signin';
 import { changeRole, setDisabled } from '$lib/server/auth/team';
 import { sha256 } from '$lib/server/platform/crypto';

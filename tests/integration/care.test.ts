@@ -13,7 +13,8 @@ import {
 	serviceVisits
 } from '$lib/server/platform/db/schema';
 import { sendCareReminder } from '$lib/server/care/reminders';
-import { convertAcceptedEstimate, setStage } from '$lib/server/jobs/jobs';
+import { convertAcceptedEstimate } from '$lib/server/jobs/conversion';
+import { setStage } from '$lib/server/jobs/stage';
 import { planSchema } from '$lib/schema/care';
 import { addFeature, setPin } from '$lib/server/care/features';
 import { saveSeasonSettings, savePlan } from '$lib/server/care/plans';

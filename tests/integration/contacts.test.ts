@@ -4,7 +4,8 @@ import { beforeEach, describe, expect, it } from 'vitest';
 import { eq, inArray } from 'drizzle-orm';
 import { db } from '$lib/server/platform/db';
 import { activities, contacts, leads, outbox, settings } from '$lib/server/platform/db/schema';
-import { formStamp, receiveInquiry } from '$lib/server/leads/intake';
+import { formStamp } from '$lib/server/leads/intake/stamp';
+import { receiveInquiry } from '$lib/server/leads/intake/form';
 import {
 	mergeContacts,
 	MergeError,

@@ -14,17 +14,10 @@ import {
 	siteVisits
 } from '$lib/server/platform/db/schema';
 import { formatCents } from '$lib/components/estimates/money';
-import {
-	acceptEstimate,
-	createEstimate,
-	getEstimate,
-	homeownerMessage,
-	newVersion,
-	openByToken,
-	saveEstimate,
-	sendEstimate,
-	type StoredResult
-} from '$lib/server/estimates/estimates';
+import { acceptEstimate, homeownerMessage, openByToken } from '$lib/server/estimates/homeowner';
+import { createEstimate, newVersion, saveEstimate } from '$lib/server/estimates/versions';
+import { getEstimate, type StoredResult } from '$lib/server/estimates/records';
+import { sendEstimate } from '$lib/server/estimates/sending';
 import { exportCsv, importCsv, loadCatalog } from '$lib/server/pricelist/catalog';
 import { previewCsv } from '$lib/server/pricelist/csv';
 import { estimate as runEngine, type ParsedDesign } from '$lib/estimating';

@@ -15,15 +15,9 @@ import {
 	settings
 } from '$lib/server/platform/db/schema';
 import { createUser } from '$lib/server/auth/team';
-import {
-	formStamp,
-	receiveInquiry,
-	sweepDrafts,
-	uploadDraft,
-	deleteDraft,
-	thanksPath,
-	verifyThanks
-} from '$lib/server/leads/intake';
+import { formStamp, thanksPath, verifyThanks } from '$lib/server/leads/intake/stamp';
+import { receiveInquiry } from '$lib/server/leads/intake/form';
+import { sweepDrafts, uploadDraft, deleteDraft } from '$lib/server/leads/intake/drafts';
 import { deliverOutboxMessage } from '$lib/server/platform/outbox';
 import { getObject } from '$lib/server/platform/storage';
 import { resetDatabase } from '../support/database';

@@ -5,8 +5,12 @@ import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { eq, sql } from 'drizzle-orm';
 import { db } from '$lib/server/platform/db';
 import { changeOrders, outbox } from '$lib/server/platform/db/schema';
-import { convertAcceptedEstimate } from '$lib/server/jobs/jobs';
-import { createChangeOrder, decideChangeOrder, sendChangeOrder } from '$lib/server/jobs/change-orders';
+import { convertAcceptedEstimate } from '$lib/server/jobs/conversion';
+import {
+	createChangeOrder,
+	decideChangeOrder,
+	sendChangeOrder
+} from '$lib/server/jobs/change-orders';
 import { sendCareReminder } from '$lib/server/care/reminders';
 import { deliverOutboxMessage } from '$lib/server/platform/outbox';
 import { stopQueue } from '$lib/server/platform/queue';

@@ -11,20 +11,18 @@ import {
 	outbox,
 	testimonials
 } from '$lib/server/platform/db/schema';
+import { addPunchItem, setPunchDone } from '$lib/server/jobs/checklists';
+import { convertAcceptedEstimate, recordSaleByHand } from '$lib/server/jobs/conversion';
+import { crewConflicts, crewJobView, jobFor } from '$lib/server/jobs/read';
+import { jobBalance } from '$lib/server/payments/balance';
+import { JobError } from '$lib/server/jobs/errors';
+import { scheduleJob } from '$lib/server/jobs/schedule';
+import { setStage } from '$lib/server/jobs/stage';
 import {
-	addPunchItem,
-	convertAcceptedEstimate,
-	crewConflicts,
-	crewJobView,
-	jobBalance,
-	jobFor,
-	JobError,
-	recordSaleByHand,
-	scheduleJob,
-	setPunchDone,
-	setStage
-} from '$lib/server/jobs/jobs';
-import { createChangeOrder, decideChangeOrder, sendChangeOrder } from '$lib/server/jobs/change-orders';
+	createChangeOrder,
+	decideChangeOrder,
+	sendChangeOrder
+} from '$lib/server/jobs/change-orders';
 import { nextCareDate, sendCareReminder, unsubscribeCare } from '$lib/server/care/reminders';
 import { deliverOutboxMessage } from '$lib/server/platform/outbox';
 import type { SessionUser } from '$lib/server/auth/sessions';

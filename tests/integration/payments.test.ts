@@ -24,7 +24,7 @@ import {
 } from '$lib/server/payments/ledger';
 import { ensureInvoice } from '$lib/server/payments/invoices';
 import { openBalances } from '$lib/server/payments/balances';
-import { jobBalance } from '$lib/server/jobs/jobs';
+import { jobBalance } from '$lib/server/payments/balance';
 import { deliverOutboxMessage } from '$lib/server/platform/outbox';
 import { stopQueue } from '$lib/server/platform/queue';
 import { resetDatabase } from '../support/database';

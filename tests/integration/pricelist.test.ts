@@ -13,7 +13,8 @@ import {
 } from '$lib/server/platform/db/schema';
 import { estimate as runEngine, demoDesign } from '$lib/estimating';
 import { exportPriceList, importPriceList, loadCatalog } from '$lib/server/pricelist/catalog';
-import { createEstimate, getEstimate } from '$lib/server/estimates/estimates';
+import { createEstimate } from '$lib/server/estimates/versions';
+import { getEstimate } from '$lib/server/estimates/records';
 import { actions } from '../../src/routes/office/price-list/import/+page.server';
 import { GET as exportRoute } from '../../src/routes/office/price-list/export/+server';
 import { resetDatabase } from '../support/database';

@@ -9,15 +9,11 @@ import { activities, leads, outbox, siteVisits, timeOff } from '$lib/server/plat
 import { deliverOutboxMessage } from '$lib/server/platform/outbox';
 import { stopQueue } from '$lib/server/platform/queue';
 import { zonedInstant } from '$lib/scheduling/zone';
-import {
-	VisitError,
-	bookVisit,
-	cancelVisit,
-	rescheduleVisit,
-	sendVisitReminder,
-	saveNotes,
-	visitByToken
-} from '$lib/server/visits/visits';
+import { VisitError } from '$lib/server/visits/errors';
+import { bookVisit, cancelVisit, rescheduleVisit } from '$lib/server/visits/booking';
+import { sendVisitReminder } from '$lib/server/visits/reminders';
+import { saveNotes } from '$lib/server/visits/notes';
+import { visitByToken } from '$lib/server/visits/homeowner';
 import { actions as visitPageActions } from '../../src/routes/office/visits/[id]/+page.server';
 import { actions as leadVisitActions } from '../../src/routes/office/leads/[id]/visit/+page.server';
 import {

@@ -1,6 +1,6 @@
 import { requireRole } from '$lib/server/auth/access';
 import type { SessionUser } from '$lib/server/auth/sessions';
-import { installDays } from '$lib/server/jobs/jobs';
+import { installDays } from '$lib/server/jobs/read';
 import { crewServiceDays } from '$lib/server/care/service';
 import { addDays } from '$lib/scheduling/zone';
 import { todaySummary } from '$lib/server/leads/leads';

@@ -3,7 +3,7 @@
 // pg-boss (each reminder queues the next), with an unsubscribe link that works.
 import { TZDate } from '@date-fns/tz';
 import { and, eq } from 'drizzle-orm';
-import { db, type Db, type Tx } from '../platform/db';
+import { db, type Db } from '../platform/db';
 import {
 	careReminders,
 	careSettings as careSettingsTable,

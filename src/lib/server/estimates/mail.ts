@@ -4,8 +4,18 @@ import { formatCents } from '$lib/components/estimates/money';
 import { origin } from '../platform/env';
 import { escapeHtml, htmlBody } from '../platform/mail';
 import type { OutgoingMail } from '../platform/outbox';
-import type { Contact, Estimate, EstimateAcceptance, Lead, Settings, User } from '../platform/db/schema';
-import type { StoredResult } from './estimates';
+import type {
+	Contact,
+	Estimate,
+	EstimateAcceptance,
+	Lead,
+	Settings,
+	User
+} from '../platform/db/schema';
+import type { StoredResult } from './records';
+
+export const formatTotal = (cents: number) =>
+	`$${(cents / 100).toLocaleString('en-US', { minimumFractionDigits: 2, maximumFractionDigits: 2 })}`;
 
 export interface MailContext {
 	firm: Settings;

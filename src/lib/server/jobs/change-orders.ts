@@ -2,7 +2,7 @@
 // link, approved or declined with the same acceptance record as an estimate. Approved ones
 // change the job's total (jobBalance) and its materials list; all of it goes on the timeline.
 import { and, asc, eq, sql } from 'drizzle-orm';
-import { db, type Db, type Tx } from '../platform/db';
+import { db, type Db } from '../platform/db';
 import {
 	changeOrders,
 	contacts,
@@ -16,7 +16,9 @@ import { dispatchMail, writeMail } from '../platform/outbox';
 import { origin } from '../platform/env';
 import { firmSettings } from '../platform/settings';
 import { changeOrderDecisionMail, changeOrderMail } from './mail';
-import { addActivity, JobError, jobRef } from './jobs';
+import { addActivity } from '../leads/timeline';
+import { JobError } from './errors';
+import { jobRef } from './labels';
 import { roundCents } from '$lib/estimating/pricing';
 import type { SessionUser } from '../auth/sessions';
 import type { z } from 'zod';
@@ -25,14 +27,6 @@ import type { changeOrderSchema } from '$lib/schema/jobs';
 const LINK_DAYS = 30;
 /** Categories that are work rather than material: they change the total, not the load list. */
 const NOT_MATERIAL = new Set(['labor', 'labour', 'service']);
-
-export async function approvedChangeOrdersCents(jobId: string, tx: Db = db): Promise<number> {
-	const [row] = await tx
-		.select({ sum: sql<number>`coalesce(sum(${changeOrders.acceptedTotalCents}), 0)::int` })
-		.from(changeOrders)
-		.where(and(eq(changeOrders.jobId, jobId), eq(changeOrders.status, 'approved')));
-	return row.sum;
-}
 
 export function priceLines(lines: z.output<typeof changeOrderSchema>['lines']): ChangeOrderLine[] {
 	return lines.map((l) => ({

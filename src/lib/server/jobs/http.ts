@@ -1,7 +1,7 @@
 // Maps the jobs domain's refusals to HTTP: missing → 404, another crew's job → 403, the rest
 // → a 400 form failure with the reason, so the page shows it beside the form.
 import { error, fail } from '@sveltejs/kit';
-import { JobError } from './jobs';
+import { JobError } from './errors';
 
 export async function jobAction<T>(run: () => Promise<T>, form = 'form') {
 	try {

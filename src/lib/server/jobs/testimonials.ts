@@ -9,7 +9,8 @@ import { origin } from '../platform/env';
 import { firmSettings } from '../platform/settings';
 import { testimonialRequestMail } from './mail';
 import { careSettings } from '../care/reminders';
-import { addActivity, jobRef } from './jobs';
+import { addActivity } from '../leads/timeline';
+import { jobRef } from './labels';
 import type { SessionUser } from '../auth/sessions';
 
 const LINK_DAYS = 60;

@@ -7,10 +7,17 @@ import { STAGES, type LeadQuery, type Stage } from '$lib/schema/leads';
 import { assembleList, listSql, searchParts, type LeadList, type ListContext } from './list-sql';
 import { formatWhen } from '$lib/components/leads/format';
 import { client, db, type Tx } from '../platform/db';
-import { activities, contacts, leads, photos, properties, users, type Lead } from '../platform/db/schema';
+import {
+	activities,
+	contacts,
+	leads,
+	photos,
+	properties,
+	users,
+	type Lead
+} from '../platform/db/schema';
 import { newId } from '../platform/crypto';
 import { firmSettings } from '../platform/settings';
-
 
 // --- the list ----------------------------------------------------------------------------------
 

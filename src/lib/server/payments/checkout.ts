@@ -4,10 +4,17 @@
 import { and, desc, eq } from 'drizzle-orm';
 import type Stripe from 'stripe';
 import { db, type Tx } from '../platform/db';
-import { checkoutRequests, contacts, estimates, jobs, payLinks, type Job } from '../platform/db/schema';
+import {
+	checkoutRequests,
+	contacts,
+	estimates,
+	jobs,
+	payLinks,
+	type Job
+} from '../platform/db/schema';
 import { newId, newToken, sha256 } from '../platform/crypto';
 import { origin } from '../platform/env';
-import { jobRef } from '../jobs/jobs';
+import { jobRef } from '../jobs/labels';
 import { writeMail } from '../platform/outbox';
 import { createCheckout, paymentsClient } from './provider';
 import {

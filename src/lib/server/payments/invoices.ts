@@ -18,7 +18,7 @@ import { newId } from '../platform/crypto';
 import { addDays } from '$lib/scheduling/zone';
 import { firmToday } from '../platform/settings';
 import { firmOn } from './mail';
-import { jobRef } from '../jobs/jobs';
+import { jobRef } from '../jobs/labels';
 import { DEPOSIT_TERMS_DAYS, FINAL_TERMS_DAYS, jobMoney, lockJob, paymentsOf } from './ledger';
 
 async function nextNumber(tx: Tx): Promise<number> {

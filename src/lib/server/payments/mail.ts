@@ -6,7 +6,7 @@ import { eq } from 'drizzle-orm';
 import { db } from '../platform/db';
 import { settings } from '../platform/db/schema';
 import { origin } from '../platform/env';
-import { jobRef } from '../jobs/jobs';
+import { jobRef } from '../jobs/labels';
 import type { Job, PaymentMethod, Settings } from '../platform/db/schema';
 
 type Db = Pick<typeof db, 'select'>;

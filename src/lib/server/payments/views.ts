@@ -3,7 +3,7 @@ import { eq } from 'drizzle-orm';
 import { db } from '../platform/db';
 import { contacts, type Job } from '../platform/db/schema';
 import { firmSettings } from '../platform/settings';
-import { jobRef } from '../jobs/jobs';
+import { jobRef } from '../jobs/labels';
 import { jobMoney, paymentsOf } from './ledger';
 import { ensureInvoice, invoicesOf } from './invoices';
 

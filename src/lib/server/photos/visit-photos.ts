@@ -7,7 +7,13 @@ import { photos, siteVisits } from '../platform/db/schema';
 import { newId } from '../platform/crypto';
 import { processPhoto } from '../platform/images';
 import { photoLinks } from './links';
-import { deleteObjects, putObject, randomKey, signedUrl, StorageUnavailableError } from '../platform/storage';
+import {
+	deleteObjects,
+	putObject,
+	randomKey,
+	signedUrl,
+	StorageUnavailableError
+} from '../platform/storage';
 
 export type VisitPhoto = typeof photos.$inferSelect;
 

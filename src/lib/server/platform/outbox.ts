@@ -8,7 +8,6 @@ import { newId } from './crypto';
 import { sendMail, type Message } from './mail';
 import { defineJob, enqueue } from './queue';
 
-
 export interface OutgoingMail extends Omit<Message, 'attachments'> {
 	dedupeKey: string;
 	leadId?: string;

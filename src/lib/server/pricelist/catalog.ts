@@ -18,7 +18,7 @@ import {
 	type PriceListKind,
 	type PumpRecord
 } from './csv';
-
+import { firstNonMonotoneIndex } from '$lib/estimating/pumps';
 
 export async function listItems(): Promise<ItemRecord[]> {
 	const rows = await db
@@ -233,7 +233,6 @@ export const pumpFormSchema = z.object({
 export async function savePump(input: z.output<typeof pumpFormSchema>) {
 	const check = catalogSchema.safeParse({ pumps: [input] });
 	if (!check.success) return check.error.issues.map((i) => i.message);
-	const { firstNonMonotoneIndex } = await import('$lib/estimating/pumps');
 	if (firstNonMonotoneIndex(input.curve) >= 0) {
 		return ['Flow must rise and head must not rise from one point to the next'];
 	}

@@ -4,15 +4,7 @@ import { z } from 'zod';
 import { settingsSchema } from '$lib/estimating/schema';
 import { HANDLING_METHODS } from '$lib/estimating/stones';
 import { centsToDollarText, formatCents } from '$lib/components/estimates/money';
-import {
-	dollarsCell,
-	emptyCell,
-	idCell,
-	issues,
-	nameCell,
-	toCsv,
-	type RowBase
-} from './csv-cells';
+import { dollarsCell, emptyCell, idCell, issues, nameCell, toCsv, type RowBase } from './csv-cells';
 
 export const LABOR_COLUMNS = [
 	'kind',

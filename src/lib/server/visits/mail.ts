@@ -12,7 +12,6 @@ import { origin } from '../platform/env';
 import { htmlBody } from '../platform/mail';
 import { writeMail } from '../platform/outbox';
 
-
 export interface VisitParty {
 	visit: SiteVisit;
 	leadNumber: number;

@@ -10,7 +10,7 @@ import {
 	rulesFor,
 	salespeople,
 	saveAvailability
-} from '$lib/server/visits/visits';
+} from '$lib/server/visits/availability';
 import { hoursFromForm, overlapErrors } from './hours';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 

@@ -1,7 +1,7 @@
 import { addDays, todayIn } from '$lib/scheduling/zone';
 import { dateSchema } from '$lib/schema/visits';
 import { requireRole } from '$lib/server/auth/access';
-import { installDays, listJobs } from '$lib/server/jobs/jobs';
+import { installDays, listJobs } from '$lib/server/jobs/read';
 import { firmSettings } from '$lib/server/platform/settings';
 import type { PageServerLoad } from './$types';
 

@@ -7,7 +7,7 @@ import {
 	confirmByHomeowner,
 	requestOtherTime,
 	visitByToken
-} from '$lib/server/visits/visits';
+} from '$lib/server/visits/homeowner';
 import { whenText } from '$lib/server/visits/mail';
 import type { Actions, PageServerLoad } from './$types';
 

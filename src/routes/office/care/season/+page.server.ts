@@ -17,7 +17,7 @@ import {
 	seasonBoard,
 	sendDates
 } from '$lib/server/care/season';
-import { crewLeads } from '$lib/server/jobs/jobs';
+import { crewLeads } from '$lib/server/jobs/read';
 import { firmSettings } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad } from './$types';
 

@@ -5,7 +5,8 @@ import { saleByHandSchema } from '$lib/schema/jobs';
 import { requireRole } from '$lib/server/auth/access';
 import { db } from '$lib/server/platform/db';
 import { contacts, leads } from '$lib/server/platform/db/schema';
-import { JobError, recordSaleByHand, sellableEstimates } from '$lib/server/jobs/jobs';
+import { JobError } from '$lib/server/jobs/errors';
+import { recordSaleByHand, sellableEstimates } from '$lib/server/jobs/conversion';
 import { firmToday } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad } from './$types';
 

@@ -33,7 +33,7 @@ import {
 	samePerson
 } from '$lib/server/leads/contact-merge';
 import { signedUrl } from '$lib/server/platform/storage';
-import { visitNotesOfLead } from '$lib/server/visits/visits';
+import { visitNotesOfLead } from '$lib/server/visits/notes';
 import type { Actions, PageServerLoad } from './$types';
 
 /** Photo links live five minutes; the page asks for fresh ones when it reloads. */

@@ -7,7 +7,6 @@ import {
 	integer,
 	pgEnum,
 	pgTable,
-	primaryKey,
 	text,
 	timestamp,
 	uniqueIndex
@@ -102,6 +101,5 @@ export const signInThrottles = pgTable('sign_in_throttles', {
 	failures: integer('failures').notNull().default(0),
 	lastFailureAt: timestamp('last_failure_at', { withTimezone: true }).notNull()
 });
-
 
 export type User = typeof users.$inferSelect;

@@ -1,12 +1,5 @@
 // Seasonal care reminders of completed jobs (autumn shut-down, spring start-up).
-import {
-	boolean,
-	integer,
-	pgTable,
-	primaryKey,
-	text,
-	uniqueIndex
-} from 'drizzle-orm/pg-core';
+import { boolean, integer, pgTable, text, uniqueIndex } from 'drizzle-orm/pg-core';
 import { createdAt, updatedAt } from './columns';
 import { jobs } from './jobs';
 

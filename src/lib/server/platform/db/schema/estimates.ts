@@ -8,7 +8,6 @@ import {
 	jsonb,
 	pgEnum,
 	pgTable,
-	primaryKey,
 	text,
 	timestamp,
 	uniqueIndex

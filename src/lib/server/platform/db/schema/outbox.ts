@@ -1,12 +1,4 @@
-import {
-	index,
-	integer,
-	jsonb,
-	pgTable,
-	primaryKey,
-	text,
-	timestamp
-} from 'drizzle-orm/pg-core';
+import { index, integer, jsonb, pgTable, text, timestamp } from 'drizzle-orm/pg-core';
 import { createdAt } from './columns';
 import { leads } from './leads';
 

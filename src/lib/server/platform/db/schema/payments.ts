@@ -10,7 +10,6 @@ import {
 	jsonb,
 	pgEnum,
 	pgTable,
-	primaryKey,
 	text,
 	timestamp,
 	uniqueIndex

@@ -1,10 +1,4 @@
-import {
-	index,
-	integer,
-	pgTable,
-	primaryKey,
-	text
-} from 'drizzle-orm/pg-core';
+import { index, integer, pgTable, text } from 'drizzle-orm/pg-core';
 import { createdAt } from './columns';
 import { users } from './auth';
 import { leads } from './leads';

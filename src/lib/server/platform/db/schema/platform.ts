@@ -1,11 +1,5 @@
 // Firm-wide rows: the firm's settings and the request counters every app process shares.
-import {
-	integer,
-	pgTable,
-	primaryKey,
-	text,
-	timestamp
-} from 'drizzle-orm/pg-core';
+import { integer, pgTable, primaryKey, text, timestamp } from 'drizzle-orm/pg-core';
 import { createdAt, updatedAt } from './columns';
 
 /** Fixed-window request counters shared by every app process (inquiry and upload limits). */

@@ -2,13 +2,12 @@ import { error, fail, redirect } from '@sveltejs/kit';
 import { requireRole } from '$lib/server/auth/access';
 import {
 	acceptanceFor,
-	createEstimate,
 	estimatesForLead,
 	getEstimate,
-	leadWithContact,
-	newVersion,
-	sendEstimate
-} from '$lib/server/estimates/estimates';
+	leadWithContact
+} from '$lib/server/estimates/records';
+import { createEstimate, newVersion } from '$lib/server/estimates/versions';
+import { sendEstimate } from '$lib/server/estimates/sending';
 import { estimatingConfig, loadCatalog } from '$lib/server/pricelist/catalog';
 import { estimateActionSchema } from '$lib/schema/estimates';
 import { firmSettings } from '$lib/server/platform/settings';

@@ -1,8 +1,8 @@
 // The two e-mails of a new inquiry: the acknowledgment to the prospect and the alert to the
 // owner. Plain text and self-contained HTML (no remote images), with the firm's details.
 import { BUDGETS, HEARD_FROM, SERVICES, TIMEFRAMES, type InquiryInput } from '$lib/schema/intake';
-import type { Settings } from '../platform/db/schema';
-import { escapeHtml } from '../platform/mail';
+import type { Settings } from '../../platform/db/schema';
+import { escapeHtml } from '../../platform/mail';
 
 export interface InquirySummary {
 	number: number;
