@@ -39,6 +39,8 @@ export interface RunResult {
 	tapV: number;
 	loadVA: number;
 	cableLengthM: number;
+	/** Trench dug for the run's cable (shared stretches counted once). */
+	trenchLengthM: number;
 	fixtures: FixtureOnRun[];
 	lastFixtureVolts: number;
 	lowestVolts: number;
@@ -159,6 +161,7 @@ function runResult(
 		tapV: run.tapV,
 		loadVA: placed.reduce((sum, p) => sum + p.va, 0),
 		cableLengthM: farthest * (1 + settings.cableSlackPercent / 100),
+		trenchLengthM: farthest,
 		fixtures,
 		lastFixtureVolts: fixtures[fixtures.length - 1].volts,
 		lowestVolts: range.lowest,

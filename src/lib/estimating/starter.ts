@@ -29,6 +29,7 @@ const SLOTS = {
 	wallCap: { category: 'wall', measure: COUNT, hint: /\bcap/i, strict: true },
 	pad: { category: 'aggregate', measure: VOLUME, hint: /base|pad/i, strict: true },
 	drain: { category: 'aggregate', measure: VOLUME, hint: /drain/i, strict: true },
+	drainPipe: { category: 'wall', measure: { lengthM: 1 }, hint: /drain|perforated/i, strict: true },
 	uplight: { category: 'lighting', measure: COUNT, hint: /up/i, exclude: /transformer/i },
 	pathLight: { category: 'lighting', measure: COUNT, hint: /path/i, exclude: /transformer/i },
 	transformer: { category: 'lighting', measure: COUNT, hint: /transformer/i, strict: true },
@@ -151,7 +152,8 @@ function wallParts(design: Design, pick: Pick, note: (text: string) => void) {
 		}
 		for (const [key, slot, what] of [
 			['padSku', SLOTS.pad, 'levelling pad base'],
-			['drainSku', SLOTS.drain, 'drainage stone']
+			['drainSku', SLOTS.drain, 'drainage stone'],
+			['drainPipeSku', SLOTS.drainPipe, 'drain pipe']
 		] as const) {
 			const item = pick(slot, wall[key]);
 			if (item) wall[key] = item.sku;

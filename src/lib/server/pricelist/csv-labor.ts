@@ -2,7 +2,7 @@
 // engine's settings.labor) a row.
 import { z } from 'zod';
 import { settingsSchema } from '$lib/estimating/schema';
-import { HANDLING_METHODS } from '$lib/estimating/stones';
+import { LABOR_RATES, type LaborRateKey } from '$lib/estimating/labor-rates';
 import { centsToDollarText, formatCents } from '$lib/components/estimates/money';
 import { dollarsCell, emptyCell, idCell, issues, nameCell, toCsv, type RowBase } from './csv-cells';
 
@@ -17,9 +17,8 @@ export const LABOR_COLUMNS = [
 	'default_rate'
 ] as const;
 
-type LaborHours = z.output<typeof settingsSchema>['labor'];
-type HoursPath =
-	readonly [keyof LaborHours] | readonly ['stoneHours', keyof LaborHours['stoneHours']];
+type LaborSettings = z.output<typeof settingsSchema>['labor'];
+type HoursPath = readonly ['rates', LaborRateKey] | readonly ['hoursPerDay'];
 
 export interface LaborTaskSpec {
 	id: string;
@@ -29,28 +28,14 @@ export interface LaborTaskSpec {
 	path: HoursPath;
 }
 
-const STONE_TASK_LABELS: Record<(typeof HANDLING_METHODS)[number], string> = {
-	'one-person': 'Set a stone one person can lift',
-	'team-lift': 'Set a stone by a team lift',
-	cart: 'Set a stone with a cart',
-	hoist: 'Set a stone with a hoist',
-	'compact-loader': 'Set a stone with a compact loader',
-	'larger-machine': 'Set a stone with a larger machine'
-};
-
+// Every rate of the engine's list, by its own key, then the crew day.
 export const LABOR_TASKS: readonly LaborTaskSpec[] = [
-	{ id: 'basin', label: 'Dig and set the basin', unit: 'basin', path: ['basinHours'] },
-	{ id: 'outlet', label: 'Plumb an outlet', unit: 'outlet', path: ['outletHours'] },
-	...HANDLING_METHODS.map((m) => ({
-		id: `stone-${m}`,
-		label: STONE_TASK_LABELS[m],
-		unit: 'stone',
-		path: ['stoneHours', m] as const
+	...LABOR_RATES.map((r) => ({
+		id: r.key,
+		label: r.label,
+		unit: r.unit,
+		path: ['rates', r.key] as const
 	})),
-	{ id: 'fixture', label: 'Set a lighting fixture', unit: 'fixture', path: ['fixtureHours'] },
-	{ id: 'cable', label: 'Lay lighting cable', unit: 'ft', path: ['cableHoursPerFt'] },
-	{ id: 'topping', label: 'Spread topping', unit: 'ft2', path: ['toppingHoursPerFt2'] },
-	{ id: 'wall-unit', label: 'Lay a wall unit', unit: 'wall unit', path: ['wallHoursPerUnit'] },
 	{ id: 'crew-day', label: 'Working hours in a crew day', unit: 'day', path: ['hoursPerDay'] }
 ];
 export const LABOR_TASK_UNITS = [...new Set(LABOR_TASKS.map((t) => t.unit))];
@@ -166,7 +151,7 @@ export function rowToLabor(cells: Record<string, string>, line: number): LaborRo
 }
 
 /** The engine's labor settings with defaults filled in (the defaults alone if the row is unreadable). */
-function laborSettings(engine: unknown): LaborHours {
+function laborSettings(engine: unknown): LaborSettings {
 	const parsed = settingsSchema.safeParse(engine ?? {});
 	return (parsed.success ? parsed.data : settingsSchema.parse({})).labor;
 }
@@ -176,22 +161,22 @@ export function taskHours(engine: unknown): { spec: LaborTaskSpec; hours: number
 	const labor = laborSettings(engine);
 	return LABOR_TASKS.map((spec) => ({
 		spec,
-		hours: spec.path.length === 1 ? (labor[spec.path[0]] as number) : labor.stoneHours[spec.path[1]]
+		hours: spec.path[0] === 'rates' ? labor.rates[spec.path[1]] : labor.hoursPerDay
 	}));
 }
 
 /** The engine's settings with the imported task hours and default rate written in. */
 export function withLabor(engine: Record<string, unknown>, records: readonly LaborRecord[]) {
 	const labor = { ...((engine.labor as Record<string, unknown> | undefined) ?? {}) };
-	const stoneHours = { ...((labor.stoneHours as Record<string, unknown> | undefined) ?? {}) };
+	const rates = { ...((labor.rates as Record<string, unknown> | undefined) ?? {}) };
 	for (const r of records) {
 		if (r.kind === 'rate' && r.isDefault) labor.rateId = r.rate.id;
 		if (r.kind !== 'task') continue;
 		const path = taskSpec(r.taskId)!.path;
-		if (path.length === 1) labor[path[0]] = r.hours;
-		else stoneHours[path[1]] = r.hours;
+		if (path[0] === 'rates') rates[path[1]] = r.hours;
+		else labor.hoursPerDay = r.hours;
 	}
-	if (Object.keys(stoneHours).length) labor.stoneHours = stoneHours;
+	if (Object.keys(rates).length) labor.rates = rates;
 	return { ...engine, labor };
 }
 

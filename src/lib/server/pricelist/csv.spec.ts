@@ -54,7 +54,7 @@ describe('price-list CSV', () => {
 			'sku,name,category,unit,unit_cost,unit_price\nA,Thing,other,furlong,-1.00,2.5.0\n'
 		);
 		expect(p.rows[0].errors).toEqual([
-			'unit “furlong” is not one of each, ft, ft2, ft3, yd3, ton, lb, bag, load',
+			'unit “furlong” is not one of each, ft, ft2, ft3, yd3, ton, lb, bag, load, day',
 			'unit_cost must not be negative',
 			'unit_price must be dollars and cents, such as 24.00'
 		]);
@@ -171,7 +171,7 @@ describe('labor CSV', () => {
 				LABOR_HEADER,
 				'rate,installer,Installer,,,38.00,85.00,yes',
 				'rate,mason,Stone mason,,,45,110.00,',
-				'task,basin,Dig and set the basin,basin,8,,,',
+				'task,basin,Set a basin,basin,8,,,',
 				'task,stone-team-lift,,stone,1.25,,,'
 			].join('\r\n')
 		);
@@ -202,16 +202,14 @@ describe('labor CSV', () => {
 			{ kind: 'task', taskId: 'stone-team-lift', hours: 1.25 }
 		]);
 		const engine = withLabor(
-			{ markupPercent: 10, labor: { outletHours: 2 } },
+			{ markupPercent: 10, labor: { rates: { branch: 2 } } },
 			p.rows.map((r) => r.labor!)
 		);
 		expect(engine).toEqual({
 			markupPercent: 10,
 			labor: {
-				outletHours: 2,
 				rateId: 'installer',
-				basinHours: 8,
-				stoneHours: { 'team-lift': 1.25 }
+				rates: { branch: 2, basin: 8, 'stone-team-lift': 1.25 }
 			}
 		});
 	});
@@ -220,8 +218,8 @@ describe('labor CSV', () => {
 			[
 				LABOR_HEADER,
 				'task,mowing,Mow,,1,,,',
-				'task,cable,Cable,ft2,0.02,,,',
-				'task,outlet,Outlet,outlet,-1,,,',
+				'task,trench,Trench,ft2,0.02,,,',
+				'task,branch,Branch,branch,-1,,,',
 				'task,fixture,Fixture,fixture,1,40.00,,',
 				'rate,helper,Helper,,2,-3.00,20.00,maybe',
 				'chore,x,,,,,,',
@@ -232,7 +230,7 @@ describe('labor CSV', () => {
 		);
 		expect(p.ok).toBe(false);
 		const errors = p.rows.map((r) => r.errors.join(' | '));
-		expect(errors[0]).toMatch(/^labor_id “mowing” is not a task we time: basin, outlet, /);
+		expect(errors[0]).toMatch(/^labor_id “mowing” is not a task we time: dig-hand, dig-machine, basin, /);
 		expect(errors[1]).toBe("unit “ft2” is not this task's unit: its hours are per ft");
 		expect(errors[2]).toBe('hours must not be negative');
 		expect(errors[3]).toBe('cost_per_hour is for rate rows: leave it empty');
@@ -245,7 +243,7 @@ describe('labor CSV', () => {
 		expect(errors[8]).toBe('hours of a crew day must be 0 to 24');
 	});
 	it('exports every rate and every task hour the engine uses, and reads them back', () => {
-		const engine = { labor: { rateId: 'mason', stoneHours: { hoist: 3 } } };
+		const engine = { labor: { rateId: 'mason', rates: { 'stone-hoist': 3 } } };
 		const rates = [
 			{ id: 'installer', name: 'Installer', costPerHourCents: 3800, pricePerHourCents: 8500 },
 			{ id: 'mason', name: '+Mason', costPerHourCents: 4500, pricePerHourCents: 11000 }
