@@ -3,17 +3,18 @@
 // imports back unchanged, and only the owner can import (sales may export).
 import { eq } from 'drizzle-orm';
 import { beforeEach, describe, expect, it } from 'vitest';
-import { db } from '$lib/server/db';
+import { db } from '$lib/server/platform/db';
 import {
 	estimatingSettings,
 	laborRates,
 	priceListItems,
 	pumpModels,
 	siteVisits
-} from '$lib/server/db/schema';
+} from '$lib/server/platform/db/schema';
 import { estimate as runEngine, demoDesign } from '$lib/estimating';
-import { exportPriceList, importPriceList, loadCatalog } from '$lib/server/pricelist';
-import { createEstimate, getEstimate } from '$lib/server/estimates';
+import { exportPriceList, importPriceList, loadCatalog } from '$lib/server/pricelist/catalog';
+import { createEstimate } from '$lib/server/estimates/versions';
+import { getEstimate } from '$lib/server/estimates/records';
 import { actions } from '../../src/routes/office/price-list/import/+page.server';
 import { GET as exportRoute } from '../../src/routes/office/price-list/export/+server';
 import { resetDatabase } from '../support/database';

@@ -1,8 +1,7 @@
 /** Zod schemas for the design (US customary input, JSON-serialisable) and the catalog. */
 import { z } from 'zod';
 import { FITTING_KINDS, NOMINAL_SIZES, PIPE_MATERIALS } from './pipes';
-import { ROCK_TYPES } from './stones';
-import { GAUGES } from './lighting';
+import { GAUGES, ROCK_TYPES } from './choices';
 import { CATEGORIES } from './categories';
 import { LABOR_RATES, SOIL_KINDS, SOILS, type LaborRateKey } from './labor-rates';
 

@@ -1,6 +1,7 @@
 /** Stone volumes and weights, and the safe way to set each one (NIOSH lifting equation). */
 import type { Settings, Stone } from './schema';
 import { KILOGRAMS_PER_POUND, inches, toSI } from './units';
+import { ROCK_TYPES, type RockType } from './choices';
 
 // Specific gravity (g/cm³) ranges, "Densities of Common Rock Types", A. Alden, About.com
 // Geology (reprinted by ThoughtCo). The engine uses each range's midpoint.
@@ -15,10 +16,9 @@ export const ROCK_DENSITY_RANGES = {
 	gneiss: [2.6, 2.9],
 	andesite: [2.5, 2.8],
 	rhyolite: [2.4, 2.6]
-} as const satisfies Record<string, readonly [number, number]>;
+} as const satisfies Record<RockType, readonly [number, number]>;
 
-export type RockType = keyof typeof ROCK_DENSITY_RANGES;
-export const ROCK_TYPES = Object.keys(ROCK_DENSITY_RANGES) as [RockType, ...RockType[]];
+export { ROCK_TYPES, type RockType };
 
 export function rockDensityKgM3(rock: RockType): number {
 	const [low, high] = ROCK_DENSITY_RANGES[rock];
