@@ -103,6 +103,12 @@ const ACTIONS: Record<string, Expect> = {
 	// Care: empty forms are refused before anything is written; unknown records answer 404.
 	'/office/care/plans/[id]': { anonymous: 303, owner: 404, sales: 403, crew: 403 },
 	'/office/care/properties/[id]?/addFeature': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/care/properties/[id]?/editFeature': {
+		anonymous: 303,
+		owner: 404,
+		sales: 404,
+		crew: 403
+	},
 	'/office/care/properties/[id]?/removeFeature': {
 		anonymous: 303,
 		owner: 404,

@@ -94,13 +94,18 @@ export function testimonialRequestMail(input: {
 	name: string;
 	jobTitle: string;
 	url: string;
+	/** The care plan offer with the property's private link, when a plan covers the feature. */
+	care?: { paragraph: string; action: { label: string; url: string } };
 }): Built {
 	return build(
 		`How is your new water feature? A few words for ${input.firm.firmName}`,
 		[
 			`Hello ${input.name},`,
 			`Thank you for having us build "${input.jobTitle}". Now that it has had a few days to settle in, would you tell us in a few sentences how it turned out?`,
-			'With your permission we show kind words on our website, with your first name and town only. Nothing appears until we have read it.'
+			'With your permission we show kind words on our website, with your first name and town only. Nothing appears until we have read it.',
+			...(input.care
+				? [input.care.paragraph, `${input.care.action.label}: ${input.care.action.url}`]
+				: [])
 		],
 		input.firm,
 		{ label: 'Write a few words', url: input.url }
@@ -110,32 +115,46 @@ export function testimonialRequestMail(input: {
 export function careReminderMail(input: {
 	firm: Settings;
 	name: string;
-	kind: 'shutdown' | 'startup';
+	kind: 'shutdown' | 'startup' | 'lighting';
 	jobTitle: string;
 	unsubscribeUrl: string;
 	/** Care plans: the visit notice or the plan offer, in place of "reply to book". */
 	care?: { paragraph: string; action: { label: string; url: string } };
 }): Built {
 	const paragraphs =
-		input.kind === 'shutdown'
-			? [
-					`Hello ${input.name},`,
-					`Frost is on its way. Before the first hard freeze, your water feature ("${input.jobTitle}") wants its autumn shut-down: unplug the pump at its ground-fault (GFCI) outlet, lift it out, rinse it and store it indoors in a bucket of water so its seals stay soft; drain the lines so no water freezes in them; leave the basin topped up or drained as we showed you.`,
-					'We can do it for you: reply to this e-mail or call us to book a visit.'
-				]
-			: [
-					`Hello ${input.name},`,
-					`Spring is here. Once nights stay above freezing, your water feature ("${input.jobTitle}") is ready for its start-up: clear leaves from the basin, set the pump back, top up the water, plug the pump into its ground-fault (GFCI) outlet and check every outlet runs evenly.`,
-					'Any outlet wiring or a tripping GFCI is work for a licensed electrician. We are glad to do the start-up for you: reply or call to book it.'
-				];
+		input.kind === 'lighting'
+			? lightingCheck(input.name, input.jobTitle)
+			: input.kind === 'shutdown'
+				? [
+						`Hello ${input.name},`,
+						`Frost is on its way. Before the first hard freeze, your water feature ("${input.jobTitle}") wants its autumn shut-down: unplug the pump at its ground-fault (GFCI) outlet, lift it out, rinse it and store it indoors in a bucket of water so its seals stay soft; drain the lines so no water freezes in them; leave the basin topped up or drained as we showed you.`,
+						'We can do it for you: reply to this e-mail or call us to book a visit.'
+					]
+				: [
+						`Hello ${input.name},`,
+						`Spring is here. Once nights stay above freezing, your water feature ("${input.jobTitle}") is ready for its start-up: clear leaves from the basin, set the pump back, top up the water, plug the pump into its ground-fault (GFCI) outlet and check every outlet runs evenly.`,
+						'Any outlet wiring or a tripping GFCI is work for a licensed electrician. We are glad to do the start-up for you: reply or call to book it.'
+					];
 	if (input.care) paragraphs[paragraphs.length - 1] = input.care.paragraph;
 	return build(
-		input.kind === 'shutdown'
-			? `Time for the autumn shut-down of your water feature`
-			: `Time for the spring start-up of your water feature`,
+		input.kind === 'lighting'
+			? 'Time for the autumn check of your garden lighting'
+			: input.kind === 'shutdown'
+				? `Time for the autumn shut-down of your water feature`
+				: `Time for the spring start-up of your water feature`,
 		paragraphs,
 		input.firm,
 		input.care?.action,
 		`No more seasonal reminders: ${input.unsubscribeUrl}`
 	);
+}
+
+/** The lighting-only job's autumn reminder: what to look at, and what is an electrician's work. */
+function lightingCheck(name: string, jobTitle: string): string[] {
+	return [
+		`Hello ${name},`,
+		`Evenings are drawing in, a good time to look over your garden lighting ("${jobTitle}"): trim back plants that have grown over the fixtures, wipe the lenses, straighten any light that was knocked, note any lamp that stays dark, and set the transformer's timer for the shorter days.`,
+		'Leave the transformer plugged into its ground-fault (GFCI) outlet. A tripping GFCI, or any work on the outlet or the house wiring, is for a licensed electrician.',
+		'We are glad to do the lighting check for you: reply to this e-mail or call us to book it.'
+	];
 }

@@ -9,6 +9,7 @@ import { origin } from './env';
 import { firmSettings } from './settings';
 import { testimonialRequestMail } from './job-mail';
 import { careSettings } from './care';
+import { completionCareOffer } from './care/offers';
 import { addActivity, jobRef, type Tx } from './jobsite';
 import type { SessionUser } from './auth';
 
@@ -39,7 +40,10 @@ export async function requestTestimonial(job: Job, tx: Tx): Promise<() => Promis
 		firm,
 		name: contact.name,
 		jobTitle: job.title,
-		url: `${origin()}/testimonial/${token}`
+		url: `${origin()}/testimonial/${token}`,
+		care: job.propertyId
+			? ((await completionCareOffer(tx, job.propertyId)) ?? undefined)
+			: undefined
 	});
 	const outboxId = await writeMail(
 		{ dedupeKey: `testimonial:${job.id}`, to: contact.email, ...mail, leadId: job.leadId },
