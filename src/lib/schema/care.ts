@@ -118,9 +118,11 @@ export const publicSignUpSchema = inquirySchema
 		lightingSize: featureSize,
 		...signUpSchema.shape
 	})
-	.refine((v) => FEATURE_KINDS.some((k) => v[`${k}Count`] > 0), {
+	.refine((v) => FEATURE_KINDS.some((k) => Number(v[`${k}Count`]) > 0), {
 		message: 'Tell us about at least one feature',
-		path: ['features']
+		path: ['features'],
+		// Checked even when another field is wrong, so every message shows at once.
+		when: () => true
 	});
 export type PublicSignUpInput = z.output<typeof publicSignUpSchema>;
 
