@@ -116,7 +116,8 @@ export const publicSignUpSchema = inquirySchema
 		streamSize: featureSize,
 		lightingCount: featureCount,
 		lightingSize: featureSize,
-		...signUpSchema.shape
+		...signUpSchema.shape,
+		planId: z.string({ message: 'Pick a plan' }).min(1, 'Pick a plan')
 	})
 	.refine((v) => FEATURE_KINDS.some((k) => Number(v[`${k}Count`]) > 0), {
 		message: 'Tell us about at least one feature',
