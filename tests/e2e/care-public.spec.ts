@@ -137,5 +137,16 @@ test('a homeowner signs up on the public page on a phone and chooses to be invoi
 
 	const owner = await browser.newPage();
 	await planInOffice(owner, who);
+	// After the first visit the owner corrects the size the homeowner gave.
+	await owner.getByRole('link', { name: who.name }).click();
+	await expect(owner.getByText('Fountain or bubbling stone, medium')).toBeVisible();
+	await owner.getByText('Edit this feature').click();
+	const edit = owner.locator('form[action="?/editFeature"]');
+	await edit.getByLabel('Size').selectOption('large');
+	await edit.getByLabel('Notes').fill('Four outlets, seen on the first visit.');
+	await edit.getByRole('button', { name: 'Save the feature' }).click();
+	await expect(owner.getByText('Fountain or bubbling stone, large')).toBeVisible();
+	await owner.reload();
+	await expect(owner.getByText('Four outlets, seen on the first visit.')).toBeVisible();
 	await owner.close();
 });
