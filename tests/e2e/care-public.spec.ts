@@ -3,6 +3,7 @@
 // provider's (stand-in's) page, or chooses to be invoiced; the owner then finds the plan in the
 // office. The plan is written straight to the e2e database (as in care.spec.ts).
 import { randomBytes } from 'node:crypto';
+import AxeBuilder from '@axe-core/playwright';
 import postgres from 'postgres';
 import { expect, test, type Page } from '@playwright/test';
 import { waitForMail } from '../support/mailbox';
@@ -52,6 +53,14 @@ async function fillSignUp(page: Page, who: { name: string; email: string; street
 	await page.getByRole('link', { name: /See the care plans, priced for your features/ }).click();
 	await expect(page).toHaveURL(/\/care$/);
 	await expect(page.getByRole('heading', { name: 'Seasonal care plans' })).toBeVisible();
+	const axe = await new AxeBuilder({ page })
+		.withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'])
+		.analyze();
+	expect(
+		axe.violations
+			.filter((v) => v.impact === 'serious' || v.impact === 'critical')
+			.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`)
+	).toEqual([]);
 
 	// Nothing filled in: every message shows beside its field, and nothing is sent.
 	await page.getByRole('button', { name: 'Sign up' }).click();
