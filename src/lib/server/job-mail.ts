@@ -112,7 +112,7 @@ export function testimonialRequestMail(input: {
 	);
 }
 
-export function careReminderMail(input: {
+interface CareReminderInput {
 	firm: Settings;
 	name: string;
 	kind: 'shutdown' | 'startup' | 'lighting';
@@ -120,28 +120,27 @@ export function careReminderMail(input: {
 	unsubscribeUrl: string;
 	/** Care plans: the visit notice or the plan offer, in place of "reply to book". */
 	care?: { paragraph: string; action: { label: string; url: string } };
-}): Built {
+}
+
+export function careReminderMail(input: CareReminderInput): Built {
+	if (input.kind === 'lighting') return lightingCheckMail(input);
 	const paragraphs =
-		input.kind === 'lighting'
-			? lightingCheck(input.name, input.jobTitle)
-			: input.kind === 'shutdown'
-				? [
-						`Hello ${input.name},`,
-						`Frost is on its way. Before the first hard freeze, your water feature ("${input.jobTitle}") wants its autumn shut-down: unplug the pump at its ground-fault (GFCI) outlet, lift it out, rinse it and store it indoors in a bucket of water so its seals stay soft; drain the lines so no water freezes in them; leave the basin topped up or drained as we showed you.`,
-						'We can do it for you: reply to this e-mail or call us to book a visit.'
-					]
-				: [
-						`Hello ${input.name},`,
-						`Spring is here. Once nights stay above freezing, your water feature ("${input.jobTitle}") is ready for its start-up: clear leaves from the basin, set the pump back, top up the water, plug the pump into its ground-fault (GFCI) outlet and check every outlet runs evenly.`,
-						'Any outlet wiring or a tripping GFCI is work for a licensed electrician. We are glad to do the start-up for you: reply or call to book it.'
-					];
+		input.kind === 'shutdown'
+			? [
+					`Hello ${input.name},`,
+					`Frost is on its way. Before the first hard freeze, your water feature ("${input.jobTitle}") wants its autumn shut-down: unplug the pump at its ground-fault (GFCI) outlet, lift it out, rinse it and store it indoors in a bucket of water so its seals stay soft; drain the lines so no water freezes in them; leave the basin topped up or drained as we showed you.`,
+					'We can do it for you: reply to this e-mail or call us to book a visit.'
+				]
+			: [
+					`Hello ${input.name},`,
+					`Spring is here. Once nights stay above freezing, your water feature ("${input.jobTitle}") is ready for its start-up: clear leaves from the basin, set the pump back, top up the water, plug the pump into its ground-fault (GFCI) outlet and check every outlet runs evenly.`,
+					'Any outlet wiring or a tripping GFCI is work for a licensed electrician. We are glad to do the start-up for you: reply or call to book it.'
+				];
 	if (input.care) paragraphs[paragraphs.length - 1] = input.care.paragraph;
 	return build(
-		input.kind === 'lighting'
-			? 'Time for the autumn check of your garden lighting'
-			: input.kind === 'shutdown'
-				? `Time for the autumn shut-down of your water feature`
-				: `Time for the spring start-up of your water feature`,
+		input.kind === 'shutdown'
+			? `Time for the autumn shut-down of your water feature`
+			: `Time for the spring start-up of your water feature`,
 		paragraphs,
 		input.firm,
 		input.care?.action,
@@ -149,12 +148,20 @@ export function careReminderMail(input: {
 	);
 }
 
-/** The lighting-only job's autumn reminder: what to look at, and what is an electrician's work. */
-function lightingCheck(name: string, jobTitle: string): string[] {
-	return [
-		`Hello ${name},`,
-		`Evenings are drawing in, a good time to look over your garden lighting ("${jobTitle}"): trim back plants that have grown over the fixtures, wipe the lenses, straighten any light that was knocked, note any lamp that stays dark, and set the transformer's timer for the shorter days.`,
+/** A lighting-only job's autumn reminder: what to look at, and what is an electrician's work. */
+function lightingCheckMail(input: CareReminderInput): Built {
+	const paragraphs = [
+		`Hello ${input.name},`,
+		`Evenings are drawing in, a good time to look over your garden lighting ("${input.jobTitle}"): trim back plants that have grown over the fixtures, wipe the lenses, straighten any light that was knocked, note any lamp that stays dark, and set the transformer's timer for the shorter days.`,
 		'Leave the transformer plugged into its ground-fault (GFCI) outlet. A tripping GFCI, or any work on the outlet or the house wiring, is for a licensed electrician.',
-		'We are glad to do the lighting check for you: reply to this e-mail or call us to book it.'
+		input.care?.paragraph ??
+			'We are glad to do the lighting check for you: reply to this e-mail or call us to book it.'
 	];
+	return build(
+		'Time for the autumn check of your garden lighting',
+		paragraphs,
+		input.firm,
+		input.care?.action,
+		`No more seasonal reminders: ${input.unsubscribeUrl}`
+	);
 }
