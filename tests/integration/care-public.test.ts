@@ -4,17 +4,17 @@
 // private link by mail instead of a sign-up.
 import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
-import { db } from '$lib/server/db';
+import { db } from '$lib/server/platform/db';
 import {
 	careSubscriptions,
 	contacts,
 	outbox,
 	properties,
 	propertyFeatures
-} from '$lib/server/db/schema';
+} from '$lib/server/platform/db/schema';
 import { planSchema } from '$lib/schema/care';
 import { savePlan } from '$lib/server/care/plans';
-import { stopQueue } from '$lib/server/queue';
+import { stopQueue } from '$lib/server/platform/queue';
 import { actions, load } from '../../src/routes/(site)/care/+page.server';
 import { load as careLoad } from '../../src/routes/(homeowner)/care/[token]/+page.server';
 import { resetDatabase } from '../support/database';

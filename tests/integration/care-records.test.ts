@@ -4,14 +4,15 @@
 // lighting-only job gets its autumn lighting check, queued at completion and sent once.
 import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import { and, eq, sql } from 'drizzle-orm';
-import { db } from '$lib/server/db';
-import { jobs, outbox, propertyFeatures } from '$lib/server/db/schema';
-import { sendCareReminder } from '$lib/server/care';
+import { db } from '$lib/server/platform/db';
+import { jobs, outbox, propertyFeatures } from '$lib/server/platform/db/schema';
+import { sendCareReminder } from '$lib/server/care/reminders';
 import { recordFeaturesOfJob } from '$lib/server/care/features';
-import { convertAcceptedEstimate, setStage } from '$lib/server/jobsite';
+import { convertAcceptedEstimate } from '$lib/server/jobs/conversion';
+import { setStage } from '$lib/server/jobs/stage';
 import { planSchema } from '$lib/schema/care';
 import { savePlan } from '$lib/server/care/plans';
-import { stopQueue } from '$lib/server/queue';
+import { stopQueue } from '$lib/server/platform/queue';
 import { actions as propertyActions } from '../../src/routes/office/care/properties/[id]/+page.server';
 import { load as careLoad } from '../../src/routes/(homeowner)/care/[token]/+page.server';
 import { resetDatabase } from '../support/database';

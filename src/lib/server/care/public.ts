@@ -8,12 +8,12 @@
 // address, and the private page shows the name and the features on record. That homeowner gets
 // the property's private link by e-mail instead (the plan offer), and signs up from there.
 import { and, eq, sql } from 'drizzle-orm';
-import { db } from '../db';
-import { contacts, properties, propertyFeatures } from '../db/schema';
-import { newId } from '../crypto';
+import { db } from '../platform/db';
+import { contacts, properties, propertyFeatures } from '../platform/db/schema';
+import { newId } from '../platform/crypto';
 import { dispatchAll } from '../payments/ledger';
 import { quotePlan, type FeatureKind, type FeatureSize } from '$lib/care/kinds';
-import type { CarePlan } from '../db/schema';
+import type { CarePlan } from '../platform/db/schema';
 import { CareError, type Tx } from './db';
 import { featuresOf, locateByPostal } from './features';
 import { newCareLink } from './links';

@@ -6,7 +6,7 @@ import { CareError } from '$lib/server/care/db';
 import { clientAddress } from '$lib/server/care/http';
 import { publicPlans, publicSignUp, SignUpFieldError } from '$lib/server/care/public';
 import { startPlanCheckout } from '$lib/server/care/subscriptions';
-import { minutes, SharedRateLimiter } from '$lib/server/rate-limit';
+import { minutes, SharedRateLimiter } from '$lib/server/platform/rate-limit';
 import type { Actions, PageServerLoad } from './$types';
 
 export const prerender = false;
