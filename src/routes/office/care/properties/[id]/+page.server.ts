@@ -17,7 +17,7 @@ import {
 	removeFeature,
 	setPin
 } from '$lib/server/care/features';
-import { careAction } from '$lib/server/care/http';
+import { domainAction } from '$lib/server/http/domain';
 import { sendPlanOffer } from '$lib/server/care/offers';
 import { featurePhotoLinks, storeCarePhoto } from '$lib/server/care/photos';
 import { planById } from '$lib/server/care/plans';
@@ -139,7 +139,7 @@ export const actions: Actions = {
 	offer: async (event) => {
 		requireRole(event, 'owner', 'sales');
 		await record(event.params.id);
-		const done = await careAction(() => sendPlanOffer(event.params.id), 'offer');
+		const done = await domainAction(() => sendPlanOffer(event.params.id), 'offer');
 		if (done) return done;
 		return { form: 'offer', saved: true };
 	}
