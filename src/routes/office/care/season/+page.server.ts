@@ -138,7 +138,10 @@ export const actions: Actions = {
 		if (!parsed.success) {
 			return fail(400, { form: 'move', message: 'Pick a day to move the visit to' });
 		}
-		const r = await domainAction(() => moveVisit(parsed.data.visitId, parsed.data.crewDayId), 'move');
+		const r = await domainAction(
+			() => moveVisit(parsed.data.visitId, parsed.data.crewDayId),
+			'move'
+		);
 		if (r) return r;
 		return { form: 'move', message: 'Moved.' };
 	},

@@ -1,11 +1,8 @@
 import { error, fail } from '@sveltejs/kit';
-import { eq } from 'drizzle-orm';
 import { z } from 'zod';
 import { fieldErrors } from '$lib/schema/auth';
 import { featureSchema, pinSchema } from '$lib/schema/care';
 import { requireRole } from '$lib/server/auth/access';
-import { db } from '$lib/server/platform/db';
-import { serviceVisits } from '$lib/server/platform/db/schema';
 import { CareError } from '$lib/server/care/db';
 import {
 	addFeature,
@@ -22,6 +19,7 @@ import { sendPlanOffer } from '$lib/server/care/offers';
 import { featurePhotoLinks, storeCarePhoto } from '$lib/server/care/photos';
 import { planById } from '$lib/server/care/plans';
 import { currentSubscription } from '$lib/server/care/subscriptions';
+import { visitsOfSubscription } from '$lib/server/care/service';
 import { PhotoError } from '$lib/server/platform/images';
 import { StorageUnavailableError } from '$lib/server/platform/storage';
 import type { Actions, PageServerLoad } from './$types';
@@ -53,11 +51,7 @@ export const load: PageServerLoad = async (event) => {
 			? {
 					...subscription,
 					planName: (await planById(subscription.planId)).name,
-					visits: await db
-						.select()
-						.from(serviceVisits)
-						.where(eq(serviceVisits.subscriptionId, subscription.id))
-						.orderBy(serviceVisits.windowStart)
+					visits: await visitsOfSubscription(subscription.id)
 				}
 			: null
 	};
