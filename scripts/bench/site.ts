@@ -6,7 +6,7 @@
  *
  * Prints performance, accessibility, best-practices and SEO scores, LCP, CLS, total bytes and
  * script bytes for the home page, the work index and one project page, and writes them to
- * bench/results/site.json. Goals (issue 3): performance ≥ 95, accessibility and SEO 100,
+ * bench/results/site.json. Goals: performance ≥ 95, accessibility and SEO 100,
  * home page ≤ 250 KB in all, 0 KB of script on content pages.
  */
 import { mkdirSync, writeFileSync } from 'node:fs';

@@ -47,18 +47,18 @@ export async function seedDemo(url: string): Promise<void> {
 	} finally {
 		await close();
 	}
-	// Demo inquiries (issue 4), with photos in the bucket of the same profile as the database.
+	// Demo inquiries, with photos in the bucket of the same profile as the database.
 	const profile = url.includes(`:${serviceConfig('test').pgPort}/`) ? 'test' : 'dev';
 	const services = appEnv(profile);
 	await seedLeads(url, { s3: { endpoint: services.S3_ENDPOINT, bucket: services.S3_BUCKET } });
-	// Demo availability and two booked visits on the intake seed's "visit booked" leads (issue 6).
+	// Demo availability and two booked visits on the intake seed's "visit booked" leads.
 	const visitsDb = scriptDb(url);
 	try {
 		await seedVisits(visitsDb.db);
 	} finally {
 		await visitsDb.close();
 	}
-	// The demo job (issue 9): a lead's accepted estimate converted and scheduled for the crew lead.
+	// The demo job: a lead's accepted estimate converted and scheduled for the crew lead.
 	const jobsDb = scriptDb(url);
 	try {
 		await seedJobs(jobsDb.db);

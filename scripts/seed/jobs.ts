@@ -1,4 +1,4 @@
-// The demo job (issue 9): Felix Marchbank's estimate, priced from the demo price list that
+// The demo job: Felix Marchbank's estimate, priced from the demo price list that
 // scripts/seed/pricelist.ts writes, accepted by the homeowner through his link, then converted by
 // the jobs domain's own convertAcceptedEstimate and scheduled for crew lead Rosa Lindqvist today
 // and tomorrow (firm time), so the crew lead's demo sign-in opens on a job. Safe to run twice:

@@ -1,4 +1,4 @@
-// Demo site visits (issue 6): weekly hours for salesperson Teo Baptiste and owner Mara Quill, a
+// Demo site visits: weekly hours for salesperson Teo Baptiste and owner Mara Quill, a
 // day of time off for Teo, and a booked visit for each of the two demo leads that the intake seed
 // leaves at "visit booked" (Marisol Quenby, Declan Ashgrove). The start times are taken from the
 // slot module itself (the same rules the booking screen offers), a few days from now in the firm's

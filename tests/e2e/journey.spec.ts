@@ -1,4 +1,4 @@
-// The whole job in one run (issue 11, item 1): a prospect browses a project and starts an inquiry
+// The whole job in one run: a prospect browses a project and starts an inquiry
 // from it with two photos; the owner sees it on Today and assigns it to Teo; Teo logs a call,
 // books a visit (the invitation with its .ics reaches the mail stand-in) and types the visit notes
 // on a phone; the estimate is built (pump match, an option) and sent; the homeowner takes the

@@ -1,7 +1,6 @@
 // The homeowner pays the deposit on the provider's (stand-in's) page and comes back to the
-// receipt; the office then sees the job ready to schedule. The estimate page and job screens of
-// issues 8 and 9 were not in place when this was written, so the accepted estimate and its job
-// are seeded straight into the e2e database below, and the homeowner opens the pay page with
+// receipt; the office then sees the job ready to schedule. So that payments are tested alone, the
+// accepted estimate and its job are seeded straight into the e2e database below, and the homeowner opens the pay page with
 // the estimate's own link token (what the estimate page's "Pay the deposit" button links to).
 import { randomBytes } from 'node:crypto';
 import postgres from 'postgres';

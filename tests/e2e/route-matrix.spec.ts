@@ -20,12 +20,12 @@ const PAGES: Record<string, Expect> = {
 	'/office/leads/[id]/visit': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	'/api/visits/slots': { anonymous: 401, owner: 400, sales: 400, crew: 403 },
 	'/visit/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
-	// Availability (issue 6): each salesperson's own; the owner picks anyone with ?person=.
+	// Availability: each salesperson's own; the owner picks anyone with ?person=.
 	'/office/availability': { anonymous: 303, owner: 200, sales: 200, crew: 403 },
 	'/office': STAFF,
 	'/office/team': OWNER_ONLY,
 	'/office/settings': OWNER_ONLY,
-	// Estimates (issue 8): owner and sales; the price list is read by sales, changed by the owner.
+	// Estimates: owner and sales; the price list is read by sales, changed by the owner.
 	'/office/estimates': { anonymous: 303, owner: 200, sales: 200, crew: 403 },
 	'/office/price-list': { anonymous: 303, owner: 200, sales: 200, crew: 403 },
 	'/office/price-list/export': { anonymous: 303, owner: 200, sales: 200, crew: 403 },
@@ -44,7 +44,7 @@ const PAGES: Record<string, Expect> = {
 	'/testimonial/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/care/unsubscribe/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/api/health': PUBLIC_API,
-	// Payments (issue 10): owner only; the webhook is POST-only and public; token pages 404 on a bad token.
+	// Payments: owner only; the webhook is POST-only and public; token pages 404 on a bad token.
 	'/office/payments': OWNER_ONLY,
 	'/office/payments/[jobId]': { anonymous: 303, owner: 404, sales: 403, crew: 403 },
 	'/office/payments/invoices/[number]': { anonymous: 303, owner: 404, sales: 403, crew: 403 },
@@ -68,7 +68,7 @@ const PAGES: Record<string, Expect> = {
 	'/care/[token]/paid': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/care/visit/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/care/visit/[token]/paid': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
-	// Leads (issue 5): owner and sales only; an unknown lead id is a 404.
+	// Leads: owner and sales only; an unknown lead id is a 404.
 	'/office/leads': LEADS,
 	'/office/leads/export.csv': LEADS,
 	'/office/leads/[id]': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
@@ -77,14 +77,14 @@ const PAGES: Record<string, Expect> = {
 
 /** Form actions (POST), with the status each gets before any validation. */
 const ACTIONS: Record<string, Expect> = {
-	// Visits (issue 6): the empty form is refused before anything is written.
+	// Visits: the empty form is refused before anything is written.
 	'/office/availability?/rules': { anonymous: 303, owner: 400, sales: 400, crew: 403 },
 	'/office/availability?/addTimeOff': { anonymous: 303, owner: 400, sales: 400, crew: 403 },
 	'/office/availability?/removeTimeOff': { anonymous: 303, owner: 400, sales: 400, crew: 403 },
 	'/office/visits/[id]?/notes': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	'/office/visits/[id]?/photo': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	'/office/visits/[id]?/deletePhoto': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
-	// Jobs (issue 9): an unknown job is 404 before anything is written; office-only actions 403 crew.
+	// Jobs: an unknown job is 404 before anything is written; office-only actions 403 crew.
 	// Jobs: an empty form fails validation, and the page then renders for an unknown job or token,
 	// so a plain (no-JavaScript) post answers the load's 404.
 	'/office/jobs/[id]?/schedule': { anonymous: 303, owner: 404, sales: 404, crew: 403 },

@@ -63,7 +63,7 @@ test.describe('public site', () => {
 		expect(seen.errors).toEqual([]);
 		expect(seen.scripts).toEqual([]);
 
-		// The inquiry page belongs to issue 4: only the reference it receives is checked here.
+		// The inquiry page is tested in intake.spec.ts: only the reference it receives is checked here.
 		await start.click();
 		await expect(page).toHaveURL(/\/start\?ref=wildlife-pond$/);
 		expect(new URL(page.url()).searchParams.get('ref')).toBe('wildlife-pond');

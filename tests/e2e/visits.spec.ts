@@ -1,4 +1,4 @@
-// Site visits (issue 6): the salesperson (demo Teo) books a visit on a demo lead, the homeowner
+// Site visits: the salesperson (demo Teo) books a visit on a demo lead, the homeowner
 // confirms through the link in the invitation, the visit is moved and cancelled, every mail carries
 // an .ics invitation; the visit notes are typed at a phone viewport and saved, with a photo whose
 // thumbnail shows on the agenda card and with the notes on the lead page; the first mailed link

@@ -3,7 +3,7 @@
 import { eq, sql } from 'drizzle-orm';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { db } from '$lib/server/platform/db';
-import { fountainIn } from '$lib/estimating/testing';
+import { fountainIn } from '../support/fountain';
 import { activities, priceListItems } from '$lib/server/platform/db/schema';
 import { createEstimate } from '$lib/server/estimates/versions';
 import { getEstimate } from '$lib/server/estimates/records';

@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm';
-import { fountainIn } from '$lib/estimating/testing';
+import { fountainIn } from '../support/fountain';
 import { isHttpError } from '@sveltejs/kit';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { db } from '$lib/server/platform/db';

@@ -19,7 +19,7 @@ export async function makeUser(role: Role, email = `${role}@test.example`, name 
 	return { id, email, name, role };
 }
 
-// --- leads (issue 5) ---------------------------------------------------------------------------
+// --- leads ---------------------------------------------------------------------------
 import * as leadSchema from '$lib/server/platform/db/schema';
 import { newId as newLeadId } from '$lib/server/platform/crypto';
 
@@ -91,7 +91,7 @@ export async function makeLead(f: LeadFixture = {}) {
 }
 
 // ---------------------------------------------------------------------------------------------
-// Issue 9 (jobs): a lead with a real engine estimate, optionally accepted by the homeowner.
+// Jobs: a lead with a real engine estimate, optionally accepted by the homeowner.
 // Direct inserts, so these tests do not depend on the estimates module's API.
 
 export async function makeEstimate(
@@ -178,7 +178,7 @@ export async function makeEstimate(
 }
 
 // ---------------------------------------------------------------------------------------------
-// Site visits (issue 6): leads made with direct inserts, so these tests need no intake code.
+// Site visits: leads made with direct inserts, so these tests need no intake code.
 import { availability, contacts, leads, properties } from '$lib/server/platform/db/schema';
 import { newId } from '$lib/server/platform/crypto';
 

@@ -1,4 +1,4 @@
-// Jobs (issue 9): with the SMTP stand-in out of reach, a homeowner's change-order approval and a
+// Jobs: with the SMTP stand-in out of reach, a homeowner's change-order approval and a
 // seasonal care reminder are still recorded, their mails wait in the outbox with a queued retry,
 // and go out (once) when mail is back.
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';

@@ -80,7 +80,7 @@ export const nav: NavItem[] = [
 	{ href: '/about', label: 'About' }
 ];
 
-/** The inquiry page (issue 4). `ref` carries a portfolio project's slug. */
+/** The inquiry page. `ref` carries a portfolio project's slug. */
 export function startHref(ref?: string): string {
 	return ref ? `/start?ref=${encodeURIComponent(ref)}` : '/start';
 }

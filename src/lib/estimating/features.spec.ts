@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import fixture from '../../../tests/fixtures/accepted-v1.json';
-import { yardDesign } from './bench';
+import { yardDesign } from '../../../scripts/bench/designs';
 import { demoCatalog, demoDesign, demoFountain } from './demo';
 import { estimate, type EstimateSuccess } from './index';
 import { defaultChoices, priceWithOverrides, totalsForChoices } from './overrides';

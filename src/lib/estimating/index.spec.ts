@@ -1,5 +1,5 @@
 import fc from 'fast-check';
-import { fountainIn } from './testing';
+import { fountainIn } from '../../../tests/support/fountain';
 import { describe, expect, it } from 'vitest';
 import { demoCatalog, demoDesign, estimate, type Design, type EstimateSuccess } from './index';
 import { sizesFor, PIPE_MATERIALS } from './pipes';

@@ -13,7 +13,7 @@ import {
 import { LABOR_RATES, SOILS } from './labor-rates';
 import { demoCatalog, demoDesign } from './demo';
 import { estimate } from './index';
-import { fountainIn } from './testing';
+import { fountainIn } from '../../../tests/support/fountain';
 import { settingsSchema, siteSchema } from './schema';
 import type { StoneResult } from './stones';
 import { toSI } from './units';

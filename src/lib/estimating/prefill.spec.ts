@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { fountainIn } from './testing';
+import { fountainIn } from '../../../tests/support/fountain';
 import { estimate } from './index';
 import { demoCatalog, demoDesign } from './demo';
 import { settingsSchema, type Design } from './schema';

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { fountainIn } from '$lib/estimating/testing';
+import { fountainIn } from '../../../../tests/support/fountain';
 import { demoDesign, designSchema } from '$lib/estimating';
 import { includedBuckets } from '$lib/estimating/pricing';
-import { yardDesign } from '$lib/estimating/bench';
+import { yardDesign } from '../../../../scripts/bench/designs';
 import { boxOf } from './geometry';
 import { inclusionFor, planOf } from './plan';
 

@@ -33,7 +33,7 @@ export const ROUTE_ROLES: ReadonlyArray<{ prefix: string; roles: readonly Role[]
 	{ prefix: '/api/leads', roles: ['owner', 'sales'] },
 	// Prospects are anonymous: the inquiry's photo uploads are public (rate-limited in the route).
 	{ prefix: '/api/uploads', roles: [] },
-	// The payment provider calls it; the SDK's signature check is the guard (issue 10).
+	// The payment provider calls it; the SDK's signature check is the guard.
 	{ prefix: '/api/payments/webhook', roles: [] },
 	{ prefix: '/api', roles: ALL_STAFF }
 ];

@@ -10,11 +10,16 @@ import { dispatchMail, writeMail } from '../platform/outbox';
 import { accountKey, clearThrottle } from './throttle';
 import { origin } from '../platform/env';
 import { firmSettings } from '../platform/settings';
+import { DomainError } from '../platform/errors';
 
 export const INVITATION_LIFETIME_MS = 7 * 24 * 60 * 60 * 1000;
 export const RESET_LIFETIME_MS = 60 * 60 * 1000;
 
-export class TeamError extends Error {}
+export class TeamError extends DomainError<'team'> {
+	constructor(message: string) {
+		super('team', message);
+	}
+}
 
 export function listMembers() {
 	return db

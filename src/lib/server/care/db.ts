@@ -1,15 +1,9 @@
 import { isDate, todayIn } from '$lib/scheduling/zone';
+import { DomainError } from '../platform/errors';
 
 export type { Db, Tx } from '../platform/db';
 
-export class CareError extends Error {
-	constructor(
-		readonly code: 'not_found' | 'forbidden' | 'invalid' | 'conflict',
-		message: string
-	) {
-		super(message);
-	}
-}
+export class CareError extends DomainError<'not_found' | 'forbidden' | 'invalid' | 'conflict'> {}
 
 /** Today's date ("YYYY-MM-DD") in the firm's time zone. */
 export function dayIn(timeZone: string, at = new Date()): string {

@@ -352,3 +352,12 @@ export async function crewServiceDays(user: SessionUser, from: string, to: strin
 		)
 		.orderBy(asc(serviceVisits.day), asc(serviceVisits.routeOrder));
 }
+
+/** A subscription's service visits, earliest window first. */
+export async function visitsOfSubscription(subscriptionId: string) {
+	return db
+		.select()
+		.from(serviceVisits)
+		.where(eq(serviceVisits.subscriptionId, subscriptionId))
+		.orderBy(serviceVisits.windowStart);
+}

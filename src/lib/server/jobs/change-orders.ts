@@ -1,6 +1,7 @@
 // Change orders: lines added or removed with prices, sent to the homeowner through a private
 // link, approved or declined with the same acceptance record as an estimate. Approved ones
 // change the job's total (jobBalance) and its materials list; all of it goes on the timeline.
+import { DomainError } from '../platform/errors';
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { db, type Db } from '../platform/db';
 import {
@@ -185,7 +186,12 @@ export async function changeOrderForHomeowner(token: string) {
 	};
 }
 
-export class DecisionError extends Error {}
+/** The homeowner's link no longer allows a decision (unknown, decided, expired or job closed). */
+export class DecisionError extends DomainError<'decided'> {
+	constructor(message: string) {
+		super('decided', message);
+	}
+}
 
 /** Records the homeowner's approval or refusal, once; then tells the office by e-mail. */
 export async function decideChangeOrder(

@@ -240,3 +240,13 @@ export async function sellableEstimates(leadId: string) {
 		.where(and(eq(estimates.leadId, leadId), ne(estimates.status, 'declined')))
 		.orderBy(sql`${estimates.number} desc`);
 }
+
+/** The lead a sale by hand is recorded for: its number and the homeowner's name. */
+export async function leadForSale(leadId: string) {
+	const [lead] = await db
+		.select({ id: leads.id, number: leads.number, name: contacts.name })
+		.from(leads)
+		.innerJoin(contacts, eq(contacts.id, leads.contactId))
+		.where(eq(leads.id, leadId));
+	return lead ?? null;
+}

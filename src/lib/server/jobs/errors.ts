@@ -1,4 +1,5 @@
 // The refusals of the jobs domain, each with a code the routes turn into a status.
+import { DomainError } from '../platform/errors';
 
 export type JobErrorCode =
 	| 'not_found'
@@ -10,13 +11,12 @@ export type JobErrorCode =
 	| 'bad_stage'
 	| 'invalid';
 
-export class JobError extends Error {
+export class JobError extends DomainError<JobErrorCode> {
 	constructor(
-		readonly code: JobErrorCode,
+		code: JobErrorCode,
 		message: string,
 		readonly jobId?: string
 	) {
-		super(message);
-		this.name = 'JobError';
+		super(code, message);
 	}
 }

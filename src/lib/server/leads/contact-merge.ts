@@ -7,6 +7,7 @@ import { and, eq, inArray, ne, or, sql } from 'drizzle-orm';
 import { db } from '../platform/db';
 import { activities, contacts, leads, type Contact } from '../platform/db/schema';
 import type { SessionUser } from '../auth/sessions';
+import { DomainError } from '../platform/errors';
 
 export interface PersonContact {
 	id: string;
@@ -19,14 +20,7 @@ export interface DuplicateCandidate extends PersonContact {
 	reasons: ('phone' | 'name')[];
 }
 
-export class MergeError extends Error {
-	constructor(
-		readonly code: 'not_found' | 'already_merged',
-		message: string
-	) {
-		super(message);
-	}
-}
+export class MergeError extends DomainError<'not_found' | 'already_merged'> {}
 
 const rootOf = (c: Pick<Contact, 'id' | 'mergedIntoId'>) => c.mergedIntoId ?? c.id;
 const sameRoot = sql`coalesce(${contacts.mergedIntoId}, ${contacts.id})`;

@@ -2,6 +2,7 @@
 // bare baseline), the lead page's reads and every staff edit with its timeline entry.
 // Edits that change the lead carry the version the editor saw: a stale version is refused with
 // who changed it and when, so two people never silently overwrite each other.
+import { DomainError } from '../platform/errors';
 import { and, asc, eq, inArray, isNull, sql } from 'drizzle-orm';
 import { STAGES, type LeadQuery, type Stage } from '$lib/schema/leads';
 import { assembleList, listSql, searchParts, type LeadList, type ListContext } from './list-sql';
@@ -90,23 +91,28 @@ export async function assignableStaff() {
 
 // --- edits -------------------------------------------------------------------------------------
 
-export class LeadNotFoundError extends Error {
+export class LeadNotFoundError extends DomainError<'not_found'> {
 	constructor() {
-		super('This lead does not exist (any more).');
+		super('not_found', 'This lead does not exist (any more).');
 	}
 }
 
-export class LeadConflictError extends Error {
+/** Someone else saved the lead since the editor loaded it. */
+export class LeadConflictError extends DomainError<'stale'> {
 	constructor(
 		readonly by: string,
 		readonly at: Date,
 		timeZone: string
 	) {
-		super(`Changed by ${by} at ${formatWhen(at, timeZone)}: reload to see their change.`);
+		super('stale', `Changed by ${by} at ${formatWhen(at, timeZone)}: reload to see their change.`);
 	}
 }
 
-export class LeadEditError extends Error {}
+export class LeadEditError extends DomainError<'invalid'> {
+	constructor(message: string) {
+		super('invalid', message);
+	}
+}
 
 /**
  * Updates the lead only if it is still at the version the editor saw; bumps the version.

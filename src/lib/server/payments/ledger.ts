@@ -2,6 +2,7 @@
 // what is due now, and what a payment changes (the deposit makes the job ready to schedule;
 // the balance paid on a complete job moves it to paid). Every write locks the job row first,
 // so two payments recorded at once cannot both pass the balance check.
+import { DomainError } from '../platform/errors';
 import { asc, desc, eq } from 'drizzle-orm';
 import { db, type Db, type Tx } from '../platform/db';
 import {
@@ -26,21 +27,9 @@ export const CURRENCY = (process.env.PAYMENTS_CURRENCY ?? 'usd').toLowerCase();
 export const DEPOSIT_TERMS_DAYS = 7;
 export const FINAL_TERMS_DAYS = 14;
 
-export class PaymentError extends Error {
-	constructor(
-		readonly code:
-			| 'not_found'
-			| 'over_balance'
-			| 'over_refund'
-			| 'nothing_due'
-			| 'duplicate_reference'
-			| 'invalid',
-		message: string
-	) {
-		super(message);
-		this.name = 'PaymentError';
-	}
-}
+export class PaymentError extends DomainError<
+	'not_found' | 'over_balance' | 'over_refund' | 'nothing_due' | 'duplicate_reference' | 'invalid'
+> {}
 
 export type Due = { kind: 'deposit' | 'final'; amountCents: number } | null;
 

@@ -1,7 +1,7 @@
 // What the homeowner's pages show: the job, what is due now, payments received, invoices.
 import { eq } from 'drizzle-orm';
 import { db } from '../platform/db';
-import { contacts, type Job } from '../platform/db/schema';
+import { contacts, jobs, type Job } from '../platform/db/schema';
 import { firmSettings } from '../platform/settings';
 import { jobRef } from '../jobs/labels';
 import { jobMoney, paymentsOf } from './ledger';
@@ -42,4 +42,14 @@ export async function homeownerView(job: Job) {
 			dueOn: i.dueOn
 		}))
 	};
+}
+
+/** A job with its homeowner's name and e-mail, for the office's payments page. */
+export async function jobWithContact(jobId: string) {
+	const [row] = await db
+		.select({ job: jobs, contactName: contacts.name, contactEmail: contacts.email })
+		.from(jobs)
+		.innerJoin(contacts, eq(contacts.id, jobs.contactId))
+		.where(eq(jobs.id, jobId));
+	return row ?? null;
 }

@@ -1,4 +1,4 @@
-// Photos taken at a site visit (issue 6, visit notes): the intake photo pipeline (processPhoto:
+// Photos taken at a site visit (the visit notes): the intake photo pipeline (processPhoto:
 // type from the bytes, pixel limit, orientation applied, metadata dropped, two sizes), stored in
 // the private bucket and in `photos` with the visit, the visit's lead and context 'visit'.
 import { and, asc, eq, inArray, or } from 'drizzle-orm';

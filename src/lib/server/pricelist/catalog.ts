@@ -284,3 +284,13 @@ export async function saveEstimatingSettings(input: z.output<typeof settingsForm
 		.onConflictDoUpdate({ target: estimatingSettings.id, set: { engine, validDays, terms } });
 	return [];
 }
+
+/** Every pump model as stored, smallest first (the price list page's table). */
+export async function pumpModelRows() {
+	return db.select().from(pumpModels).orderBy(asc(pumpModels.watts));
+}
+
+/** Every labor rate as stored (the price list page's table). */
+export async function laborRateRows() {
+	return db.select().from(laborRates).orderBy(asc(laborRates.id));
+}

@@ -1,14 +1,13 @@
 import { fail } from '@sveltejs/kit';
-import { asc } from 'drizzle-orm';
 import { fieldErrors, formValues } from '$lib/schema/auth';
 import { requireRole } from '$lib/server/auth/access';
-import { db } from '$lib/server/platform/db';
-import { laborRates, pumpModels } from '$lib/server/platform/db/schema';
 import {
 	estimatingConfig,
 	laborFormSchema,
+	laborRateRows,
 	listItems,
 	pumpFormSchema,
+	pumpModelRows,
 	removeItem,
 	saveEstimatingSettings,
 	saveLaborRate,
@@ -23,8 +22,8 @@ export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'owner', 'sales');
 	const [items, pumps, rates, config] = await Promise.all([
 		listItems(),
-		db.select().from(pumpModels).orderBy(asc(pumpModels.watts)),
-		db.select().from(laborRates).orderBy(asc(laborRates.id)),
+		pumpModelRows(),
+		laborRateRows(),
 		estimatingConfig()
 	]);
 	const hours = taskHours(config.engine).map(({ spec, hours }) => ({

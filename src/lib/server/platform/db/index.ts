@@ -21,3 +21,13 @@ export type Database = typeof db;
 export type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
 /** Either the client or a transaction: for helpers that work inside or outside one. */
 export type Db = Tx | typeof db;
+
+/** Whether this process can reach its database now (one round trip). */
+export async function databaseReachable(): Promise<boolean> {
+	try {
+		await client`select 1`;
+		return true;
+	} catch {
+		return false;
+	}
+}

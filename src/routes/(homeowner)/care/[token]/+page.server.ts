@@ -2,7 +2,8 @@ import { error, fail, redirect } from '@sveltejs/kit';
 import { fieldErrors } from '$lib/schema/auth';
 import { signUpSchema } from '$lib/schema/care';
 import { careLink } from '$lib/server/care/links';
-import { careAction, clientAddress } from '$lib/server/care/http';
+import { domainAction } from '$lib/server/http/domain';
+import { clientAddress } from '$lib/server/care/http';
 import {
 	cancelPlan,
 	homeownerCare,
@@ -53,7 +54,7 @@ export const actions: Actions = {
 		if (!parsed.success) {
 			return fail(400, { form: 'signUp', errors: fieldErrors(parsed.error), values });
 		}
-		const done = await careAction(
+		const done = await domainAction(
 			() =>
 				signUp(propertyId, {
 					planId: parsed.data.planId,

@@ -6,7 +6,7 @@ import { parseSeasonKey, SEASON_DEFAULTS } from '$lib/care/seasons';
 import { isDate, parseClock } from '$lib/scheduling/zone';
 import { requireRole } from '$lib/server/auth/access';
 import { dayIn } from '$lib/server/care/db';
-import { careAction } from '$lib/server/care/http';
+import { domainAction } from '$lib/server/http/domain';
 import { saveSeasonSettings, seasonSettings } from '$lib/server/care/plans';
 import {
 	addCrewDays,
@@ -97,7 +97,7 @@ export const actions: Actions = {
 			return fail(400, { form: 'crewDays', errors: fieldErrors(parsed.error), values });
 		}
 		const d = parsed.data;
-		const added = await careAction(
+		const added = await domainAction(
 			() =>
 				addCrewDays({
 					from: d.from,
@@ -123,7 +123,7 @@ export const actions: Actions = {
 		requireRole(event, 'owner');
 		const key = keyFrom(await event.request.formData());
 		if (!key) return fail(400, { form: 'propose', message: 'Pick a season' });
-		const r = await careAction(() => proposeSchedule(key), 'propose');
+		const r = await domainAction(() => proposeSchedule(key), 'propose');
 		if (!('placed' in r)) return r;
 		return {
 			form: 'propose',
@@ -138,7 +138,10 @@ export const actions: Actions = {
 		if (!parsed.success) {
 			return fail(400, { form: 'move', message: 'Pick a day to move the visit to' });
 		}
-		const r = await careAction(() => moveVisit(parsed.data.visitId, parsed.data.crewDayId), 'move');
+		const r = await domainAction(
+			() => moveVisit(parsed.data.visitId, parsed.data.crewDayId),
+			'move'
+		);
 		if (r) return r;
 		return { form: 'move', message: 'Moved.' };
 	},

@@ -14,7 +14,7 @@ import {
 	listChangeOrders,
 	sendChangeOrder
 } from '$lib/server/jobs/change-orders';
-import { jobAction, orHttp } from '$lib/server/jobs/http';
+import { domainAction, orHttp } from '$lib/server/http/domain';
 import { addPunchItem, setMaterialFlag, setPunchDone } from '$lib/server/jobs/checklists';
 import { attachJobPhoto } from '$lib/server/photos/job-photos';
 import {
@@ -139,7 +139,7 @@ export const actions: Actions = {
 		if (!parsed.success) {
 			return fail(400, { form: 'schedule', errors: fieldErrors(parsed.error) });
 		}
-		return jobAction(async () => {
+		return domainAction(async () => {
 			const conflicts = await scheduleJob(event.params.id, parsed.data, user);
 			return { form: 'schedule', saved: true, conflicts: conflicts.length };
 		}, 'schedule');
@@ -148,7 +148,7 @@ export const actions: Actions = {
 		const user = requireRole(event, 'owner', 'sales');
 		const parsed = idSchema.safeParse(Object.fromEntries(await event.request.formData()));
 		if (!parsed.success) return fail(400, { form: 'materials', message: 'Pick a material' });
-		return jobAction(async () => {
+		return domainAction(async () => {
 			await setMaterialFlag(
 				user,
 				event.params.id,
@@ -162,7 +162,7 @@ export const actions: Actions = {
 		const user = requireRole(event, 'owner', 'sales', 'crew');
 		const parsed = idSchema.safeParse(Object.fromEntries(await event.request.formData()));
 		if (!parsed.success) return fail(400, { form: 'materials', message: 'Pick a material' });
-		return jobAction(async () => {
+		return domainAction(async () => {
 			await setMaterialFlag(
 				user,
 				event.params.id,
@@ -178,13 +178,13 @@ export const actions: Actions = {
 		if (!parsed.success) {
 			return fail(400, { form: 'punch', message: fieldErrors(parsed.error).body });
 		}
-		return jobAction(() => addPunchItem(user, event.params.id, parsed.data.body), 'punch');
+		return domainAction(() => addPunchItem(user, event.params.id, parsed.data.body), 'punch');
 	},
 	punchDone: async (event) => {
 		const user = requireRole(event, 'owner', 'sales', 'crew');
 		const parsed = idSchema.safeParse(Object.fromEntries(await event.request.formData()));
 		if (!parsed.success) return fail(400, { form: 'punch', message: 'Pick an item' });
-		return jobAction(
+		return domainAction(
 			() => setPunchDone(user, event.params.id, parsed.data.itemId, parsed.data.on === '1'),
 			'punch'
 		);
@@ -193,7 +193,7 @@ export const actions: Actions = {
 		const user = requireRole(event, 'owner', 'sales', 'crew');
 		const parsed = stageSchema.safeParse(Object.fromEntries(await event.request.formData()));
 		if (!parsed.success) return fail(400, { form: 'stage', message: 'Pick a stage' });
-		return jobAction(() => setStage(user, event.params.id, parsed.data.to), 'stage');
+		return domainAction(() => setStage(user, event.params.id, parsed.data.to), 'stage');
 	},
 	photo: async (event) => {
 		const user = requireRole(event, 'owner', 'sales', 'crew');
@@ -237,7 +237,7 @@ export const actions: Actions = {
 				message: 'Not saved: check the fields marked.'
 			});
 		}
-		return jobAction(async () => {
+		return domainAction(async () => {
 			await createChangeOrder(event.params.id, result.draft, user);
 			return { form: 'changeOrder', saved: true };
 		}, 'changeOrder');
@@ -250,7 +250,7 @@ export const actions: Actions = {
 		if (!parsed.success) {
 			return fail(400, { form: 'changeOrder', message: fieldErrors(parsed.error).changeOrderId });
 		}
-		return jobAction(async () => {
+		return domainAction(async () => {
 			// Refuses (404) a change order of another job: it is looked up by both ids.
 			await sendChangeOrder(event.params.id, parsed.data.changeOrderId, user);
 			return { form: 'changeOrder', sent: true };

@@ -1,12 +1,9 @@
 import { error, fail, redirect } from '@sveltejs/kit';
-import { eq } from 'drizzle-orm';
 import { fieldErrors, formValues } from '$lib/schema/auth';
 import { saleByHandSchema } from '$lib/schema/jobs';
 import { requireRole } from '$lib/server/auth/access';
-import { db } from '$lib/server/platform/db';
-import { contacts, leads } from '$lib/server/platform/db/schema';
 import { JobError } from '$lib/server/jobs/errors';
-import { recordSaleByHand, sellableEstimates } from '$lib/server/jobs/conversion';
+import { leadForSale, recordSaleByHand, sellableEstimates } from '$lib/server/jobs/conversion';
 import { firmToday } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -14,13 +11,7 @@ import type { Actions, PageServerLoad } from './$types';
 export const load: PageServerLoad = async (event) => {
 	requireRole(event, 'owner', 'sales');
 	const leadId = event.url.searchParams.get('lead') ?? '';
-	const [lead] = leadId
-		? await db
-				.select({ id: leads.id, number: leads.number, name: contacts.name })
-				.from(leads)
-				.innerJoin(contacts, eq(contacts.id, leads.contactId))
-				.where(eq(leads.id, leadId))
-		: [];
+	const lead = leadId ? await leadForSale(leadId) : null;
 	if (!lead) error(404, 'Open this from a lead: no lead was named.');
 	return { lead, estimates: await sellableEstimates(lead.id), today: await firmToday() };
 };

@@ -1,10 +1,7 @@
 import { error, fail } from '@sveltejs/kit';
-import { eq } from 'drizzle-orm';
 import { fieldErrors, formValues } from '$lib/schema/auth';
 import { handPaymentSchema, invoiceSchema, refundSchema } from '$lib/schema/payments';
 import { requireRole } from '$lib/server/auth/access';
-import { db } from '$lib/server/platform/db';
-import { contacts, jobs } from '$lib/server/platform/db/schema';
 import { sendPayLink } from '$lib/server/payments/checkout';
 import { ensureInvoice, invoicesOf } from '$lib/server/payments/invoices';
 import {
@@ -14,15 +11,12 @@ import {
 	recordHandPayment,
 	recordRefund
 } from '$lib/server/payments/ledger';
+import { jobWithContact } from '$lib/server/payments/views';
 import { firmToday } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad } from './$types';
 
 async function jobOr404(id: string) {
-	const [row] = await db
-		.select({ job: jobs, contactName: contacts.name, contactEmail: contacts.email })
-		.from(jobs)
-		.innerJoin(contacts, eq(contacts.id, jobs.contactId))
-		.where(eq(jobs.id, id));
+	const row = await jobWithContact(id);
 	if (!row) error(404, 'There is no such job.');
 	return row;
 }

@@ -82,7 +82,7 @@ export const jobs = pgTable(
 		isWaterFeature: boolean('is_water_feature').notNull().default(false),
 		startedAt: timestamp('started_at', { withTimezone: true }),
 		completedAt: timestamp('completed_at', { withTimezone: true }),
-		/** Set at completion for the payments issue: contract + approved change orders − payments. */
+		/** Set at completion: contract + approved change orders − payments. */
 		finalBalanceCents: integer('final_balance_cents'),
 		paidAt: timestamp('paid_at', { withTimezone: true }),
 		careOptOutAt: timestamp('care_opt_out_at', { withTimezone: true }),

@@ -14,9 +14,9 @@ export const photos = pgTable(
 		/** Set while the photo waits for its inquiry to be sent; unclaimed drafts are swept. */
 		draftToken: text('draft_token').unique(),
 		context: text('context').notNull().default('intake'),
-		/** Set for photos taken at a site visit (context 'visit'); issue 6. */
+		/** Set for photos taken at a site visit (context 'visit'). */
 		visitId: text('visit_id').references(() => siteVisits.id, { onDelete: 'set null' }),
-		/** Set for photos the crew takes on the job (context 'job'); issue 9. */
+		/** Set for photos the crew takes on the job (context 'job'). */
 		jobId: text('job_id').references(() => jobs.id, { onDelete: 'cascade' }),
 		displayKey: text('display_key').notNull(),
 		thumbKey: text('thumb_key').notNull(),

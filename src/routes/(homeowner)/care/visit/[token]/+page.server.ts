@@ -1,7 +1,7 @@
 import { error, fail, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
 import { CareError } from '$lib/server/care/db';
-import { careAction } from '$lib/server/care/http';
+import { domainAction } from '$lib/server/http/domain';
 import { serviceVisitPhotoLinks } from '$lib/server/care/photos';
 import {
 	homeownerVisit,
@@ -43,7 +43,7 @@ export const actions: Actions = {
 		if (!parsed.success) {
 			return fail(400, { form: 'another', message: parsed.error.issues[0].message });
 		}
-		const r = await careAction(() => requestAnotherDay(v, parsed.data.message), 'another');
+		const r = await domainAction(() => requestAnotherDay(v, parsed.data.message), 'another');
 		return r ?? { form: 'another', sent: true };
 	},
 	pay: async ({ params }) => {

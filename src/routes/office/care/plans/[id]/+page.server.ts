@@ -3,7 +3,7 @@ import { fieldErrors } from '$lib/schema/auth';
 import { planSchema } from '$lib/schema/care';
 import { FEATURE_KINDS, FEATURE_SIZES, VISIT_KINDS } from '$lib/care/kinds';
 import { requireRole } from '$lib/server/auth/access';
-import { careAction } from '$lib/server/care/http';
+import { domainAction } from '$lib/server/http/domain';
 import { planById, savePlan } from '$lib/server/care/plans';
 import { CareError } from '$lib/server/care/db';
 import type { Actions, PageServerLoad } from './$types';
@@ -57,7 +57,7 @@ export const actions: Actions = {
 				values: Object.fromEntries([...data.keys()].map((k) => [k, String(data.get(k))]))
 			});
 		}
-		const id = await careAction(() =>
+		const id = await domainAction(() =>
 			savePlan(event.params.id === 'new' ? null : event.params.id, parsed.data)
 		);
 		if (typeof id !== 'string') return id;

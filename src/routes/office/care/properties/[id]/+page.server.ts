@@ -1,11 +1,8 @@
 import { error, fail } from '@sveltejs/kit';
-import { eq } from 'drizzle-orm';
 import { z } from 'zod';
 import { fieldErrors } from '$lib/schema/auth';
 import { featureSchema, pinSchema } from '$lib/schema/care';
 import { requireRole } from '$lib/server/auth/access';
-import { db } from '$lib/server/platform/db';
-import { serviceVisits } from '$lib/server/platform/db/schema';
 import { CareError } from '$lib/server/care/db';
 import {
 	addFeature,
@@ -18,11 +15,12 @@ import {
 	setPin,
 	updateFeature
 } from '$lib/server/care/features';
-import { careAction } from '$lib/server/care/http';
+import { domainAction } from '$lib/server/http/domain';
 import { sendPlanOffer } from '$lib/server/care/offers';
 import { featurePhotoLinks, storeCarePhoto } from '$lib/server/care/photos';
 import { planById } from '$lib/server/care/plans';
 import { currentSubscription } from '$lib/server/care/subscriptions';
+import { visitsOfSubscription } from '$lib/server/care/service';
 import { PhotoError } from '$lib/server/platform/images';
 import { StorageUnavailableError } from '$lib/server/platform/storage';
 import type { Actions, PageServerLoad } from './$types';
@@ -54,11 +52,7 @@ export const load: PageServerLoad = async (event) => {
 			? {
 					...subscription,
 					planName: (await planById(subscription.planId)).name,
-					visits: await db
-						.select()
-						.from(serviceVisits)
-						.where(eq(serviceVisits.subscriptionId, subscription.id))
-						.orderBy(serviceVisits.windowStart)
+					visits: await visitsOfSubscription(subscription.id)
 				}
 			: null
 	};
@@ -85,10 +79,9 @@ export const actions: Actions = {
 		if (!parsed.success) {
 			return fail(400, { form: 'edit', featureId, errors: fieldErrors(parsed.error), values });
 		}
-		const done = await careAction(
-			() => updateFeature(event.params.id, featureId, parsed.data),
-			'edit'
-		);
+		const done = await domainAction(async () => {
+			await updateFeature(event.params.id, featureId, parsed.data);
+		}, 'edit');
 		if (done) return done;
 		return { form: 'edit', featureId, saved: true };
 	},
@@ -156,7 +149,7 @@ export const actions: Actions = {
 	offer: async (event) => {
 		requireRole(event, 'owner', 'sales');
 		await record(event.params.id);
-		const done = await careAction(() => sendPlanOffer(event.params.id), 'offer');
+		const done = await domainAction(() => sendPlanOffer(event.params.id), 'offer');
 		if (done) return done;
 		return { form: 'offer', saved: true };
 	}

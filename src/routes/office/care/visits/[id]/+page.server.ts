@@ -1,7 +1,7 @@
 import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
 import { requireRole } from '$lib/server/auth/access';
-import { careAction, careHttp } from '$lib/server/care/http';
+import { domainAction, orHttp } from '$lib/server/http/domain';
 import { serviceVisitPhotoLinks, storeCarePhoto } from '$lib/server/care/photos';
 import {
 	addPart,
@@ -21,7 +21,7 @@ const STAFF = ['owner', 'sales', 'crew'] as const;
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, ...STAFF);
-	const visit = await careHttp(() => serviceVisitFor(user, event.params.id));
+	const visit = await orHttp(() => serviceVisitFor(user, event.params.id));
 	const [view, photos, parts] = await Promise.all([
 		crewServiceView(visit),
 		serviceVisitPhotoLinks(visit.id),
@@ -41,7 +41,7 @@ export const actions: Actions = {
 		const user = requireRole(event, ...STAFF);
 		const parsed = tickSchema.safeParse(Object.fromEntries(await event.request.formData()));
 		if (!parsed.success) return fail(400, { form: 'tick', message: 'Pick a checklist item' });
-		return careAction(
+		return domainAction(
 			() => tickChecklist(user, event.params.id, parsed.data.index, parsed.data.done === '1'),
 			'tick'
 		);
@@ -54,7 +54,7 @@ export const actions: Actions = {
 		if (!parsed.success) {
 			return fail(400, { form: 'notes', message: parsed.error.issues[0].message });
 		}
-		const r = await careAction(
+		const r = await domainAction(
 			() => saveServiceNotes(user, event.params.id, parsed.data.notes),
 			'notes'
 		);
@@ -67,7 +67,7 @@ export const actions: Actions = {
 		if (!parsed.success) {
 			return fail(400, { form: 'part', message: parsed.error.issues[0].message, values });
 		}
-		const r = await careAction(
+		const r = await domainAction(
 			() => addPart(user, event.params.id, parsed.data.sku, parsed.data.quantity),
 			'part'
 		);
@@ -77,11 +77,11 @@ export const actions: Actions = {
 		const user = requireRole(event, ...STAFF);
 		const partId = String((await event.request.formData()).get('partId') ?? '');
 		if (!partId) return fail(400, { form: 'part', message: 'Pick a part' });
-		return careAction(() => removePart(user, event.params.id, partId), 'part');
+		return domainAction(() => removePart(user, event.params.id, partId), 'part');
 	},
 	photo: async (event) => {
 		const user = requireRole(event, ...STAFF);
-		const visit = await careHttp(() => serviceVisitFor(user, event.params.id));
+		const visit = await orHttp(() => serviceVisitFor(user, event.params.id));
 		const file = (await event.request.formData()).get('photo');
 		if (!(file instanceof File) || file.size === 0) {
 			return fail(400, { form: 'photo', message: 'Choose a photo first' });
@@ -102,7 +102,7 @@ export const actions: Actions = {
 	},
 	done: async (event) => {
 		const user = requireRole(event, ...STAFF);
-		const r = await careAction(() => completeServiceVisit(user, event.params.id), 'done');
+		const r = await domainAction(() => completeServiceVisit(user, event.params.id), 'done');
 		return r ?? { form: 'done', saved: true };
 	}
 };

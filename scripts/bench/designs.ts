@@ -1,11 +1,11 @@
 /**
- * The designs the estimate benchmark (scripts/bench/estimate.ts, `npm run bench:estimate`) times:
+ * The designs the estimate benchmark (`npm run bench:estimate`, estimate.ts beside this file) times:
  * the three-outlet demo, a twelve-outlet design with lighting and a wall, and a whole yard: a pond,
  * a three-fall pondless stream, the three-column fountain, lights and a wall.
  */
-import { demoCatalog, demoDesign, demoFountain } from './demo';
-import type { Design } from './schema';
-import { starterPond, starterStream } from './starter-features';
+import { demoCatalog, demoDesign, demoFountain } from '../../src/lib/estimating/demo';
+import type { Design } from '../../src/lib/estimating/schema';
+import { starterPond, starterStream } from '../../src/lib/estimating/starter-features';
 
 export function yardDesign(): Design {
 	const base = demoDesign();

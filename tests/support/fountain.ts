@@ -1,5 +1,5 @@
 /** For the specs: the first fountain of a design, typed for editing (input) or reading (parsed). */
-import type { Design, FeatureInput, Fountain, ParsedDesign } from './schema';
+import type { Design, FeatureInput, Fountain, ParsedDesign } from '../../src/lib/estimating/schema';
 
 type FountainInput = Extract<FeatureInput, { kind: 'fountain' }>;
 
