@@ -316,8 +316,13 @@ describe('imported task hours and the visit notes', () => {
 			['Move Granite accent boulders in by hand', 24]
 		]);
 		expect(row.scope).toBe('Side gate only\nSite: steep slope, rocky soil, access 22 in wide');
-		const stored = row.result as { engine: { labor: { tasks: { task: string }[] } } };
-		// Rocky ground digs at 2.5 times the loam rate (common practice, no source).
-		expect(stored.engine.labor.tasks.map((t) => t.task)).toContain('Dig the basin (by hand)');
+		// The wall's footing joins the base work on the steep slope: with the basin that is more than
+		// 3 bank yd³ to dig, so a machine digs it; the cable trench is still dug by hand, at the
+		// rocky-ground rate (common practice, no source).
+		const tasks = (
+			row.result as { engine: { labor: { tasks: { task: string; basis: string }[] } } }
+		).engine.labor.tasks;
+		expect(tasks.map((t) => t.task)).toContain('Dig the basin (machine)');
+		expect(tasks.find((t) => t.task === 'Trench and lay lighting cable')?.basis).toMatch(/rocky/i);
 	});
 });
