@@ -106,7 +106,11 @@ describe('converting a sold estimate', () => {
 			.where(and(eq(activities.leadId, leadId), eq(activities.kind, 'job.created')));
 		expect(timeline).toHaveLength(1);
 		expect(rows[0].crewNeeded).toBe(4);
-		expect(rows[0].depositDueCents).toBe(185420);
+		// 30% of the demo's $8,082.91 (base + pebble). Worked by hand: base materials $3,414.20
+		// taxable + $126.50 haul-off + $140.00 delivery, labor 38.389 crew-hours × $85 = $3,263.06:
+		// subtotal $6,943.76, markup 10% $694.38, tax 7.25% of $3,414.20 × 1.1 = $272.28, so
+		// $7,910.42; the pebble $87.50 + 0.741 h × $85 = $62.96, markup $15.05, tax $6.98: $172.49.
+		expect(rows[0].depositDueCents).toBe(242487);
 		expect(rows[0].frozen.choices.alternates.topping).toBe('topping-pebble');
 		// The job is named after the design, not after the first line of the scope text.
 		expect(rows[0].title).toBe(demoDesign().name);

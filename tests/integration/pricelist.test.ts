@@ -16,6 +16,8 @@ import { exportPriceList, importPriceList, loadCatalog } from '$lib/server/price
 import { createEstimate } from '$lib/server/estimates/versions';
 import { getEstimate } from '$lib/server/estimates/records';
 import { actions } from '../../src/routes/office/price-list/import/+page.server';
+import { actions as pageActions } from '../../src/routes/office/price-list/+page.server';
+import { LABOR_TASKS, taskHours } from '$lib/server/pricelist/csv';
 import { GET as exportRoute } from '../../src/routes/office/price-list/export/+server';
 import { resetDatabase } from '../support/database';
 import { makeUser, seedFirm } from './fixtures';
@@ -144,6 +146,67 @@ describe('labor rates and task hours', () => {
 	});
 });
 
+describe('labor rates on the price list page', () => {
+	const postRates = (user: { id: string; role: string }, fields: Record<string, string>) => {
+		const body = new FormData();
+		for (const [k, v] of Object.entries(fields)) body.append(k, v);
+		const url = 'http://127.0.0.1/office/price-list?/rates';
+		return pageActions.rates({
+			locals: { user: { ...user, email: `${user.role}@test.example`, name: user.role } },
+			url: new URL(url),
+			request: new Request(url, { method: 'POST', body })
+		} as never);
+	};
+	const current = async () =>
+		Object.fromEntries(
+			taskHours((await db.select().from(estimatingSettings))[0]?.engine).map((t) => [
+				t.spec.id,
+				String(t.hours)
+			])
+		);
+	const crew = { baseCrewSize: '3', machineDigAboveYd3: '2', truckCapacityTons: '12' };
+
+	it('the owner sets each rate; the estimate then digs and sets stones at the firm’s rates', async () => {
+		const owner = await makeUser('owner');
+		const fields = { ...(await current()), ...crew, 'dig-hand': '4', 'stone-hoist': '1.5' };
+		expect(Object.keys(fields)).toEqual(expect.arrayContaining(LABOR_TASKS.map((t) => t.id)));
+		expect(await postRates(owner, fields)).toEqual({ form: 'rates', saved: 'rates' });
+		const catalog = await loadCatalog();
+		expect(catalog.settings).toMatchObject({
+			labor: {
+				baseCrewSize: 3,
+				machineDigAboveYd3: 2,
+				rates: { 'dig-hand': 4, 'stone-hoist': 1.5 }
+			},
+			equipment: { truckCapacityTons: 12 }
+		});
+		// The demo basin, 48 ft³ = 1.78 yd³ by hand, at the firm's 4 person-hours a yd³.
+		expect(laborHoursFor(catalog, /^Dig the basin/)).toBeCloseTo((48 / 27) * 4, 9);
+		// The tall column by hoist: 1.5 h for its team of 4.
+		expect(laborHoursFor(catalog, /^Set Tall basalt column/)).toBeCloseTo(6, 9);
+	});
+
+	it('refuses a negative or missing rate beside its field and writes nothing; sales may not post', async () => {
+		const owner = await makeUser('owner');
+		const sales = await makeUser('sales');
+		const before = await snapshot();
+		const fields = { ...(await current()), ...crew, 'dig-hand': '-1', fixture: '' };
+		const refused = (await postRates(owner, fields)) as unknown as {
+			status: number;
+			data: { fieldErrors: Record<string, string> };
+		};
+		expect(refused.status).toBe(400);
+		expect(refused.data.fieldErrors).toMatchObject({
+			'dig-hand': 'Must not be negative',
+			fixture: 'Enter a number'
+		});
+		await expect(postRates(sales, { ...(await current()), ...crew })).rejects.toMatchObject({
+			status: 403
+		});
+		expect(await snapshot()).toEqual(before);
+	});
+});
+
 describe('export and import again', () => {
 	it('gives back the same price list for each of the three lists', async () => {
 		for (const list of ['items', 'pumps', 'labor'] as const) {
@@ -253,8 +316,13 @@ describe('imported task hours and the visit notes', () => {
 			['Move Granite accent boulders in by hand', 24]
 		]);
 		expect(row.scope).toBe('Side gate only\nSite: steep slope, rocky soil, access 22 in wide');
-		const stored = row.result as { engine: { labor: { tasks: { task: string }[] } } };
-		// Rocky ground digs at 2.5 times the loam rate (common practice, no source).
-		expect(stored.engine.labor.tasks.map((t) => t.task)).toContain('Dig the basin (by hand)');
+		// The wall's footing joins the base work on the steep slope: with the basin that is more than
+		// 3 bank yd³ to dig, so a machine digs it; the cable trench is still dug by hand, at the
+		// rocky-ground rate (common practice, no source).
+		const tasks = (
+			row.result as { engine: { labor: { tasks: { task: string; basis: string }[] } } }
+		).engine.labor.tasks;
+		expect(tasks.map((t) => t.task)).toContain('Dig the basin (machine)');
+		expect(tasks.find((t) => t.task === 'Trench and lay lighting cable')?.basis).toMatch(/rocky/i);
 	});
 });

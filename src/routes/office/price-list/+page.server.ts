@@ -15,6 +15,8 @@ import {
 	settingsFormSchema
 } from '$lib/server/pricelist/catalog';
 import { taskHours } from '$lib/server/pricelist/csv';
+import { saveTaskRates, taskRatesFormSchema } from '$lib/server/pricelist/task-rates';
+import { settingsSchema } from '$lib/estimating/schema';
 import { itemFormSchema, saveItem } from '$lib/server/pricelist/item-form';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -32,7 +34,14 @@ export const load: PageServerLoad = async (event) => {
 		unit: spec.unit,
 		hours
 	}));
-	return { items, pumps, rates, config, taskHours: hours, canEdit: user.role === 'owner' };
+	const parsed = settingsSchema.safeParse(config.engine ?? {});
+	const engine = parsed.success ? parsed.data : settingsSchema.parse({});
+	const crew = {
+		baseCrewSize: engine.labor.baseCrewSize,
+		machineDigAboveYd3: engine.labor.machineDigAboveYd3,
+		truckCapacityTons: engine.equipment.truckCapacityTons
+	};
+	return { items, pumps, rates, config, taskHours: hours, crew, canEdit: user.role === 'owner' };
 };
 
 export const actions: Actions = {
@@ -86,6 +95,21 @@ export const actions: Actions = {
 		}
 		await saveLaborRate(parsed.data);
 		return { form: 'labor', saved: parsed.data.id };
+	},
+	rates: async (event) => {
+		requireRole(event, 'owner');
+		const data = await event.request.formData();
+		const parsed = taskRatesFormSchema.safeParse(Object.fromEntries(data));
+		if (!parsed.success) {
+			return fail(400, {
+				form: 'rates',
+				values: formValues(data),
+				fieldErrors: fieldErrors(parsed.error)
+			});
+		}
+		const errors = await saveTaskRates(parsed.data as Record<string, number>);
+		if (errors.length) return fail(400, { form: 'rates', values: formValues(data), errors });
+		return { form: 'rates', saved: 'rates' };
 	},
 	settings: async (event) => {
 		requireRole(event, 'owner');
