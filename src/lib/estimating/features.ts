@@ -24,16 +24,28 @@ import type { StonesResult } from './stones';
 import { analyseStream, bankBoulders, streamFlowM3s, type StreamResult } from './stream';
 import { fromSI, gph, toSI, type UnitSystem } from './units';
 import { fountainSystem, pondSystem, streamSystem, type WaterSystem } from './watersystem';
+import { crewHours } from './crew';
+import {
+	analyseYard,
+	isYardFeature,
+	yardLines,
+	yardStones,
+	yardTasks,
+	type YardResult
+} from './yard';
 
 export const FEATURE_LABELS: Record<Feature['kind'], string> = {
 	fountain: 'Stone fountain over a basin',
 	pond: 'Pond',
-	stream: 'Pondless stream or waterfall'
+	stream: 'Pondless stream or waterfall',
+	path: 'Path, patio or terrace',
+	drainage: 'Dry creek and drainage',
+	planting: 'Planting'
 };
 
 export const bucketOf = (optionId?: string) => optionId ?? BASE_BUCKET;
 
-export interface FeatureResult {
+export interface FeatureResult extends YardResult {
 	id: string;
 	kind: Feature['kind'];
 	name: string;
@@ -90,6 +102,10 @@ export function analyseFeatures(
 				systemId: f.id,
 				pond: analysePond(f, catalog.items, settings, system.flowM3s)
 			});
+		} else if (isYardFeature(f)) {
+			const yard = analyseYard(f, settings);
+			stones.push(...yardStones(f, yard));
+			results.push({ ...base, ...yard });
 		} else {
 			const intoPond = f.feedsPondId
 				? design.features.some((p) => p.kind === 'pond' && p.id === f.feedsPondId)
@@ -285,6 +301,7 @@ export function featureLines(
 		if (f.kind === 'fountain') fountainLines(f, i, r, add, design.features.length > 1);
 		else if (f.kind === 'pond' && r.pond) pondLines(f, i, r.pond, catalog, add, warn);
 		else if (f.kind === 'stream' && r.stream) streamLines(f, i, r.stream, catalog, add, warn);
+		else if (isYardFeature(f)) yardLines(f, i, r, bucketOf(f.optionId), add);
 	});
 }
 
@@ -297,6 +314,7 @@ export function featureTasks(
 	catalog: ParsedCatalog
 ): LaborTask[] {
 	const hours = catalog.settings.labor;
+	const items = new Map(catalog.items.map((x) => [x.sku, x]));
 	const tasks: LaborTask[] = [];
 	design.features.forEach((f, i) => {
 		const bucket = bucketOf(f.optionId);
@@ -322,6 +340,10 @@ export function featureTasks(
 				task: `Set skimmer, filter and pump: ${f.name}`,
 				hours: hours.basinHours / 2
 			});
+		} else if (isYardFeature(f)) {
+			for (const t of yardTasks(f, r, catalog.settings, items)) {
+				tasks.push({ bucket, task: t.task, hours: crewHours(t) });
+			}
 		} else if (r.stream) {
 			tasks.push({
 				bucket,

@@ -112,7 +112,10 @@ describe('the demo estimate', () => {
 				'stone submersible tall tap the three through topping transformer underlayment unit ' +
 				'uplight va valve voltage wall washed ' +
 				'epdm mil pond ponds skimmer rated gph biological filter to gal waterfall weir box flexible ' +
-				'reservoir vault stream mixed bank flagstone edging by square foot'
+				'reservoir vault stream mixed bank flagstone edging by square foot ' +
+				'sandstone concrete paver step slab edge restraint lengths sand for bedding polymeric ' +
+				'joint cobble woven landscape fabric creek perennial ornamental grass flowering shrub ' +
+				'shredded bark mulch compost soil amendment'
 			).split(' ')
 		);
 		const names: string[] = [];
