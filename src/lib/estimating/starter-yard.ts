@@ -87,12 +87,16 @@ export function starterDrainage(items: readonly CatalogItem[]): DrainageInput {
 		},
 		cobbleSku: find(items, 'aggregate', /cobble/i, VOLUME_UNITS, byVolume),
 		fabricSku: find(items, ['other', 'liner'], /fabric/i, ['ft2']),
-		boulderSku: find(items, 'stone', /creek|boulder/i, ['each', 'ton', 'lb']),
+		boulderSku:
+			find(items, 'stone', /creek/i, ['each', 'ton', 'lb']) ??
+			find(items, 'stone', /boulder/i, ['each', 'ton', 'lb']),
 		boulder: { lengthIn: 18, widthIn: 14, heightIn: 12, rock: 'granite', spacingFt: 6 },
 		soakaway: {
 			depthFt: 3,
 			voidFraction: 0.35,
-			sku: find(items, 'aggregate', /drain|clean|gravel/i, VOLUME_UNITS, byVolume),
+			sku:
+				find(items, 'aggregate', /drain/i, VOLUME_UNITS, byVolume) ??
+				find(items, 'aggregate', /gravel/i, VOLUME_UNITS, byVolume),
 			fabricSku: find(items, ['other', 'liner'], /fabric/i, ['ft2'])
 		}
 	};
