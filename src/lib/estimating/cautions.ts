@@ -130,7 +130,9 @@ export function cautionsFor(facts: CautionFacts): Caution[] {
 	if (facts.openWaterDepthM > 0) {
 		list.push(openWater(facts.openWaterDepthM, facts.openWaterLimitM, facts.openWaterWhere));
 	}
-	if (facts.drainsWater?.length) list.push(foundationWater(facts.drainsWater, facts.soakaways ?? []));
+	if (facts.drainsWater?.length) {
+		list.push(foundationWater(facts.drainsWater, facts.soakaways ?? []));
+	}
 	if (facts.steps?.length) list.push(stepsCaution(facts.steps));
 	list.push(LOCAL_CODES);
 	return list;

@@ -57,8 +57,13 @@ describe("Manning's equation", () => {
 	it('sizes a bottom width that carries the flow at the depth given, and no wider', () => {
 		const q = 0.05;
 		const b = bottomWidthForM(q, 0.15, 2, 0.04, 0.02);
-		expect(manningFlowM3s({ bottomM: b, depthM: 0.15, sideSlope: 2 }, 0.04, 0.02)).toBeCloseTo(q, 6);
-		expect(manningFlowM3s({ bottomM: b * 0.99, depthM: 0.15, sideSlope: 2 }, 0.04, 0.02)).toBeLessThan(q);
+		expect(manningFlowM3s({ bottomM: b, depthM: 0.15, sideSlope: 2 }, 0.04, 0.02)).toBeCloseTo(
+			q,
+			6
+		);
+		expect(
+			manningFlowM3s({ bottomM: b * 0.99, depthM: 0.15, sideSlope: 2 }, 0.04, 0.02)
+		).toBeLessThan(q);
 	});
 });
 
@@ -77,7 +82,10 @@ describe('a dry creek into a soak-away', () => {
 		// 2,000 ft² of paving and roof, a creek 2 in deep: both storms need a flat bottom.
 		const base = drainage();
 		const wide = {
-			catchment: { areas: [{ shape: 'rectangle' as const, lengthFt: 50, widthFt: 40 }], runoffC: 0.9 },
+			catchment: {
+				areas: [{ shape: 'rectangle' as const, lengthFt: 50, widthFt: 40 }],
+				runoffC: 0.9
+			},
 			creek: { ...base.creek!, flowDepthIn: 2 }
 		};
 		const own = analyseDrainage(drainage({ ...wide, rainInPerHr: 4 }), settings);
@@ -123,7 +131,10 @@ describe('drainage properties', () => {
 					const make = (length: number) =>
 						analyseDrainage(
 							drainage({
-								catchment: { areas: [{ shape: 'rectangle', lengthFt: length, widthFt: w }], runoffC: c },
+								catchment: {
+									areas: [{ shape: 'rectangle', lengthFt: length, widthFt: w }],
+									runoffC: c
+								},
 								creek: { ...drainage().creek!, slopePercent: slope }
 							}),
 							settings

@@ -158,7 +158,9 @@ function quantities(result: PartResults, units: UnitSystem) {
 		}
 	}
 	for (const f of result.features) {
-		for (const q of yardQuantities(f)) add(`${q.key}-${f.id}`, `${f.name}: ${q.label}`, q.kind, q.si);
+		for (const q of yardQuantities(f)) {
+			add(`${q.key}-${f.id}`, `${f.name}: ${q.label}`, q.kind, q.si);
+		}
 	}
 	if (result.stones.stones.length) {
 		add('stone-weight', 'Stone, total weight', 'mass', result.stones.totalWeightKg);

@@ -49,7 +49,10 @@ describe('a flagstone path', () => {
 		// = 9.9 ft³ of sandstone at 2.5 g/cm³ (midpoint of 2.2–2.8, Alden's rock densities), 156.07
 		// lb/ft³: 1,545 lb.
 		expect(ft3(r.stoneVolumeM3)).toBeCloseTo(9.9, 9);
-		expect(fromSI(r.stoneMassKg, 'mass', 'lb')).toBeCloseTo(9.9 * 2500 * 0.0283168466 / 0.45359237, 3);
+		expect(fromSI(r.stoneMassKg, 'mass', 'lb')).toBeCloseTo(
+			(9.9 * 2500 * 0.0283168466) / 0.45359237,
+			3
+		);
 	});
 
 	it('orders the base and bedding loose, with their compaction factors', () => {
@@ -93,7 +96,10 @@ describe('pavers', () => {
 
 describe('steps', () => {
 	it('warn when the rise or tread is outside the residential code', () => {
-		const steep = analysePath(path({ steps: { count: 3, riseIn: 8, treadIn: 9, widthFt: 4 } }), settings);
+		const steep = analysePath(
+			path({ steps: { count: 3, riseIn: 8, treadIn: 9, widthFt: 4 } }),
+			settings
+		);
 		const text = steep.warnings.join(' ');
 		expect(text).toMatch(/R311\.7\.5\.1/);
 		expect(text).toMatch(/R311\.7\.5\.2/);
@@ -125,7 +131,14 @@ describe('path properties', () => {
 					const a = make(l);
 					const b = make(l * grow);
 					for (const { r, hours } of [a, b]) {
-						for (const v of [r.stoneMassKg, r.paverCount, r.baseLooseM3, r.edgeM, r.excavationM3, hours]) {
+						for (const v of [
+							r.stoneMassKg,
+							r.paverCount,
+							r.baseLooseM3,
+							r.edgeM,
+							r.excavationM3,
+							hours
+						]) {
 							expect(Number.isFinite(v)).toBe(true);
 							expect(v).toBeGreaterThanOrEqual(0);
 						}

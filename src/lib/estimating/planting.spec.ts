@@ -10,7 +10,10 @@ import { fromSI } from './units';
 
 const settings = settingsSchema.parse({});
 const planting = (over: Record<string, unknown> = {}) =>
-	featureSchema.parse({ ...starterPlanting(catalogSchema.parse(demoCatalog()).items), ...over }) as PlantingFeature;
+	featureSchema.parse({
+		...starterPlanting(catalogSchema.parse(demoCatalog()).items),
+		...over
+	}) as PlantingFeature;
 
 /** Points of a triangular lattice of spacing s inside [0, side)²: rows s·√3/2 apart, every other shifted s/2. */
 function latticePoints(side: number, s: number): number {
@@ -95,7 +98,9 @@ describe('planting properties', () => {
 					expect(n).toBeGreaterThanOrEqual(1);
 					expect(plantsFor(area * k, s, layout)).toBeGreaterThanOrEqual(n);
 					expect(plantsFor(area, s * k, layout)).toBeLessThanOrEqual(n);
-					expect(plantsFor(area, s, 'triangular')).toBeGreaterThanOrEqual(plantsFor(area, s, 'square'));
+					expect(plantsFor(area, s, 'triangular')).toBeGreaterThanOrEqual(
+						plantsFor(area, s, 'square')
+					);
 				}
 			),
 			{ numRuns: 300 }

@@ -56,7 +56,9 @@ export function analysePlanting(f: PlantingFeature, settings: Settings): Plantin
 		.filter((g) => g.count === undefined)
 		.reduce((s, g) => s + g.coverPercent, 0);
 	if (covered > 100 + 1e-9) {
-		warnings.push(`${f.name}: the plant groups cover ${covered}% of the beds, more than all of them`);
+		warnings.push(
+			`${f.name}: the plant groups cover ${covered}% of the beds, more than all of them`
+		);
 	}
 	return {
 		areaM2: area,
@@ -71,11 +73,19 @@ export function analysePlanting(f: PlantingFeature, settings: Settings): Plantin
 const YD3 = feet(3) ** 3;
 
 /** Planting, mulching and amending, from the counts and volumes and the firm's rates. */
-export function plantingTasks(f: PlantingFeature, r: PlantingResult, settings: Settings): CrewTask[] {
+export function plantingTasks(
+	f: PlantingFeature,
+	r: PlantingResult,
+	settings: Settings
+): CrewTask[] {
 	const p = settings.planting;
 	const plantHours = r.groups.reduce((s, g) => s + g.count * p.plantPersonHours[g.container], 0);
 	return withWork([
-		crewTask(`Work in soil amendment: ${f.name}`, (r.amendM3 / YD3) * p.amendPersonHoursPerYd3, p.crewSize),
+		crewTask(
+			`Work in soil amendment: ${f.name}`,
+			(r.amendM3 / YD3) * p.amendPersonHoursPerYd3,
+			p.crewSize
+		),
 		crewTask(`Plant: ${f.name}`, plantHours, p.crewSize),
 		crewTask(`Spread mulch: ${f.name}`, (r.mulchM3 / YD3) * p.mulchPersonHoursPerYd3, p.crewSize)
 	]);

@@ -310,9 +310,7 @@ const pathFeatureSchema = z.object({
 	surfaceSku: z.string().optional(),
 	thicknessIn: positive.default(1.5),
 	rock: z.enum(ROCK_TYPES).default('sandstone'),
-	paver: z
-		.object({ lengthIn: positive, widthIn: positive })
-		.default({ lengthIn: 8, widthIn: 4 }),
+	paver: z.object({ lengthIn: positive, widthIn: positive }).default({ lengthIn: 8, widthIn: 4 }),
 	/** Flagstone: the share of the area left as joints between stones. */
 	jointPercent: z.number().nonnegative('Must not be negative').max(60, 'At most 60%').default(10),
 	/** Pavers: the joint width between units. */
@@ -410,7 +408,14 @@ const plantingFeatureSchema = z.object({
 	wastePercent: percent.optional()
 });
 
-export const FEATURE_KINDS = ['fountain', 'pond', 'stream', 'path', 'drainage', 'planting'] as const;
+export const FEATURE_KINDS = [
+	'fountain',
+	'pond',
+	'stream',
+	'path',
+	'drainage',
+	'planting'
+] as const;
 export const WATER_FEATURE_KINDS = ['fountain', 'pond', 'stream'] as const;
 export const featureSchema = z.discriminatedUnion('kind', [
 	fountainFeatureSchema,
@@ -514,8 +519,16 @@ export const settingsSchema = z.object({
 	// production rates are person-hours of a practised crew (common practice, no source).
 	hardscape: z
 		.object({
-			baseCompactionFactor: z.number().min(1, 'At least 1').max(3, 'At most 3').default(BASE_COMPACTION_FACTOR),
-			beddingCompactionFactor: z.number().min(1, 'At least 1').max(3, 'At most 3').default(BEDDING_COMPACTION_FACTOR),
+			baseCompactionFactor: z
+				.number()
+				.min(1, 'At least 1')
+				.max(3, 'At most 3')
+				.default(BASE_COMPACTION_FACTOR),
+			beddingCompactionFactor: z
+				.number()
+				.min(1, 'At least 1')
+				.max(3, 'At most 3')
+				.default(BEDDING_COMPACTION_FACTOR),
 			crewSize: count.min(1, 'At least one').default(2),
 			digFt3PerPersonHour: positive.default(8),
 			baseFt3PerPersonHour: positive.default(15),

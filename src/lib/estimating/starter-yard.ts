@@ -54,7 +54,13 @@ export function starterPath(items: readonly CatalogItem[]): PathInput {
 		jointPercent: 10,
 		baseSku: find(items, 'aggregate', /base/i, VOLUME_UNITS, byVolume),
 		baseDepthIn: 4,
-		beddingSku: find(items, 'aggregate', /sand/i, VOLUME_UNITS, (i) => byVolume(i) && !/joint|poly/i.test(i.name)),
+		beddingSku: find(
+			items,
+			'aggregate',
+			/sand/i,
+			VOLUME_UNITS,
+			(i) => byVolume(i) && !/joint|poly/i.test(i.name)
+		),
 		beddingDepthIn: 1,
 		jointSku: find(items, 'aggregate', /joint|poly/i, VOLUME_UNITS, byVolume),
 		edgeSku: find(items, ['paving', 'other'], /edg/i, ['ft']),
@@ -141,7 +147,13 @@ export function starterPlanting(items: readonly CatalogItem[]): PlantingInput {
 		],
 		mulchSku: find(items, ['planting', 'aggregate'], /mulch/i, ['yd3', 'ft3', 'bag'], byVolume),
 		mulchDepthIn: 3,
-		amendSku: find(items, ['planting', 'aggregate'], /compost|amend/i, ['yd3', 'ft3', 'bag'], byVolume),
+		amendSku: find(
+			items,
+			['planting', 'aggregate'],
+			/compost|amend/i,
+			['yd3', 'ft3', 'bag'],
+			byVolume
+		),
 		amendDepthIn: 2
 	};
 }

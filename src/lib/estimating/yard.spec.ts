@@ -97,7 +97,11 @@ describe('a lighting-only design', () => {
 			expect.arrayContaining(['Set lighting fixtures', 'Lay lighting cable'])
 		);
 		expect(r.cautions.map((c) => c.id)).toEqual(
-			expect.arrayContaining(['locate-utilities', 'ground-fault-protection', 'licensed-electrician'])
+			expect.arrayContaining([
+				'locate-utilities',
+				'ground-fault-protection',
+				'licensed-electrician'
+			])
 		);
 		expect(r.cautions.map((c) => c.id)).not.toContain('open-water');
 		expect(r.pricing.totalCents).toBeGreaterThan(0);

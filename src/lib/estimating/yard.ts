@@ -192,31 +192,68 @@ export function yardQuantities(
 		const p = r.path;
 		out.push({ key: 'path-area', label: 'area', kind: 'area', si: p.areaM2 });
 		if (p.stoneMassKg > 0) {
-			out.push({ key: 'path-stone', label: 'flagstone to order', kind: 'bulkMass', si: p.stoneMassKg });
+			out.push({
+				key: 'path-stone',
+				label: 'flagstone to order',
+				kind: 'bulkMass',
+				si: p.stoneMassKg
+			});
 		}
 		if (p.paverCount > 0) {
 			out.push({ key: 'path-pavers', label: 'pavers to order', kind: 'area', si: p.paverAreaM2 });
 		}
-		out.push({ key: 'path-base', label: 'base, loose to order', kind: 'bulkVolume', si: p.baseLooseM3 });
+		out.push({
+			key: 'path-base',
+			label: 'base, loose to order',
+			kind: 'bulkVolume',
+			si: p.baseLooseM3
+		});
 		out.push({
 			key: 'path-bedding',
 			label: 'bedding, loose to order',
 			kind: 'bulkVolume',
 			si: p.beddingLooseM3
 		});
-		if (p.edgeM > 0) out.push({ key: 'path-edge', label: 'edge restraint', kind: 'length', si: p.edgeM });
+		if (p.edgeM > 0) {
+			out.push({ key: 'path-edge', label: 'edge restraint', kind: 'length', si: p.edgeM });
+		}
 		if (p.steps) {
-			out.push({ key: 'path-rise', label: 'total rise of the steps', kind: 'length', si: p.steps.totalRiseM });
+			out.push({
+				key: 'path-rise',
+				label: 'total rise of the steps',
+				kind: 'length',
+				si: p.steps.totalRiseM
+			});
 		}
 	}
 	if (r.drainage) {
 		const d = r.drainage;
 		out.push({ key: 'runoff', label: 'peak runoff', kind: 'flow', si: d.peakFlowM3s });
 		if (d.creek) {
-			out.push({ key: 'creek-bottom', label: 'creek bottom width', kind: 'length', si: d.creek.bottomM });
-			out.push({ key: 'creek-top', label: 'creek top width', kind: 'length', si: d.creek.topWidthM });
-			out.push({ key: 'creek-speed', label: 'creek water speed', kind: 'velocity', si: d.creek.velocityMs });
-			out.push({ key: 'creek-cobble', label: 'cobble', kind: 'bulkVolume', si: d.creek.cobbleVolumeM3 });
+			out.push({
+				key: 'creek-bottom',
+				label: 'creek bottom width',
+				kind: 'length',
+				si: d.creek.bottomM
+			});
+			out.push({
+				key: 'creek-top',
+				label: 'creek top width',
+				kind: 'length',
+				si: d.creek.topWidthM
+			});
+			out.push({
+				key: 'creek-speed',
+				label: 'creek water speed',
+				kind: 'velocity',
+				si: d.creek.velocityMs
+			});
+			out.push({
+				key: 'creek-cobble',
+				label: 'cobble',
+				kind: 'bulkVolume',
+				si: d.creek.cobbleVolumeM3
+			});
 		}
 		if (d.soakaway) {
 			out.push({
@@ -237,7 +274,9 @@ export function yardQuantities(
 	if (r.planting) {
 		const p = r.planting;
 		out.push({ key: 'beds', label: 'bed area', kind: 'area', si: p.areaM2 });
-		if (p.mulchM3 > 0) out.push({ key: 'mulch', label: 'mulch', kind: 'bulkVolume', si: p.mulchM3 });
+		if (p.mulchM3 > 0) {
+			out.push({ key: 'mulch', label: 'mulch', kind: 'bulkVolume', si: p.mulchM3 });
+		}
 		if (p.amendM3 > 0) {
 			out.push({ key: 'amend', label: 'soil amendment', kind: 'bulkVolume', si: p.amendM3 });
 		}

@@ -17,6 +17,8 @@ import {
 } from '$lib/server/pricelist';
 import { taskHours } from '$lib/server/pricelist-csv';
 import { itemFormSchema, saveItem } from '$lib/server/pricelist-item-form';
+import { saveYardSettings } from '$lib/server/pricelist-yard';
+import { yardValues } from '$lib/estimating/yard-fields';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -33,7 +35,15 @@ export const load: PageServerLoad = async (event) => {
 		unit: spec.unit,
 		hours
 	}));
-	return { items, pumps, rates, config, taskHours: hours, canEdit: user.role === 'owner' };
+	return {
+		items,
+		pumps,
+		rates,
+		config,
+		taskHours: hours,
+		yard: yardValues(config.engine),
+		canEdit: user.role === 'owner'
+	};
 };
 
 export const actions: Actions = {
@@ -102,5 +112,14 @@ export const actions: Actions = {
 		const errors = await saveEstimatingSettings(parsed.data);
 		if (errors.length) return fail(400, { form: 'settings', values: formValues(data), errors });
 		return { form: 'settings', saved: 'settings' };
+	},
+	yard: async (event) => {
+		requireRole(event, 'owner');
+		const data = await event.request.formData();
+		const fieldErrors = await saveYardSettings(data);
+		if (Object.keys(fieldErrors).length) {
+			return fail(400, { form: 'yard', values: formValues(data), fieldErrors });
+		}
+		return { form: 'yard', saved: 'yard' };
 	}
 };
