@@ -113,7 +113,9 @@ test('a path and planting: built from the lead, reshaped by corners, sent and ac
 	await expect(groups.getByRole('heading', { name: 'Flagstone path', exact: true })).toBeVisible();
 	await expect(groups.getByRole('heading', { name: 'Planting beds', exact: true })).toBeVisible();
 	await expect(groups.first()).toContainText('Sandstone flagstone');
+	await expect(home.getByRole('heading', { name: /— path and planting$/ })).toBeVisible();
 	await expect(home.getByText('Send water away from foundations')).toBeVisible();
+	await expect(home.getByText('Steps: even risers, within the local code')).toBeVisible();
 	expect(await home.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
 	await home.screenshot({ path: test.info().outputPath('path-planting-390.png'), fullPage: true });
 	expect(await accept(home, lead, row.id)).toBe(row.total_cents);

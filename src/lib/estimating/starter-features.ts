@@ -252,3 +252,12 @@ function dryYard(design: Design, services: readonly string[], yard: FeatureInput
 	const text = names.join(', ').replace(/, ([^,]*)$/, ' and $1');
 	design.name = text.charAt(0).toUpperCase() + text.slice(1);
 }
+
+/** What the estimate is called at first: "<name> — water feature", or the dry-yard work asked for. */
+export function starterLabel(name: string, services: readonly string[]): string {
+	const water = WATER_SERVICES.some((s) => services.includes(s));
+	const dry = ['patio', 'planting', 'lighting'].filter((s) => services.includes(s));
+	if (water || dry.length === 0) return `${name} — water feature`;
+	const words = dry.map((s) => (s === 'patio' ? 'path' : s));
+	return `${name} — ${words.join(', ').replace(/, ([^,]*)$/, ' and $1')}`;
+}

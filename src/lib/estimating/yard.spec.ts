@@ -117,6 +117,10 @@ describe('starting designs for dry-yard services', () => {
 		expect(design.stones).toEqual([]);
 		expect(design.name).toBe('Path and planting');
 		expect(notes).toEqual([]);
+		const { starterLabel } = await import('./starter-features');
+		expect(starterLabel('Ada', ['patio', 'planting'])).toBe('Ada — path and planting');
+		expect(starterLabel('Ada', ['lighting'])).toBe('Ada — lighting');
+		expect(starterLabel('Ada', ['pond', 'planting'])).toBe('Ada — water feature');
 		expect(ok(design).systems).toEqual([]);
 	});
 
