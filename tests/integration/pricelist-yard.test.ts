@@ -5,7 +5,7 @@ import { estimate } from '$lib/estimating';
 import { yardValues } from '$lib/estimating/yard-fields';
 import { catalogSchema } from '$lib/estimating/schema';
 import { starterDrainage } from '$lib/estimating/starter-yard';
-import { estimatingConfig, loadCatalog } from '$lib/server/pricelist';
+import { estimatingConfig, loadCatalog } from '$lib/server/pricelist/catalog';
 import { actions } from '../../src/routes/office/price-list/+page.server';
 import { resetDatabase } from '../support/database';
 import { makeUser, seedFirm } from './fixtures';

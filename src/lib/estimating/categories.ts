@@ -14,5 +14,6 @@ export const CATEGORIES = [
 	'planting',
 	'lighting',
 	'electrical',
+	'equipment',
 	'other'
 ] as const;

@@ -5,7 +5,7 @@
  * fall of the ground away from the house. Pure; SI inside and out.
  */
 import { areaM2 } from './aggregate';
-import { crewTask, withWork, type CrewTask } from './crew';
+import { rateTask, type LaborTask } from './labor';
 import type { DrainageFeature, Settings, Stone } from './schema';
 import { feet, inches, toFeet, toInches } from './units';
 
@@ -223,31 +223,34 @@ export function creekBoulders(f: DrainageFeature, count: number): Stone | undefi
 	};
 }
 
-const FT3 = feet(1) ** 3;
 const FT2 = feet(1) ** 2;
+const KG_PER_TON = 907.18474;
 
 /**
- * The crew's tasks: dig the creek and the soak-away, lay fabric, place cobble and gravel (by
- * weight, from the items' densities). Bank boulders are set as stones.
+ * The crew's tasks: lay fabric, place cobble and gravel (by weight, from the items' densities). The
+ * creek's and soak-away's digging are digs of the design; bank boulders are set as stones.
  */
 export function drainageTasks(
 	f: DrainageFeature,
 	r: DrainageResult,
 	settings: Settings,
+	bucket: string,
 	massKg: { cobble: number; gravel: number }
-): CrewTask[] {
-	const d = settings.drainage;
-	const people = d.crewSize;
-	const tons = (kg: number) => kg / 907.18474;
-	const dig = (r.creek?.excavationM3 ?? 0) + (r.soakaway?.gravelVolumeM3 ?? 0);
+): LaborTask[] {
+	const people = settings.labor.baseCrewSize;
 	const fabric = (r.creek?.fabricAreaM2 ?? 0) + (r.soakaway?.fabricAreaM2 ?? 0);
-	return withWork([
-		crewTask(`Dig the creek and soak-away: ${f.name}`, dig / FT3 / d.digFt3PerPersonHour, people),
-		crewTask(`Lay fabric: ${f.name}`, fabric / FT2 / d.fabricFt2PerPersonHour, people),
-		crewTask(
-			`Place cobble and gravel: ${f.name}`,
-			tons(massKg.cobble + massKg.gravel) / d.stoneTonsPerPersonHour,
+	return [
+		rateTask(settings, 'fabric', {
+			bucket,
+			task: `Lay fabric: ${f.name}`,
+			quantity: fabric / FT2,
 			people
-		)
-	]);
+		}),
+		rateTask(settings, 'creek-stone', {
+			bucket,
+			task: `Place cobble and gravel: ${f.name}`,
+			quantity: (massKg.cobble + massKg.gravel) / KG_PER_TON,
+			people
+		})
+	].filter((t) => t.hours > 0);
 }

@@ -1,13 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { crewHours } from './crew';
-import {
-	BASE_COMPACTION_FACTOR,
-	BEDDING_COMPACTION_FACTOR,
-	COMPACTED_PER_BANK,
-	SWELL_PERCENT,
-	compactionFactor
-} from './earthwork';
+import { BASE_COMPACTION_FACTOR, BEDDING_COMPACTION_FACTOR, compactionFactor } from './earthwork';
+import { SOILS } from './labor-rates';
 import { analysePath, jointLengthPerArea, pathTasks } from './paths';
 import { demoCatalog } from './demo';
 import { catalogSchema, featureSchema, settingsSchema, type PathFeature } from './schema';
@@ -24,20 +18,17 @@ const ft3 = (m3: number) => fromSI(m3, 'volume', 'ft3');
 const ft = (m: number) => fromSI(m, 'length', 'ft');
 
 describe('compaction factors', () => {
-	it('follow the published swell and compaction tables', () => {
-		// Swell, bank to loose: projectengineer.net "Swell factors for various soils" (the Caterpillar
-		// Performance Handbook's table): gravel, dry 12%; sand, dry 12%.
-		expect(SWELL_PERCENT).toEqual({ gravel: 12, sand: 12 });
-		// Compacted per bank volume: infralens.in "Earthwork bulking and shrinkage", compaction
-		// factors: gravel-sand 0.88–0.93, sand 0.88–0.92.
-		expect(COMPACTED_PER_BANK.gravel).toEqual([0.88, 0.93]);
-		expect(COMPACTED_PER_BANK.sand).toEqual([0.88, 0.92]);
-		// Loose per compacted = 1.12 / 0.905 and 1.12 / 0.90 (hand calculation).
-		expect(compactionFactor('gravel')).toBeCloseTo(1.12 / 0.905, 12);
-		expect(compactionFactor('sand')).toBeCloseTo(1.12 / 0.9, 12);
+	it('follow the published soil conversion table', () => {
+		// US Army FM 5-434, Earthmoving Operations, table 1-2: sand (or gravel) in place 1.00, loose
+		// 1.11, compacted 0.95; common earth 1.25 and 0.90; clay 1.43 and 0.90.
+		expect(SOILS.sand).toMatchObject({ swell: 1.11, compaction: 0.95 });
+		expect(SOILS.loam).toMatchObject({ swell: 1.25, compaction: 0.9 });
+		expect(SOILS.clay).toMatchObject({ swell: 1.43, compaction: 0.9 });
+		// Loose per compacted: 1.11 / 0.95 = 1.168 (hand calculation).
+		expect(compactionFactor('sand')).toBeCloseTo(1.11 / 0.95, 12);
+		expect(BASE_COMPACTION_FACTOR).toBe(1.168);
+		expect(BEDDING_COMPACTION_FACTOR).toBe(1.168);
 		expect(settings.hardscape.baseCompactionFactor).toBe(BASE_COMPACTION_FACTOR);
-		expect(BASE_COMPACTION_FACTOR).toBeCloseTo(1.238, 3);
-		expect(BEDDING_COMPACTION_FACTOR).toBeCloseTo(1.244, 3);
 	});
 });
 
@@ -56,7 +47,7 @@ describe('a flagstone path', () => {
 	});
 
 	it('orders the base and bedding loose, with their compaction factors', () => {
-		// 80 ft² × 4 in = 26.67 ft³ compacted; × 1.238 loose. Bedding 80 ft² × 1 in × 1.244.
+		// 80 ft² × 4 in = 26.67 ft³ compacted; × 1.168 loose. Bedding 80 ft² × 1 in × 1.168.
 		expect(ft3(r.baseCompactedM3)).toBeCloseTo(80 / 3, 9);
 		expect(ft3(r.baseLooseM3)).toBeCloseTo((80 / 3) * BASE_COMPACTION_FACTOR, 9);
 		expect(ft3(r.beddingLooseM3)).toBeCloseTo((80 / 12) * BEDDING_COMPACTION_FACTOR, 9);
@@ -71,14 +62,23 @@ describe('a flagstone path', () => {
 	});
 
 	it('gives each task its people and hours: crew-hours are people × hours', () => {
-		const tasks = pathTasks(path(), r, settings);
-		const dig = tasks.find((t) => t.task.startsWith('Dig'))!;
-		// 43.33 ft³ at 8 ft³ per person-hour, two people: 2.71 h on the clock, 5.42 crew-hours.
-		expect(dig.people).toBe(2);
-		expect(dig.hours).toBeCloseTo((80 * 6.5) / 12 / 8 / 2, 9);
-		expect(crewHours(dig)).toBeCloseTo((80 * 6.5) / 12 / 8, 9);
+		const tasks = pathTasks(path(), r, settings, 'base');
+		const lay = tasks.find((t) => t.task.startsWith('Lay flagstone'))!;
+		// 80 ft² at the firm's flagstone rate in person-hours a ft², shared by the base crew.
+		const people = settings.labor.baseCrewSize;
+		expect(lay.people).toBe(people);
+		expect(lay.hours).toBeCloseTo(80 * settings.labor.rates.flagstone, 9);
+		expect(lay.hoursEach * lay.people).toBeCloseTo(lay.hours, 12);
 		const steps = tasks.find((t) => t.task.startsWith('Build steps'))!;
-		expect(crewHours(steps)).toBeCloseTo(2 * settings.hardscape.stepPersonHours, 9);
+		expect(steps.hours).toBeCloseTo(2 * settings.labor.rates.step, 9);
+		// The layers by their loose volume: (26.67 + 6.67) ft³ × 1.168 ÷ 27 yd³.
+		const layers = tasks.find((t) => t.key === 'path-layers')!;
+		expect(layers.hours).toBeCloseTo(
+			((100 / 3) * 1.168 * settings.labor.rates['path-layers']) / 27,
+			9
+		);
+		// Digging is not a path task: the design digs it with the rest (by hand or machine).
+		expect(tasks.some((t) => t.key.startsWith('dig'))).toBe(false);
 	});
 });
 
@@ -126,7 +126,10 @@ describe('path properties', () => {
 							areas: [{ shape: 'rectangle', lengthFt: length, widthFt: w }]
 						});
 						const r = analysePath(f, settings);
-						return { r, hours: pathTasks(f, r, settings).reduce((s, t) => s + crewHours(t), 0) };
+						return {
+							r,
+							hours: pathTasks(f, r, settings, 'base').reduce((s, t) => s + t.hours, 0)
+						};
 					};
 					const a = make(l);
 					const b = make(l * grow);

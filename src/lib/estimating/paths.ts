@@ -3,7 +3,7 @@
  * and a sand bedding layer, with edge restraint, joint fill and steps. Pure; SI results.
  */
 import { areaM2 } from './aggregate';
-import { crewTask, withWork, type CrewTask } from './crew';
+import { rateTask, type LaborTask } from './labor';
 import { perimeter } from './polygon';
 import type { Area, PathFeature, Settings } from './schema';
 import { rockDensityKgM3 } from './stones';
@@ -131,33 +131,34 @@ export function analysePath(f: PathFeature, settings: Settings): PathResult {
 	};
 }
 
-const FT3 = feet(1) ** 3;
 const FT2 = feet(1) ** 2;
+const YD3 = feet(3) ** 3;
 
-/** The crew's tasks for a path, from its quantities and the firm's rates. */
-export function pathTasks(f: PathFeature, r: PathResult, settings: Settings): CrewTask[] {
-	const h = settings.hardscape;
-	const people = h.crewSize;
+/**
+ * The crew's tasks for a path (its digging is one of the design's digs, `excavationM3`): layers by
+ * their loose volume, the surface by area, edge by length, joints by area, steps by count.
+ */
+export function pathTasks(
+	f: PathFeature,
+	r: PathResult,
+	settings: Settings,
+	bucket: string
+): LaborTask[] {
+	const people = settings.labor.baseCrewSize;
 	const areaFt2 = r.areaM2 / FT2;
-	const lay = f.surface === 'flagstone' ? h.flagstoneFt2PerPersonHour : h.paverFt2PerPersonHour;
-	return withWork([
-		crewTask(`Dig and grade: ${f.name}`, r.excavationM3 / FT3 / h.digFt3PerPersonHour, people),
-		crewTask(
-			`Spread and compact base and bedding: ${f.name}`,
-			(r.baseLooseM3 + r.beddingLooseM3) / FT3 / h.baseFt3PerPersonHour,
-			people
+	const task = (key: Parameters<typeof rateTask>[1], name: string, quantity: number) =>
+		rateTask(settings, key, { bucket, task: `${name}: ${f.name}`, quantity, people });
+	return [
+		task(
+			'path-layers',
+			'Spread and compact base and bedding',
+			(r.baseLooseM3 + r.beddingLooseM3) / YD3
 		),
-		crewTask(
-			`Lay ${f.surface === 'flagstone' ? 'flagstone' : 'pavers'}: ${f.name}`,
-			areaFt2 / lay,
-			people
-		),
-		crewTask(`Set edge restraint: ${f.name}`, toFeet(r.edgeM) / h.edgeFtPerPersonHour, people),
-		crewTask(
-			`Fill the joints: ${f.name}`,
-			f.jointSku ? areaFt2 / h.jointFt2PerPersonHour : 0,
-			people
-		),
-		crewTask(`Build steps: ${f.name}`, (r.steps?.count ?? 0) * h.stepPersonHours, people)
-	]);
+		f.surface === 'flagstone'
+			? task('flagstone', 'Lay flagstone', areaFt2)
+			: task('pavers', 'Lay pavers', areaFt2),
+		task('edge-restraint', 'Set edge restraint', toFeet(r.edgeM)),
+		task('joint-fill', 'Fill the joints', f.jointSku ? areaFt2 : 0),
+		task('step', 'Build steps', r.steps?.count ?? 0)
+	].filter((t) => t.hours > 0);
 }

@@ -1,6 +1,5 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { crewHours } from './crew';
 import { analysePlanting, cellAreaM2, plantingTasks, plantsFor } from './planting';
 import { featureSchema, settingsSchema, type PlantingFeature } from './schema';
 import { starterPlanting } from './starter-yard';
@@ -64,13 +63,15 @@ describe('a planting bed', () => {
 	});
 
 	it('plants by the container: people × hours from the firm’s person-hours', () => {
-		const tasks = plantingTasks(f, r, settings);
-		const plant = tasks.find((t) => t.task.startsWith('Plant'))!;
-		const p = settings.planting.plantPersonHours;
-		expect(crewHours(plant)).toBeCloseTo(42 * p['1-gal'] + 3 * p['5-gal'], 9);
-		expect(plant.people).toBe(settings.planting.crewSize);
+		const tasks = plantingTasks(f, r, settings, 'base');
+		const rates = settings.labor.rates;
+		const plant = (name: string) => tasks.find((t) => t.task.startsWith(`Plant ${name}`))!;
+		expect(plant('Perennials').hours).toBeCloseTo(30 * rates['plant-1-gal'], 9);
+		expect(plant('Flowering shrubs').hours).toBeCloseTo(3 * rates['plant-5-gal'], 9);
+		expect(plant('Perennials').people).toBe(settings.labor.baseCrewSize);
+		for (const t of tasks) expect(t.people * t.hoursEach).toBeCloseTo(t.hours, 12);
 		const mulch = tasks.find((t) => t.task.startsWith('Spread mulch'))!;
-		expect(crewHours(mulch)).toBeCloseTo((26.4 / 27) * settings.planting.mulchPersonHoursPerYd3, 9);
+		expect(mulch.hours).toBeCloseTo((26.4 / 27) * rates.mulch, 9);
 	});
 
 	it('warns when the groups cover more than the whole bed', () => {

@@ -3,7 +3,7 @@
  * amendment worked in, and the crew's hours. Pure; SI results.
  */
 import { areaM2 } from './aggregate';
-import { crewTask, withWork, type CrewTask } from './crew';
+import { rateTask, type LaborTask } from './labor';
 import type { PlantingFeature, Settings } from './schema';
 import { feet, inches } from './units';
 
@@ -72,21 +72,19 @@ export function analysePlanting(f: PlantingFeature, settings: Settings): Plantin
 
 const YD3 = feet(3) ** 3;
 
-/** Planting, mulching and amending, from the counts and volumes and the firm's rates. */
+/** Amending, planting by container and mulching, from the counts and volumes and the firm's rates. */
 export function plantingTasks(
 	f: PlantingFeature,
 	r: PlantingResult,
-	settings: Settings
-): CrewTask[] {
-	const p = settings.planting;
-	const plantHours = r.groups.reduce((s, g) => s + g.count * p.plantPersonHours[g.container], 0);
-	return withWork([
-		crewTask(
-			`Work in soil amendment: ${f.name}`,
-			(r.amendM3 / YD3) * p.amendPersonHoursPerYd3,
-			p.crewSize
-		),
-		crewTask(`Plant: ${f.name}`, plantHours, p.crewSize),
-		crewTask(`Spread mulch: ${f.name}`, (r.mulchM3 / YD3) * p.mulchPersonHoursPerYd3, p.crewSize)
-	]);
+	settings: Settings,
+	bucket: string
+): LaborTask[] {
+	const people = settings.labor.baseCrewSize;
+	const task = (key: Parameters<typeof rateTask>[1], name: string, quantity: number) =>
+		rateTask(settings, key, { bucket, task: name, quantity, people });
+	return [
+		task('amend', `Work in soil amendment: ${f.name}`, r.amendM3 / YD3),
+		...r.groups.map((g) => task(`plant-${g.container}`, `Plant ${g.name}: ${f.name}`, g.count)),
+		task('mulch', `Spread mulch: ${f.name}`, r.mulchM3 / YD3)
+	].filter((t) => t.hours > 0);
 }

@@ -1,8 +1,9 @@
-// The yard work settings on the price list page (paths, dry creeks and planting): the fields and
-// their current values. Each field is one number of the engine's settings, named by its path.
+// The yard design settings on the price list page (the design rain and storm, the cobble's
+// roughness, the compaction factors): the fields and their current values. Each field is one number
+// of the engine's settings, named by its path. The crew's rates for yard work are labor rates.
 import { settingsSchema } from './schema';
 
-export type YardGroup = 'hardscape' | 'drainage' | 'planting';
+export type YardGroup = 'hardscape' | 'drainage';
 export interface YardField {
 	/** The form field's name: the setting's path, "drainage.designRainInPerHr". */
 	name: string;
@@ -17,40 +18,15 @@ export const YARD_FIELDS: { group: YardGroup; title: string; fields: YardField[]
 		fields: [
 			f('drainage.designRainInPerHr', 'Design rain (in/h)'),
 			f('drainage.stormMinutes', 'Design storm (minutes)'),
-			f('drainage.cobbleManningN', 'Cobble roughness, Manning n'),
-			f('drainage.crewSize', 'Crew (people)'),
-			f('drainage.digFt3PerPersonHour', 'Digging (ft³ per person-hour)'),
-			f('drainage.stoneTonsPerPersonHour', 'Cobble and gravel (tons per person-hour)'),
-			f('drainage.fabricFt2PerPersonHour', 'Fabric (ft² per person-hour)')
+			f('drainage.cobbleManningN', 'Cobble roughness, Manning n')
 		]
 	},
 	{
 		group: 'hardscape',
 		title: 'Paths and patios',
 		fields: [
-			f('hardscape.baseCompactionFactor', 'Base compaction factor'),
-			f('hardscape.beddingCompactionFactor', 'Bedding compaction factor'),
-			f('hardscape.crewSize', 'Crew (people)'),
-			f('hardscape.digFt3PerPersonHour', 'Digging (ft³ per person-hour)'),
-			f('hardscape.baseFt3PerPersonHour', 'Base and bedding (ft³ per person-hour)'),
-			f('hardscape.flagstoneFt2PerPersonHour', 'Flagstone (ft² per person-hour)'),
-			f('hardscape.paverFt2PerPersonHour', 'Pavers (ft² per person-hour)'),
-			f('hardscape.edgeFtPerPersonHour', 'Edge restraint (ft per person-hour)'),
-			f('hardscape.jointFt2PerPersonHour', 'Joint fill (ft² per person-hour)'),
-			f('hardscape.stepPersonHours', 'A step (person-hours)')
-		]
-	},
-	{
-		group: 'planting',
-		title: 'Planting',
-		fields: [
-			f('planting.crewSize', 'Crew (people)'),
-			f('planting.plantPersonHours.1-gal', 'A 1 gal plant (person-hours)'),
-			f('planting.plantPersonHours.2-gal', 'A 2 gal plant (person-hours)'),
-			f('planting.plantPersonHours.5-gal', 'A 5 gal plant (person-hours)'),
-			f('planting.plantPersonHours.15-gal', 'A 15 gal plant (person-hours)'),
-			f('planting.mulchPersonHoursPerYd3', 'Mulch (person-hours per yd³)'),
-			f('planting.amendPersonHoursPerYd3', 'Amendment (person-hours per yd³)')
+			f('hardscape.baseCompactionFactor', 'Base compaction factor (loose ÷ compacted)'),
+			f('hardscape.beddingCompactionFactor', 'Bedding compaction factor (loose ÷ compacted)')
 		]
 	}
 ];

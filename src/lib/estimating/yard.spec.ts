@@ -32,19 +32,22 @@ describe('a path and planting estimate', () => {
 		expect(line('PLANT-SHRUB-5G')?.quantity).toBe(3);
 		expect(line('MULCH-BARK')?.quantity).toBe(1);
 		expect(line('COMPOST-BLEND')?.quantity).toBeCloseTo(0.7, 9);
-		// Every line belongs to its feature, so the homeowner's page lists it under the name.
-		expect(r.pricing.lines.every((l) => l.feature === 'path-1' || l.feature === 'planting-1')).toBe(
-			true
-		);
+		// Every material line belongs to its feature, so the homeowner's page lists it under the name;
+		// the dug soil hauled away and the delivery are the site's.
+		const own = r.pricing.lines.filter((l) => !['SPOIL-HAUL-YD3', 'DELIVERY-LOAD'].includes(l.sku));
+		expect(own.every((l) => l.feature === 'path-1' || l.feature === 'planting-1')).toBe(true);
+		expect(line('SPOIL-HAUL-YD3')).toBeDefined();
 	});
 
 	it('has labor for every part, and no pump or water system', () => {
 		expect(r.systems).toEqual([]);
 		const tasks = r.labor.tasks.map((t) => t.task);
+		expect(tasks).toContain('Dig Flagstone path (by hand)');
 		expect(tasks).toContain('Lay flagstone: Flagstone path');
 		expect(tasks).toContain('Build steps: Flagstone path');
-		expect(tasks).toContain('Plant: Planting beds');
+		expect(tasks).toContain('Plant Perennials: Planting beds');
 		expect(tasks).toContain('Spread mulch: Planting beds');
+		for (const t of r.labor.tasks) expect(t.people * t.hoursEach).toBeCloseTo(t.hours, 9);
 		expect(r.pricing.totalCents).toBeGreaterThan(0);
 	});
 
@@ -94,7 +97,7 @@ describe('a lighting-only design', () => {
 		const skus = r.pricing.lines.map((l) => l.sku).sort();
 		expect(skus).toEqual(['CABLE-12-2', 'LIGHT-PATH', 'LIGHT-TX-150', 'LIGHT-UPLIGHT']);
 		expect(r.labor.tasks.map((t) => t.task)).toEqual(
-			expect.arrayContaining(['Set lighting fixtures', 'Lay lighting cable'])
+			expect.arrayContaining(['Set and wire lighting fixtures', 'Trench and lay lighting cable'])
 		);
 		expect(r.cautions.map((c) => c.id)).toEqual(
 			expect.arrayContaining([

@@ -3,7 +3,7 @@
  * and planting. This module sizes them, lists their price-list references, gives their takeoff
  * lines and their crew's tasks; features.ts calls it for each such feature in the design.
  */
-import type { CrewTask } from './crew';
+import type { Dig, LaborTask } from './labor';
 import { analyseDrainage, creekBoulders, drainageTasks, type DrainageResult } from './drainage';
 import { analysePath, pathTasks, type PathResult } from './paths';
 import { analysePlanting, plantingTasks, type PlantingResult } from './planting';
@@ -155,24 +155,42 @@ function massOf(volumeM3: number, item: CatalogItem | undefined) {
 	return volumeM3 * toSI(density, 'density', 'lb/ft3');
 }
 
-/** The crew's tasks for the feature, from its quantities and the firm's rates. */
+/** The crew's tasks for the feature (not its digging), from its quantities and the firm's rates. */
 export function yardTasks(
 	f: YardFeature,
 	r: YardResult,
 	settings: Settings,
-	items: ReadonlyMap<string, CatalogItem>
-): CrewTask[] {
-	if (f.kind === 'path' && r.path) return pathTasks(f, r.path, settings);
+	items: ReadonlyMap<string, CatalogItem>,
+	bucket: string
+): LaborTask[] {
+	if (f.kind === 'path' && r.path) return pathTasks(f, r.path, settings, bucket);
 	if (f.kind === 'drainage' && r.drainage) {
 		const cobble = r.drainage.creek?.cobbleVolumeM3 ?? 0;
 		const gravel = r.drainage.soakaway?.gravelVolumeM3 ?? 0;
-		return drainageTasks(f, r.drainage, settings, {
+		return drainageTasks(f, r.drainage, settings, bucket, {
 			cobble: massOf(cobble, f.cobbleSku ? items.get(f.cobbleSku) : undefined),
 			gravel: massOf(gravel, f.soakaway?.sku ? items.get(f.soakaway.sku) : undefined)
 		});
 	}
-	if (f.kind === 'planting' && r.planting) return plantingTasks(f, r.planting, settings);
+	if (f.kind === 'planting' && r.planting) return plantingTasks(f, r.planting, settings, bucket);
 	return [];
+}
+
+/** What the feature digs, in bank volume: a path's layers, a creek's bed, a soak-away's pit. */
+export function yardDigs(f: YardFeature, r: YardResult, bucket: string): Dig[] {
+	const digs: Dig[] = [];
+	if (r.path) digs.push({ bucket, what: f.name, volumeM3: r.path.excavationM3 });
+	if (r.drainage?.creek) {
+		digs.push({ bucket, what: `the creek: ${f.name}`, volumeM3: r.drainage.creek.excavationM3 });
+	}
+	if (r.drainage?.soakaway) {
+		digs.push({
+			bucket,
+			what: `the soak-away: ${f.name}`,
+			volumeM3: r.drainage.soakaway.gravelVolumeM3
+		});
+	}
+	return digs;
 }
 
 export function yardWarnings(r: YardResult): string[] {

@@ -1,9 +1,9 @@
 import { fail } from '@sveltejs/kit';
 import { asc } from 'drizzle-orm';
 import { fieldErrors, formValues } from '$lib/schema/auth';
-import { requireRole } from '$lib/server/access';
-import { db } from '$lib/server/db';
-import { laborRates, pumpModels } from '$lib/server/db/schema';
+import { requireRole } from '$lib/server/auth/access';
+import { db } from '$lib/server/platform/db';
+import { laborRates, pumpModels } from '$lib/server/platform/db/schema';
 import {
 	estimatingConfig,
 	laborFormSchema,
@@ -14,10 +14,10 @@ import {
 	saveLaborRate,
 	savePump,
 	settingsFormSchema
-} from '$lib/server/pricelist';
-import { taskHours } from '$lib/server/pricelist-csv';
-import { itemFormSchema, saveItem } from '$lib/server/pricelist-item-form';
-import { saveYardSettings } from '$lib/server/pricelist-yard';
+} from '$lib/server/pricelist/catalog';
+import { taskHours } from '$lib/server/pricelist/csv';
+import { itemFormSchema, saveItem } from '$lib/server/pricelist/item-form';
+import { saveYardSettings } from '$lib/server/pricelist/yard';
 import { yardValues } from '$lib/estimating/yard-fields';
 import type { Actions, PageServerLoad } from './$types';
 
