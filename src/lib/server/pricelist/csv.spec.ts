@@ -230,7 +230,9 @@ describe('labor CSV', () => {
 		);
 		expect(p.ok).toBe(false);
 		const errors = p.rows.map((r) => r.errors.join(' | '));
-		expect(errors[0]).toMatch(/^labor_id “mowing” is not a task we time: dig-hand, dig-machine, basin, /);
+		expect(errors[0]).toMatch(
+			/^labor_id “mowing” is not a task we time: dig-hand, dig-machine, basin, /
+		);
 		expect(errors[1]).toBe("unit “ft2” is not this task's unit: its hours are per ft");
 		expect(errors[2]).toBe('hours must not be negative');
 		expect(errors[3]).toBe('cost_per_hour is for rate rows: leave it empty');
