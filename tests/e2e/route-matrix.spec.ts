@@ -62,6 +62,8 @@ const PAGES: Record<string, Expect> = {
 	'/office/care/visits/[id]': { anonymous: 303, owner: 404, sales: 404, crew: 404 },
 	'/office/account/calendar': STAFF,
 	'/calendar/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
+	// The public care sign-up (a site page with a form): open to everyone.
+	'/care': { anonymous: 200, owner: 200, sales: 200, crew: 200 },
 	'/care/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/care/[token]/paid': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/care/visit/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
@@ -103,6 +105,12 @@ const ACTIONS: Record<string, Expect> = {
 	// Care: empty forms are refused before anything is written; unknown records answer 404.
 	'/office/care/plans/[id]': { anonymous: 303, owner: 404, sales: 403, crew: 403 },
 	'/office/care/properties/[id]?/addFeature': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/care/properties/[id]?/editFeature': {
+		anonymous: 303,
+		owner: 404,
+		sales: 404,
+		crew: 403
+	},
 	'/office/care/properties/[id]?/removeFeature': {
 		anonymous: 303,
 		owner: 404,
@@ -132,6 +140,9 @@ const ACTIONS: Record<string, Expect> = {
 	'/office/care/visits/[id]?/photo': { anonymous: 303, owner: 404, sales: 404, crew: 404 },
 	'/office/care/visits/[id]?/done': { anonymous: 303, owner: 404, sales: 404, crew: 404 },
 	'/office/account/calendar?/reset': { anonymous: 303, owner: 200, sales: 200, crew: 200 },
+	// The empty public sign-up is refused beside its fields; the price preview answers anyone.
+	'/care?/signUp': { anonymous: 400, owner: 400, sales: 400, crew: 400 },
+	'/care?/price': { anonymous: 200, owner: 200, sales: 200, crew: 200 },
 	'/care/[token]?/signUp': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/care/[token]?/pay': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/care/[token]?/cancel': { anonymous: 404, owner: 404, sales: 404, crew: 404 },

@@ -88,3 +88,22 @@ export function quotePlan(
 	}
 	return { lines, yearCents: lines.reduce((sum, l) => sum + l.cents, 0) };
 }
+
+/**
+ * What each size means to a homeowner, in the same counts a completed job is sized by (outlets,
+ * depth zones, falls, fixtures; common practice, no source).
+ */
+export const SIZE_HINTS: Record<FeatureKind, Record<FeatureSize, string>> = {
+	fountain: {
+		small: 'one stone or bubbler',
+		medium: 'two or three outlets',
+		large: 'four outlets or more'
+	},
+	pond: {
+		small: 'one depth throughout',
+		medium: 'a planting shelf and a deep part',
+		large: 'several shelves'
+	},
+	stream: { small: 'one fall', medium: 'two or three falls', large: 'four falls or more' },
+	lighting: { small: 'up to 4 lights', medium: '5 to 10 lights', large: 'more than 10 lights' }
+};

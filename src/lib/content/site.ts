@@ -92,6 +92,8 @@ export const privatePaths = [
 	'/estimate',
 	'/visit',
 	'/change-order',
+	// The homeowners' care links; the public sign-up at /care itself may be crawled.
+	'/care/',
 	'/invoice',
 	'/pay',
 	'/sign-in',

@@ -20,7 +20,7 @@ const budget = (basin: Basin, extra: Partial<Parameters<typeof basinBudget>[0]> 
 		basin,
 		pipeDrainBackM3: 0,
 		wettedStoneAreaM2: 0,
-		wettedStoneTopM2: 0,
+		wettedFaceM2: 0,
 		flowM3s: 0,
 		settings,
 		...extra
@@ -53,8 +53,20 @@ describe('basin capacity (US gallon = 231 in³, NIST Handbook 44)', () => {
 // Evaporation 0.25 in/day, splash 0.05 %/day of the water circulated over a 12 h run, a 1 mm wet
 // film and a minimum of 3 days between top-ups are the schema's defaults: invented defaults, no source.
 describe('daily loss and top-ups (invented defaults, no source)', () => {
-	it('evaporation is surface × rate (invented default, no source): 24 ft² at 0.25 in/day = 0.5 ft³ = 3.74 gal a day', () => {
+	it('evaporation is open surface × rate (invented default, no source): 24 ft² at 0.25 in/day = 0.5 ft³ = 3.74 gal a day', () => {
 		expect(toGal(budget(rect()).evaporationM3PerDay)).toBeCloseTo((0.5 * 1728) / 231, 6);
+	});
+
+	it('under gravel only the wet stone faces evaporate (common practice, no source)', () => {
+		const gravel = rect({ fill: { kind: 'gravel', voidFraction: 0.35 } });
+		expect(budget(gravel).evaporationM3PerDay).toBe(0);
+		// A 12 in across-flats hex column 48 in tall: sides 6 × 6.928 in × 48 in = 1995.3 in² plus
+		// its 124.7 in² top = 2120.0 in² = 14.72 ft²; at 0.25 in a day = 530.0 in³ = 2.294 gal.
+		const side = 12 / Math.sqrt(3);
+		const facesIn2 = 6 * side * 48 + (Math.sqrt(3) / 2) * 144;
+		const b = budget(gravel, { wettedFaceM2: toSI(facesIn2, 'area', 'in2') });
+		expect(toGal(b.evaporationM3PerDay)).toBeCloseTo((facesIn2 * 0.25) / 231, 6);
+		expect(toGal(b.evaporationM3PerDay)).toBeCloseTo(2.294, 3);
 	});
 
 	it('splash is a share of the water circulated (invented default, no source): 1000 gph × 12 h × 0.05% = 6 gal a day', () => {
@@ -67,9 +79,9 @@ describe('daily loss and top-ups (invented defaults, no source)', () => {
 		});
 		// Worked by hand (231 in³ to the gallon, NIST Handbook 44):
 		// reserve 32 ft³ × 0.35 voids = 11.2 ft³ = 11.2 × 1728 / 231 = 83.78 gal;
-		// evaporation 24 ft² × 0.25 in = 0.5 ft³ = 3.74 gal a day (the whole plan, gravel or not);
-		// splash 6000 gph × 12 h × 0.05 % = 36 gal a day; 83.78 / 39.74 = 2.108 days.
-		expect(b.daysBetweenTopUps!).toBeCloseTo(2.108, 3);
+		// no evaporation under the gravel (and no wet stone here);
+		// splash 6000 gph × 12 h × 0.05 % = 36 gal a day; 83.78 / 36 = 2.327 days.
+		expect(b.daysBetweenTopUps!).toBeCloseTo(2.327, 3);
 		expect(b.daysBetweenTopUps!).toBeLessThan(3);
 		expect(b.warnings.join(' ')).toMatch(/days between top-ups/);
 	});
@@ -79,7 +91,7 @@ describe('daily loss and top-ups (invented defaults, no source)', () => {
 			basin: rect(),
 			pipeDrainBackM3: 0,
 			wettedStoneAreaM2: 0,
-			wettedStoneTopM2: 0,
+			wettedFaceM2: 0,
 			flowM3s: 0,
 			settings: { ...settings, evaporationInPerDay: 0 }
 		});

@@ -8,8 +8,12 @@ export interface BasinInputs {
 	pipeDrainBackM3: number;
 	/** Surface of stones that water runs over, m² (a film drains back and evaporates). */
 	wettedStoneAreaM2: number;
-	/** Top area of wetted stones, m², which evaporates like open water. */
-	wettedStoneTopM2: number;
+	/**
+	 * Wet faces of the stones, m²: every face water runs over (the top and the sides of a column,
+	 * all but the face it stands on), which evaporates about as open water does (common practice,
+	 * no source).
+	 */
+	wettedFaceM2: number;
 	/** Flow the pump circulates, m³/s. */
 	flowM3s: number;
 	settings: Settings;
@@ -26,6 +30,8 @@ export interface BasinBudget {
 	/** Room between the running level and the rim for water that drains back. */
 	drainBackRoomM3: number;
 	drainBackM3: number;
+	/** Water surface open to the air: the plan of an open basin, none under gravel. */
+	openSurfaceM2: number;
 	evaporationM3PerDay: number;
 	splashM3PerDay: number;
 	dailyLossM3: number;
@@ -80,8 +86,11 @@ export function basinBudget(inputs: BasinInputs): BasinBudget {
 	const filmM3 = inputs.wettedStoneAreaM2 * (settings.wetFilmMm / 1000);
 	const drainBackM3 =
 		inputs.pipeDrainBackM3 + filmM3 + toSI(basin.extraDrainBackGal, 'volume', 'gal');
+	// Evaporation from open water and from the wet stone faces; water under a gravel fill is shaded
+	// and still, so it is left out (common practice, no source).
+	const openSurfaceM2 = basin.fill.kind === 'open' ? areaM2 : 0;
 	const evaporationM3PerDay =
-		(areaM2 + inputs.wettedStoneTopM2) * inches(settings.evaporationInPerDay);
+		(openSurfaceM2 + inputs.wettedFaceM2) * inches(settings.evaporationInPerDay);
 	const circulatedPerDay = inputs.flowM3s * 3600 * settings.dailyRunHours;
 	const splashM3PerDay = circulatedPerDay * (settings.splashLossPercentPerDay / 100);
 	const dailyLossM3 = evaporationM3PerDay + splashM3PerDay;
@@ -94,6 +103,7 @@ export function basinBudget(inputs: BasinInputs): BasinBudget {
 		usableReserveM3,
 		drainBackRoomM3: waterPerDepth * Math.min(depthM, inches(basin.freeboardIn)),
 		drainBackM3,
+		openSurfaceM2,
 		evaporationM3PerDay,
 		splashM3PerDay,
 		dailyLossM3,

@@ -150,7 +150,7 @@ export function fountainBasins(
 			basin: f.basin,
 			pipeDrainBackM3: system?.pipeDrainBackM3 ?? 0,
 			wettedStoneAreaM2: wetted.reduce((sum, s) => sum + s.surfaceM2 * s.count, 0),
-			wettedStoneTopM2: wetted.reduce((sum, s) => sum + s.topM2 * s.count, 0),
+			wettedFaceM2: wetted.reduce((sum, s) => sum + (s.surfaceM2 - s.topM2) * s.count, 0),
 			flowM3s: system?.flowM3s ?? 0,
 			settings: catalog.settings
 		});

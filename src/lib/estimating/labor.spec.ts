@@ -11,6 +11,9 @@ import {
 	type LaborParts
 } from './labor';
 import { LABOR_RATES, SOILS } from './labor-rates';
+import { demoCatalog, demoDesign } from './demo';
+import { estimate } from './index';
+import { fountainIn } from './testing';
 import { settingsSchema, siteSchema } from './schema';
 import type { StoneResult } from './stones';
 import { toSI } from './units';
@@ -214,5 +217,96 @@ describe('crew and days (8 h day and half-day rounding: common practice, no sour
 		// 10 stones × 0.5 h by cart × 4 people.
 		expect(withOption.totalHours - without.totalHours).toBeCloseTo(20, 9);
 		expect(without.crewSize).toBe(2);
+	});
+});
+
+describe('the demo fountain, worked by hand (rates: common practice, no source)', () => {
+	const result = estimate(demoDesign(), demoCatalog());
+	if (!result.ok) throw new Error('the demo prices');
+
+	it('its crew-hours are people × hours summed by hand, task by task', () => {
+		const yd3Basin = (6 * 4 * 2) / 27; // 48 ft³ = 1.778 yd³
+		const yd3Pebble = (8 * 6 * (2 / 12)) / 27; // 8 ft³ = 0.296 yd³
+		// Columns: basalt hex 12 in across flats (124.7 in²) × 24 / 36 / 48 in at 2.9 g/cm³ weigh
+		// 142, 213 and 284 kg (313, 470 and 627 lb): a cart, a cart, a hoist (500 / 1000 lb limits).
+		// The 14 × 10 × 8 in granite boulders (an ellipsoid, 25.5 kg) are past the four-person team's
+		// 18.99 kg (NIOSH defaults, stones.spec.ts): a cart. Each with the team of 4.
+		const byHand: [string, number, number][] = [
+			['Dig the basin (by hand)', 2, yd3Basin * 3],
+			['Set the basin, pump and vault', 2, 4],
+			['Fill the basin with gravel', 2, yd3Basin * 2],
+			['Plumb the branches', 2, 3 * 1.5],
+			['Set Low basalt column (cart, 4 people)', 4, 4 * 0.5],
+			['Set Middle basalt column (cart, 4 people)', 4, 4 * 0.5],
+			['Set Tall basalt column (hoist, 4 people)', 4, 4 * 1],
+			['Set Granite accent boulders (cart, 4 people)', 4, 4 * 0.5 * 4],
+			['Spread River pebble topping', 2, yd3Pebble * 2.5],
+			['Set and wire lighting fixtures', 2, 3 * 0.75],
+			// A chain run: the trench goes out to the farthest fixture, 55 ft.
+			['Trench and lay lighting cable', 2, 55 * 0.05]
+		];
+		const chosen = result.labor.tasks.filter((t) => ['base', 'topping-pebble'].includes(t.bucket));
+		expect(chosen.map((t) => [t.task, t.people, t.hours])).toEqual(
+			byHand.map(([task, people, hours]) => [task, people, expect.closeTo(hours, 9)])
+		);
+		for (const t of result.labor.tasks) expect(t.people * t.hoursEach).toBeCloseTo(t.hours, 9);
+		const total = byHand.reduce((sum, [, , hours]) => sum + hours, 0);
+		expect(total).toBeCloseTo(39.13, 2);
+		expect(result.labor.summary.totalHours).toBeCloseTo(total, 9);
+		// 39.13 crew-hours for a crew of 4 at 8 h a day = 1.22 days → a day and a half, 48 paid hours.
+		expect(result.labor.summary).toMatchObject({ crewSize: 4, installDays: 1.5, onSiteHours: 48 });
+		expect(
+			result.pricing.base.laborHours + result.pricing.alternates[0].choices[0].totals.laborHours
+		).toBeCloseTo(total, 9);
+	});
+
+	const withBasin = (
+		lengthFt: number,
+		widthFt: number,
+		depthFt: number,
+		dig: 'auto' | 'hand' | 'machine'
+	) => {
+		const design = demoDesign();
+		const fountain = fountainIn(design);
+		fountain.basin!.size = { shape: 'rectangle', lengthFt, widthFt, depthFt };
+		design.site = { dig };
+		const r = estimate(design, demoCatalog());
+		if (!r.ok) throw new Error('prices');
+		return r.labor.tasks
+			.filter((t) => t.key.startsWith('dig-') && t.task.includes('basin'))
+			.reduce((sum, t) => sum + t.hours, 0);
+	};
+
+	it('property: a bigger basin never takes fewer digging hours, dug by hand or by machine (fast-check)', () => {
+		const side = fc.double({ min: 1, max: 12, noNaN: true });
+		fc.assert(
+			fc.property(
+				side,
+				side,
+				fc.double({ min: 1, max: 5, noNaN: true }),
+				fc.double({ min: 1, max: 1.5, noNaN: true }),
+				fc.constantFrom('hand', 'machine') as fc.Arbitrary<'hand' | 'machine'>,
+				(l, w, d, grow, dig) => {
+					expect(withBasin(l * grow, w, d, dig)).toBeGreaterThanOrEqual(
+						withBasin(l, w, d, dig) - 1e-9
+					);
+					expect(withBasin(l, w, d * grow, dig)).toBeGreaterThanOrEqual(
+						withBasin(l, w, d, dig) - 1e-9
+					);
+				}
+			),
+			{ numRuns: 60 }
+		);
+	});
+
+	it('chosen by volume, a bigger basin digs no faster until a machine comes, which then has its own line', () => {
+		// By hand up to 3 bank yd³, by machine past it (common practice, no source).
+		const sizes = [1, 1.5, 2, 2.5, 2.9].map((s) => withBasin(3 * s, 3, 3, 'auto'));
+		for (let i = 1; i < sizes.length; i++) expect(sizes[i]).toBeGreaterThan(sizes[i - 1]);
+		const design = demoDesign();
+		fountainIn(design).basin!.size = { shape: 'rectangle', lengthFt: 10, widthFt: 6, depthFt: 3 };
+		const r = estimate(design, demoCatalog());
+		if (!r.ok) throw new Error('prices');
+		expect(r.pricing.lines.map((l) => l.sku)).toContain('EQUIP-LOADER-DAY');
 	});
 });

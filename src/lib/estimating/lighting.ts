@@ -35,8 +35,18 @@ export interface FixtureOnRun {
 export interface RunResult {
 	id: string;
 	transformerId: string;
+	layout: RunLayout;
 	gauge: Gauge;
 	tapV: number;
+	/** The fixtures' own rating. */
+	fixtureVA: number;
+	/** Heat in the cable at the settled currents, W. */
+	cableLossW: number;
+	/** Current from the transformer, A. */
+	amps: number;
+	/** False when the cable cannot carry the load at this tap (no steady voltage). */
+	settled: boolean;
+	/** What the transformer supplies to the run: the fixtures plus the cable's loss. */
 	loadVA: number;
 	cableLengthM: number;
 	/** Trench dug for the run's cable (shared stretches counted once). */
@@ -69,40 +79,133 @@ export interface LightingResult {
 interface Placed {
 	fixtureId: string;
 	name: string;
+	/** Along its own stretch: from the transformer (a chain), the T (an arm) or the hub (a spoke). */
 	distanceM: number;
 	va: number;
+	/** Which arm of a T the fixture is on. */
+	arm?: 'a' | 'b';
 }
 
+export type RunLayout = 'chain' | 't' | 'hub';
+
+export interface RunShape {
+	layout: RunLayout;
+	/** Cable from the transformer to the T or the hub (0 for a chain). */
+	leadM: number;
+}
+
+const CHAIN: RunShape = { layout: 'chain', leadM: 0 };
+
+/** The stretches a run's fixtures hang on, each fed from the end of the lead. */
+function branchesOf(placed: readonly Placed[], shape: RunShape): Placed[][] {
+	const byDistance = (list: readonly Placed[]) =>
+		[...list].sort((a, b) => a.distanceM - b.distanceM);
+	if (shape.layout === 'hub') return placed.map((p) => [p]);
+	if (shape.layout === 't') {
+		return [
+			byDistance(placed.filter((p) => p.arm !== 'b')),
+			byDistance(placed.filter((p) => p.arm === 'b'))
+		].filter((arm) => arm.length > 0);
+	}
+	return [byDistance(placed)];
+}
+
+export interface RunSolution {
+	fixtures: FixtureOnRun[];
+	/** Current leaving the transformer, A. */
+	amps: number;
+	/** Power lost as heat in the cable, W. */
+	cableLossW: number;
+	/** False when no steady voltage exists: the cable cannot carry the load at this tap. */
+	settled: boolean;
+	iterations: number;
+}
+
+// The iteration stops when no fixture's voltage moves by more than this; below the floor the run
+// has no steady state (the drivers would draw ever more current).
+const SETTLE_V = 1e-9;
+const FLOOR_V = 1;
+const MAX_ITERATIONS = 200;
+
 /**
- * Voltage at each fixture of a daisy-chained run: each stretch of cable carries the current of
- * every fixture beyond it, at the nominal voltage (I = VA / V, common practice).
+ * Voltages, current and cable loss of a run of LED fixtures. An LED driver draws about its rated
+ * power whatever the voltage (I = VA / V at the fixture, common practice, no source), so it draws
+ * more current as the voltage sags, which sags the voltage further: start every fixture at the tap
+ * voltage, work out the currents, the drops along each stretch (each stretch carries the fixtures
+ * beyond it; a T's lead carries both arms, a hub's lead every spoke), and repeat until the
+ * voltages settle. A run that never settles is reported at the nominal-current figures, unsettled.
  */
+export function solveRun(
+	placed: readonly Placed[],
+	tapV: number,
+	gauge: Gauge,
+	shape: RunShape = CHAIN,
+	nominalV = 12
+): RunSolution {
+	const branches = branchesOf(placed, shape);
+	const ohms = OHMS_PER_M(gauge);
+	let volts = new Map(placed.map((p) => [p.fixtureId + '\u0000' + p.distanceM, tapV]));
+	const keyOf = (p: Placed) => p.fixtureId + '\u0000' + p.distanceM;
+	const pass = (currentOf: (p: Placed) => number) => {
+		const next = new Map<string, number>();
+		const total = placed.reduce((sum, p) => sum + currentOf(p), 0);
+		let loss = total ** 2 * 2 * shape.leadM * ohms;
+		const junctionV = tapV - voltageDrop(total, shape.leadM, gauge);
+		for (const branch of branches) {
+			let remaining = branch.reduce((sum, p) => sum + currentOf(p), 0);
+			let v = junctionV;
+			let position = 0;
+			for (const p of branch) {
+				const length = p.distanceM - position;
+				v -= voltageDrop(remaining, length, gauge);
+				loss += remaining ** 2 * 2 * length * ohms;
+				next.set(keyOf(p), v);
+				position = p.distanceM;
+				remaining -= currentOf(p);
+			}
+		}
+		return { next, total, loss };
+	};
+	let settled = false;
+	let iterations = 0;
+	let last = pass((p) => p.va / tapV);
+	for (; iterations < MAX_ITERATIONS; iterations++) {
+		const current = volts;
+		last = pass((p) => p.va / current.get(keyOf(p))!);
+		const lowest = Math.min(...last.next.values());
+		if (!(lowest >= FLOOR_V)) break;
+		const moved = Math.max(
+			...placed.map((p) => Math.abs(last.next.get(keyOf(p))! - current.get(keyOf(p))!))
+		);
+		volts = last.next;
+		if (moved < SETTLE_V) {
+			settled = true;
+			break;
+		}
+	}
+	if (!settled) {
+		// No steady state: show the drop at nominal current, floored at 0 V, and say so.
+		last = pass((p) => p.va / nominalV);
+		volts = new Map([...last.next].map(([k, v]) => [k, Math.max(0, v)]));
+	}
+	const fixtures = branches.flat().map((p) => ({
+		fixtureId: p.fixtureId,
+		name: p.name,
+		distanceM: shape.leadM + p.distanceM,
+		va: p.va,
+		volts: volts.get(keyOf(p))!
+	}));
+	return { fixtures, amps: last.total, cableLossW: last.loss, settled, iterations };
+}
+
+/** Voltage at each fixture of a daisy-chained run (see solveRun). */
 export function fixtureVoltages(
 	placed: readonly Placed[],
 	tapV: number,
 	gauge: Gauge,
-	nominalV: number
+	nominalV = 12
 ): FixtureOnRun[] {
-	const sorted = [...placed].sort((a, b) => a.distanceM - b.distanceM);
-	let remainingVA = sorted.reduce((sum, f) => sum + f.va, 0);
-	let volts = tapV;
-	let position = 0;
-	return sorted.map((fixture) => {
-		// The linear model would go below zero on a hopelessly overloaded run; stop at 0 V.
-		volts = Math.max(
-			0,
-			volts - voltageDrop(remainingVA / nominalV, fixture.distanceM - position, gauge)
-		);
-		position = fixture.distanceM;
-		remainingVA -= fixture.va;
-		return {
-			fixtureId: fixture.fixtureId,
-			name: fixture.name,
-			distanceM: fixture.distanceM,
-			va: fixture.va,
-			volts
-		};
-	});
+	return solveRun(placed, tapV, gauge, CHAIN, nominalV).fixtures;
 }
 
 function window(fixtures: readonly FixtureOnRun[], settings: Settings['lighting']) {
@@ -118,12 +221,15 @@ function window(fixtures: readonly FixtureOnRun[], settings: Settings['lighting'
 
 function runAdvice(
 	placed: readonly Placed[],
+	shape: RunShape,
 	taps: readonly number[],
 	gauge: Gauge,
 	settings: Settings['lighting']
 ): string {
-	const fits = (g: Gauge, tap: number) =>
-		window(fixtureVoltages(placed, tap, g, settings.nominalVolts), settings).ok;
+	const fits = (g: Gauge, tap: number) => {
+		const solution = solveRun(placed, tap, g, shape, settings.nominalVolts);
+		return solution.settled && window(solution.fixtures, settings).ok;
+	};
 	const sortedTaps = [...taps].sort((a, b) => a - b);
 	const tap = sortedTaps.find((t) => fits(gauge, t));
 	if (tap !== undefined) return `Move this run to the ${tap} V tap`;
@@ -132,7 +238,9 @@ function runAdvice(
 		const t = sortedTaps.find((candidate) => fits(g, candidate));
 		if (t !== undefined) return `Use ${g} AWG cable on the ${t} V tap`;
 	}
-	return 'No tap or gauge keeps every fixture in range: split the run or feed it from the middle (a T or hub)';
+	return shape.layout === 'chain'
+		? 'No tap or gauge keeps every fixture in range: split the run or feed it from the middle (a T or hub)'
+		: 'No tap or gauge keeps every fixture in range: split the run onto another tap or transformer';
 }
 
 function runResult(
@@ -141,33 +249,49 @@ function runResult(
 	settings: Settings['lighting']
 ): RunResult {
 	const byId = new Map(lighting.fixtures.map((f) => [f.id, f]));
-	const placed = run.fixtures.map((p) => {
+	const placed: Placed[] = run.fixtures.map((p) => {
 		const fixture = byId.get(p.fixtureId)!;
 		return {
 			fixtureId: p.fixtureId,
 			name: fixture.name,
 			distanceM: feet(p.distanceFt),
-			va: fixture.va
+			va: fixture.va,
+			...(p.arm ? { arm: p.arm } : {})
 		};
 	});
-	const fixtures = fixtureVoltages(placed, run.tapV, run.gauge, settings.nominalVolts);
+	const shape: RunShape = {
+		layout: run.layout,
+		leadM: run.layout === 'chain' ? 0 : feet(run.leadFt)
+	};
+	const solution = solveRun(placed, run.tapV, run.gauge, shape, settings.nominalVolts);
+	const fixtures = solution.fixtures;
 	const range = window(fixtures, settings);
 	const transformer = lighting.transformers.find((t) => t.id === run.transformerId)!;
-	const farthest = Math.max(...placed.map((p) => p.distanceM));
+	const branches = branchesOf(placed, shape);
+	// Cable and trench: the lead once, then each stretch out to its farthest fixture.
+	const laidM =
+		shape.leadM + branches.reduce((sum, b) => sum + Math.max(0, ...b.map((p) => p.distanceM)), 0);
+	const fixtureVA = placed.reduce((sum, p) => sum + p.va, 0);
+	const ok = range.ok && solution.settled;
 	return {
 		id: run.id,
 		transformerId: run.transformerId,
+		layout: run.layout,
 		gauge: run.gauge,
 		tapV: run.tapV,
-		loadVA: placed.reduce((sum, p) => sum + p.va, 0),
-		cableLengthM: farthest * (1 + settings.cableSlackPercent / 100),
-		trenchLengthM: farthest,
+		fixtureVA,
+		cableLossW: solution.cableLossW,
+		amps: solution.amps,
+		settled: solution.settled,
+		loadVA: fixtureVA + solution.cableLossW,
+		cableLengthM: laidM * (1 + settings.cableSlackPercent / 100),
+		trenchLengthM: laidM,
 		fixtures,
 		lastFixtureVolts: fixtures[fixtures.length - 1].volts,
 		lowestVolts: range.lowest,
 		highestVolts: range.highest,
-		withinWindow: range.ok,
-		advice: range.ok ? undefined : runAdvice(placed, transformer.tapsV, run.gauge, settings)
+		withinWindow: ok,
+		advice: ok ? undefined : runAdvice(placed, shape, transformer.tapsV, run.gauge, settings)
 	};
 }
 

@@ -177,7 +177,20 @@ const lightingSchema = z.object({
 			tapV: positive,
 			gauge: z.enum(GAUGES),
 			cableSku: z.string().optional(),
-			fixtures: z.array(z.object({ fixtureId: id, distanceFt: nonNegative })).min(1, 'Empty run')
+			// A chain runs fixture to fixture from the transformer; a T runs a lead to a split
+			// with two arms (each fixture's distance from the split, on arm a or b); a hub runs a
+			// lead to a hub with one spoke a fixture (its distance from the hub).
+			layout: z.enum(['chain', 't', 'hub']).default('chain'),
+			leadFt: nonNegative.default(0),
+			fixtures: z
+				.array(
+					z.object({
+						fixtureId: id,
+						distanceFt: nonNegative,
+						arm: z.enum(['a', 'b']).optional()
+					})
+				)
+				.min(1, 'Empty run')
 		})
 	),
 	optionId

@@ -1,6 +1,13 @@
 // Form schemas of seasonal care, shared by the office forms and their actions.
 import { z } from 'zod';
-import { FEATURE_KINDS, FEATURE_SIZES, VISIT_KINDS } from '$lib/care/kinds';
+import {
+	FEATURE_KINDS,
+	FEATURE_SIZES,
+	VISIT_KINDS,
+	type FeatureKind,
+	type FeatureSize
+} from '$lib/care/kinds';
+import { inquirySchema } from './intake';
 import { isMonthDay } from '$lib/care/seasons';
 
 const text = (max: number) => z.string().trim().max(max, `At most ${max} characters`);
@@ -80,3 +87,59 @@ export const signUpSchema = z.object({
 	typedName: text(120).min(2, 'Type your full name to accept'),
 	accept: z.literal('on', { message: 'Tick the box to accept the terms' })
 });
+
+/** How many of each kind a homeowner may list on the public sign-up (more: we talk first). */
+export const PUBLIC_MAX_PER_KIND = 4;
+
+const featureCount = z.coerce
+	.number({ message: 'A whole number' })
+	.int('A whole number')
+	.min(0, 'Not fewer than 0')
+	.max(PUBLIC_MAX_PER_KIND, `At most ${PUBLIC_MAX_PER_KIND}; call us for more`)
+	.default(0);
+const featureSize = z.enum(FEATURE_SIZES, { message: 'Pick a size' }).default('medium');
+
+/**
+ * The public care sign-up: who and where, how many of each kind of feature and their size, the
+ * plan, how to pay and the terms accepted. Fields are flat (`pondCount`, `pondSize`) so the form
+ * works without JavaScript.
+ */
+export const publicSignUpSchema = inquirySchema
+	.pick({ name: true, email: true, phone: true, street: true, town: true })
+	.extend({
+		postalCode: text(20).min(3, 'Enter the postal code: we plan visits by it'),
+		fountainCount: featureCount,
+		fountainSize: featureSize,
+		pondCount: featureCount,
+		pondSize: featureSize,
+		streamCount: featureCount,
+		streamSize: featureSize,
+		lightingCount: featureCount,
+		lightingSize: featureSize,
+		...signUpSchema.shape,
+		planId: z.string({ message: 'Pick a plan' }).min(1, 'Pick a plan')
+	})
+	.refine((v) => FEATURE_KINDS.some((k) => Number(v[`${k}Count`]) > 0), {
+		message: 'Tell us about at least one feature',
+		path: ['features'],
+		// Checked even when another field is wrong, so every message shows at once.
+		when: () => true
+	});
+export type PublicSignUpInput = z.output<typeof publicSignUpSchema>;
+
+/** The features a public sign-up lists, one entry per feature, numbered for the price lines. */
+export function listedFeatures(
+	v: Partial<Record<`${FeatureKind}Count`, number>> &
+		Partial<Record<`${FeatureKind}Size`, FeatureSize>>
+): { id: string; kind: FeatureKind; size: FeatureSize }[] {
+	return FEATURE_KINDS.flatMap((kind) =>
+		Array.from(
+			{ length: Math.max(0, Math.min(PUBLIC_MAX_PER_KIND, v[`${kind}Count`] ?? 0)) },
+			(_, i) => ({
+				id: `${kind}-${i + 1}`,
+				kind,
+				size: v[`${kind}Size`] ?? 'medium'
+			})
+		)
+	);
+}

@@ -147,7 +147,11 @@ export function featuresFromDesign(
 	return out;
 }
 
-/** Called in the completion's transaction: records the job's features once (unique job + kind). */
+/**
+ * Called in the completion's transaction: records each of the job's features once. A feature is
+ * keyed by its place in what was sold (unique job + place), so two ponds make two records and a
+ * second run adds nothing.
+ */
 export async function recordFeaturesOfJob(tx: Tx, job: Job): Promise<void> {
 	if (!job.propertyId) return;
 	const design = (job.frozen.design ?? {}) as Record<string, unknown>;
@@ -162,13 +166,14 @@ export async function recordFeaturesOfJob(tx: Tx, job: Job): Promise<void> {
 		if (pump) pumpNames.set(id, pump.name);
 	}
 	const features = featuresFromDesign(design, pumpNames);
-	for (const f of features) {
+	for (const [jobSeq, f] of features.entries()) {
 		await tx
 			.insert(propertyFeatures)
 			.values({
 				id: newId(),
 				propertyId: job.propertyId,
 				jobId: job.id,
+				jobSeq,
 				...f,
 				notes: `From job J-${job.number}: ${job.title}`
 			})

@@ -8,7 +8,13 @@ import { origin } from '../platform/env';
 import { writeMail } from '../platform/outbox';
 import { firmOn } from '../payments/mail';
 import { dispatchAll } from '../payments/ledger';
-import { FEATURE_LABELS, quotePlan, type FeatureKind, type FeatureSize } from '$lib/care/kinds';
+import {
+	FEATURE_LABELS,
+	quotePlan,
+	VISIT_SEASON,
+	type FeatureKind,
+	type FeatureSize
+} from '$lib/care/kinds';
 import { seasonKey, seasonWindow } from '$lib/care/seasons';
 import { CareError, type Tx } from './db';
 import { addressOf, featuresOf, propertyRecord } from './features';
@@ -53,6 +59,36 @@ export async function sendPlanOffer(propertyId: string): Promise<void> {
 	if (id) await dispatchAll([id]);
 }
 
+/** Active plans that would look after at least one of these features. */
+async function plansCovering(tx: Tx, propertyId: string) {
+	const features = (await featuresOf(propertyId, tx)).map((f) => ({
+		id: f.id,
+		kind: f.kind as FeatureKind,
+		size: f.size as FeatureSize
+	}));
+	return (await tx.select().from(carePlans).where(eq(carePlans.active, true))).filter(
+		(p) => quotePlan(p, features).yearCents > 0
+	);
+}
+
+/**
+ * The care offer in the mail that follows a finished job: a paragraph and the property's private
+ * link, when an active plan covers the features just put on record and the homeowner has no plan.
+ */
+export async function completionCareOffer(
+	tx: Tx,
+	propertyId: string
+): Promise<{ paragraph: string; action: { label: string; url: string } } | null> {
+	if (await currentSubscription(propertyId, tx)) return null;
+	if (!(await plansCovering(tx, propertyId)).length) return null;
+	const token = await newCareLink(propertyId, null, tx);
+	return {
+		paragraph:
+			'Your new feature is now on our books. If you would like us to look after it through the seasons (a spring start-up, a shut-down before the first hard frost), the link below shows the care plans priced for it; you can sign up, pay or be invoiced per visit, and cancel there.',
+		action: { label: 'See the care plans for your feature', url: `${origin()}/care/${token}` }
+	};
+}
+
 /**
  * What the seasonal reminder of a finished job says about care: for a homeowner with a plan
  * that includes this season's visit, the visit notice (nothing at all once the day has been
@@ -62,14 +98,15 @@ export async function sendPlanOffer(propertyId: string): Promise<void> {
 export async function reminderCare(
 	tx: Tx,
 	propertyId: string,
-	reminder: 'shutdown' | 'startup',
+	reminder: 'shutdown' | 'startup' | 'lighting',
 	year: number
 ): Promise<
 	| { covered: true }
 	| { covered: false; paragraph: string; action: { label: string; url: string } }
 	| null
 > {
-	const key = seasonKey(reminder === 'shutdown' ? 'autumn' : 'spring', year);
+	const season = VISIT_SEASON[reminder];
+	const key = seasonKey(season, year);
 	const subscription = await currentSubscription(propertyId, tx);
 	if (subscription?.status === 'active') {
 		const [plan] = await tx.select().from(carePlans).where(eq(carePlans.id, subscription.planId));
@@ -77,10 +114,16 @@ export async function reminderCare(
 		const visits = await tx
 			.select()
 			.from(serviceVisits)
-			.where(and(eq(serviceVisits.subscriptionId, subscription.id), eq(serviceVisits.season, key)));
+			.where(
+				and(
+					eq(serviceVisits.subscriptionId, subscription.id),
+					eq(serviceVisits.season, key),
+					eq(serviceVisits.kind, reminder)
+				)
+			);
 		if (visits.some((v) => v.notifiedDay !== null || v.status === 'done')) return { covered: true };
 		const s = await seasonSettings(tx);
-		const w = seasonWindow(reminder === 'shutdown' ? 'autumn' : 'spring', year, s);
+		const w = seasonWindow(season, year, s);
 		const token = await newCareLink(propertyId, null, tx);
 		return {
 			covered: false,
@@ -89,24 +132,14 @@ export async function reminderCare(
 		};
 	}
 	if (subscription) return null;
-	const features = await featuresOf(propertyId, tx);
-	const plans = (await tx.select().from(carePlans).where(eq(carePlans.active, true))).filter(
-		(p) =>
-			quotePlan(
-				p,
-				features.map((f) => ({
-					id: f.id,
-					kind: f.kind as FeatureKind,
-					size: f.size as FeatureSize
-				}))
-			).yearCents > 0
-	);
-	if (!plans.length) return null;
+	if (!(await plansCovering(tx, propertyId)).length) return null;
 	const token = await newCareLink(propertyId, null, tx);
 	return {
 		covered: false,
 		paragraph:
-			'We can do it for you, every season: a care plan covers the spring start-up and the autumn shut-down before the first hard frost. See the price for your features, sign up and pay, or cancel, from the link below.',
+			reminder === 'lighting'
+				? 'We can do it for you, every year: a care plan includes the autumn lighting check. See the price for your lights, sign up and pay, or cancel, from the link below.'
+				: 'We can do it for you, every season: a care plan covers the spring start-up and the autumn shut-down before the first hard frost. See the price for your features, sign up and pay, or cancel, from the link below.',
 		action: { label: 'See the care plans for your features', url: `${origin()}/care/${token}` }
 	};
 }

@@ -1,6 +1,7 @@
-// Seasonal care for water-feature jobs in frost country: an autumn shut-down and a spring
-// start-up reminder, each sent once per season per job (unique job + season), chained through
-// pg-boss (each reminder queues the next), with an unsubscribe link that works.
+// Seasonal care for finished jobs in frost country: a water feature gets an autumn shut-down
+// and a spring start-up reminder, a lighting-only job an autumn lighting check; each is sent
+// once per season per job (unique job + season), chained through pg-boss (each reminder queues
+// the next), with an unsubscribe link that works.
 import { TZDate } from '@date-fns/tz';
 import { and, eq } from 'drizzle-orm';
 import { db, type Db } from '../platform/db';
@@ -17,9 +18,10 @@ import { defineJob, enqueue } from '../platform/queue';
 import { origin } from '../platform/env';
 import { firmSettings } from '../platform/settings';
 import { careReminderMail } from '../jobs/mail';
+import { featuresFromDesign } from './features';
 import { reminderCare } from './offers';
 
-export type CareKind = 'shutdown' | 'startup';
+export type CareKind = 'shutdown' | 'startup' | 'lighting';
 export const CARE_JOB = 'care.remind';
 const SEND_HOUR = 9;
 
@@ -42,17 +44,28 @@ export async function saveCareSettings(input: typeof CARE_DEFAULTS): Promise<voi
 		.onConflictDoUpdate({ target: careSettingsTable.id, set: input });
 }
 
-/** The next reminder after `after`: the 1st of the shut-down or start-up month, 09:00 firm time. */
+/** The reminders a job gets: a water feature's shut-down and start-up, or the lights' check. */
+export function careKindsFor(job: Pick<Job, 'isWaterFeature' | 'frozen'>): CareKind[] {
+	if (job.isWaterFeature) return ['shutdown', 'startup'];
+	const design = (job.frozen?.design ?? {}) as Record<string, unknown>;
+	return featuresFromDesign(design).some((f) => f.kind === 'lighting') ? ['lighting'] : [];
+}
+
+/**
+ * The next reminder after `after`: the 1st of the shut-down or start-up month, 09:00 firm time.
+ * The lighting check goes out in the shut-down month, when evenings draw in.
+ */
 export function nextCareDate(
 	after: Date,
 	months: { shutdownMonth: number; startupMonth: number },
-	timeZone: string
+	timeZone: string,
+	kinds: readonly CareKind[] = ['shutdown', 'startup']
 ): { kind: CareKind; season: string; at: Date } {
 	const year = new TZDate(after.getTime(), timeZone).getFullYear();
 	const candidates: { kind: CareKind; season: string; at: Date }[] = [];
 	for (const y of [year, year + 1]) {
-		for (const kind of ['shutdown', 'startup'] as const) {
-			const month = kind === 'shutdown' ? months.shutdownMonth : months.startupMonth;
+		for (const kind of kinds) {
+			const month = kind === 'startup' ? months.startupMonth : months.shutdownMonth;
 			const at = new Date(new TZDate(y, month - 1, 1, SEND_HOUR, 0, 0, timeZone).getTime());
 			candidates.push({ kind, season: `${kind}-${y}`, at });
 		}
@@ -62,9 +75,10 @@ export function nextCareDate(
 		.sort((a, b) => a.at.getTime() - b.at.getTime())[0];
 }
 
-async function queueNext(jobId: string, after: Date): Promise<void> {
+async function queueNext(jobId: string, kinds: CareKind[], after: Date): Promise<void> {
+	if (!kinds.length) return;
 	const [s, firm] = await Promise.all([careSettings(), firmSettings()]);
-	const next = nextCareDate(after, s, firm.timeZone);
+	const next = nextCareDate(after, s, firm.timeZone, kinds);
 	await enqueue(
 		CARE_JOB,
 		{ jobId, season: next.season },
@@ -72,9 +86,18 @@ async function queueNext(jobId: string, after: Date): Promise<void> {
 	);
 }
 
-/** Called at completion: the first reminder is queued after the commit. */
+/** Called at completion: the first reminder (if the job gets any) is queued after the commit. */
 export async function scheduleCareAfterCompletion(job: Job): Promise<() => Promise<void>> {
-	return () => queueNext(job.id, new Date());
+	const kinds = careKindsFor(job);
+	return () => queueNext(job.id, kinds, new Date());
+}
+
+function kindOfSeason(season: string): CareKind {
+	return season.startsWith('shutdown')
+		? 'shutdown'
+		: season.startsWith('lighting')
+			? 'lighting'
+			: 'startup';
 }
 
 export type CareOutcome =
@@ -96,13 +119,15 @@ export async function sendCareReminder(
 	season: string,
 	options: { chain?: boolean } = {}
 ): Promise<CareOutcome> {
-	const kind: CareKind = season.startsWith('shutdown') ? 'shutdown' : 'startup';
+	const kind = kindOfSeason(season);
 	const firm = await firmSettings();
 	const settings = await careSettings();
 	const token = newToken();
+	let kinds: CareKind[] = [];
 	const outcome = await db.transaction(async (tx) => {
 		const [job] = await tx.select().from(jobs).where(eq(jobs.id, jobId)).for('update');
 		if (!job) return { outcome: 'missing' as const };
+		kinds = careKindsFor(job);
 		if (job.careOptOutAt) return { outcome: 'opted-out' as const };
 		if (!settings.enabled) return { outcome: 'disabled' as const };
 		const [existing] = await tx
@@ -150,7 +175,7 @@ export async function sendCareReminder(
 		options.chain !== false &&
 		(outcome.outcome === 'sent' || outcome.outcome === 'disabled' || outcome.outcome === 'covered')
 	) {
-		await queueNext(jobId, new Date());
+		await queueNext(jobId, kinds, new Date());
 	}
 	return outcome.outcome;
 }

@@ -151,14 +151,21 @@ async function welcomeMail(tx: Tx, s: CareSubscription): Promise<string[]> {
 	if (!record.contact.email) return [];
 	const plan = await planById(s.planId, tx);
 	const visits = plan.visits.map((v) => VISIT_LABELS[v.kind]).join(', ');
-	const mail = build(firm, `Your care plan: ${plan.name}`, [
-		`Hello ${record.contact.name},`,
-		`Thank you: “${plan.name}” is in place for ${addressOf(record.property)} from ${dayText(s.startsOn)} to ${dayText(s.renewsOn)}. It includes: ${visits}.`,
-		s.billing === 'year'
-			? `The year is paid (${money(s.yearCents)}). Parts we use are invoiced after the visit.`
-			: `We invoice each visit after it is done (about ${money(s.yearCents)} for the year), with any parts used.`,
-		`We will e-mail you the date of each visit, with a link to ask for another. You can cancel from the link you signed up with.`
-	]);
+	// A fresh private link: a homeowner who signed up on the public page has had none by mail.
+	const token = await newCareLink(s.propertyId, null, tx);
+	const mail = build(
+		firm,
+		`Your care plan: ${plan.name}`,
+		[
+			`Hello ${record.contact.name},`,
+			`Thank you: “${plan.name}” is in place for ${addressOf(record.property)} from ${dayText(s.startsOn)} to ${dayText(s.renewsOn)}. It includes: ${visits}.`,
+			s.billing === 'year'
+				? `The year is paid (${money(s.yearCents)}). Parts we use are invoiced after the visit.`
+				: `We invoice each visit after it is done (about ${money(s.yearCents)} for the year), with any parts used.`,
+			`We will e-mail you the date of each visit, with a link to ask for another. Your plan, its visits and cancelling are at the link below.`
+		],
+		{ label: 'Your care plan', url: `${origin()}/care/${token}` }
+	);
 	const id = await writeMail(
 		{ ...mail, to: record.contact.email, dedupeKey: `care-welcome:${s.id}` },
 		tx

@@ -94,28 +94,36 @@ export function testimonialRequestMail(input: {
 	name: string;
 	jobTitle: string;
 	url: string;
+	/** The care plan offer with the property's private link, when a plan covers the feature. */
+	care?: { paragraph: string; action: { label: string; url: string } };
 }): Built {
 	return build(
 		`How is your new water feature? A few words for ${input.firm.firmName}`,
 		[
 			`Hello ${input.name},`,
 			`Thank you for having us build "${input.jobTitle}". Now that it has had a few days to settle in, would you tell us in a few sentences how it turned out?`,
-			'With your permission we show kind words on our website, with your first name and town only. Nothing appears until we have read it.'
+			'With your permission we show kind words on our website, with your first name and town only. Nothing appears until we have read it.',
+			...(input.care
+				? [input.care.paragraph, `${input.care.action.label}: ${input.care.action.url}`]
+				: [])
 		],
 		input.firm,
 		{ label: 'Write a few words', url: input.url }
 	);
 }
 
-export function careReminderMail(input: {
+interface CareReminderInput {
 	firm: Settings;
 	name: string;
-	kind: 'shutdown' | 'startup';
+	kind: 'shutdown' | 'startup' | 'lighting';
 	jobTitle: string;
 	unsubscribeUrl: string;
 	/** Care plans: the visit notice or the plan offer, in place of "reply to book". */
 	care?: { paragraph: string; action: { label: string; url: string } };
-}): Built {
+}
+
+export function careReminderMail(input: CareReminderInput): Built {
+	if (input.kind === 'lighting') return lightingCheckMail(input);
 	const paragraphs =
 		input.kind === 'shutdown'
 			? [
@@ -133,6 +141,24 @@ export function careReminderMail(input: {
 		input.kind === 'shutdown'
 			? `Time for the autumn shut-down of your water feature`
 			: `Time for the spring start-up of your water feature`,
+		paragraphs,
+		input.firm,
+		input.care?.action,
+		`No more seasonal reminders: ${input.unsubscribeUrl}`
+	);
+}
+
+/** A lighting-only job's autumn reminder: what to look at, and what is an electrician's work. */
+function lightingCheckMail(input: CareReminderInput): Built {
+	const paragraphs = [
+		`Hello ${input.name},`,
+		`Evenings are drawing in, a good time to look over your garden lighting ("${input.jobTitle}"): trim back plants that have grown over the fixtures, wipe the lenses, straighten any light that was knocked, note any lamp that stays dark, and set the transformer's timer for the shorter days.`,
+		'Leave the transformer plugged into its ground-fault (GFCI) outlet. A tripping GFCI, or any work on the outlet or the house wiring, is for a licensed electrician.',
+		input.care?.paragraph ??
+			'We are glad to do the lighting check for you: reply to this e-mail or call us to book it.'
+	];
+	return build(
+		'Time for the autumn check of your garden lighting',
 		paragraphs,
 		input.firm,
 		input.care?.action,

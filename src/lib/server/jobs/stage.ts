@@ -47,10 +47,12 @@ export async function setStage(user: SessionUser, jobId: string, to: JobStage): 
 			}
 			set.completedAt = new Date();
 			set.finalBalanceCents = (await jobBalance(jobId, tx)).balanceCents;
-			after.push(await requestTestimonial(job, tx));
-			// The finished work goes on record for the property, for care plans and service visits.
+			// The finished work goes on record for the property, for care plans and service visits
+			// (first, so the completion mail can offer a plan priced for it).
 			await recordFeaturesOfJob(tx, job);
-			if (job.isWaterFeature) after.push(await scheduleCareAfterCompletion(job));
+			after.push(await requestTestimonial(job, tx));
+			// Water features get the shut-down and start-up reminders, lighting-only jobs a check.
+			after.push(await scheduleCareAfterCompletion(job));
 		}
 		await tx.update(jobs).set(set).where(eq(jobs.id, jobId));
 		await addActivity(

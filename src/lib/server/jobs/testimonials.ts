@@ -9,6 +9,7 @@ import { origin } from '../platform/env';
 import { firmSettings } from '../platform/settings';
 import { testimonialRequestMail } from './mail';
 import { careSettings } from '../care/reminders';
+import { completionCareOffer } from '../care/offers';
 import { addActivity } from '../leads/timeline';
 import { jobRef } from './labels';
 import type { SessionUser } from '../auth/sessions';
@@ -40,7 +41,10 @@ export async function requestTestimonial(job: Job, tx: Tx): Promise<() => Promis
 		firm,
 		name: contact.name,
 		jobTitle: job.title,
-		url: `${origin()}/testimonial/${token}`
+		url: `${origin()}/testimonial/${token}`,
+		care: job.propertyId
+			? ((await completionCareOffer(tx, job.propertyId)) ?? undefined)
+			: undefined
 	});
 	const outboxId = await writeMail(
 		{ dedupeKey: `testimonial:${job.id}`, to: contact.email, ...mail, leadId: job.leadId },

@@ -24,7 +24,8 @@ export const load: PageServerLoad = async ({ params, url }) => {
 	const propertyId = await propertyOf(params.token);
 	return {
 		care: await homeownerCare(propertyId),
-		cancelled: url.searchParams.get('cancelled') === '1'
+		cancelled: url.searchParams.get('cancelled') === '1',
+		welcome: url.searchParams.get('welcome') === '1'
 	};
 };
 

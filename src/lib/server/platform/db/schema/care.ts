@@ -31,6 +31,8 @@ export const propertyFeatures = pgTable(
 			.references(() => properties.id, { onDelete: 'cascade' }),
 		/** The completed job it came from (null for work of other firms). */
 		jobId: text('job_id'),
+		/** Its place among the job's features (a job with two ponds records two). */
+		jobSeq: integer('job_seq'),
 		kind: text('kind').notNull(),
 		size: text('size').notNull(),
 		pump: text('pump').notNull().default(''),
@@ -43,7 +45,7 @@ export const propertyFeatures = pgTable(
 	},
 	(t) => [
 		index('property_features_property_idx').on(t.propertyId),
-		uniqueIndex('property_features_job_kind_idx').on(t.jobId, t.kind)
+		uniqueIndex('property_features_job_seq_idx').on(t.jobId, t.jobSeq)
 	]
 );
 

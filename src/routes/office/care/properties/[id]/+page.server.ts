@@ -15,7 +15,8 @@ import {
 	locationOf,
 	propertyRecord,
 	removeFeature,
-	setPin
+	setPin,
+	updateFeature
 } from '$lib/server/care/features';
 import { careAction } from '$lib/server/care/http';
 import { sendPlanOffer } from '$lib/server/care/offers';
@@ -74,6 +75,22 @@ export const actions: Actions = {
 		}
 		await addFeature(event.params.id, parsed.data, user.id);
 		return { form: 'feature', saved: true };
+	},
+	editFeature: async (event) => {
+		requireRole(event, 'owner', 'sales');
+		await record(event.params.id);
+		const values = Object.fromEntries(await event.request.formData());
+		const featureId = String(values.featureId ?? '');
+		const parsed = featureSchema.safeParse(values);
+		if (!parsed.success) {
+			return fail(400, { form: 'edit', featureId, errors: fieldErrors(parsed.error), values });
+		}
+		const done = await careAction(
+			() => updateFeature(event.params.id, featureId, parsed.data),
+			'edit'
+		);
+		if (done) return done;
+		return { form: 'edit', featureId, saved: true };
 	},
 	removeFeature: async (event) => {
 		requireRole(event, 'owner', 'sales');
