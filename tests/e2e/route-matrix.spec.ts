@@ -163,6 +163,7 @@ const ACTIONS: Record<string, Expect> = {
 	'/office/price-list?/pump': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
 	'/office/price-list?/labor': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
 	'/office/price-list?/settings': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
+	'/office/price-list?/yard': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
 	'/office/price-list/import?/preview': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
 	'/office/price-list/import?/commit': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
 	'/office/leads/[id]/estimate?/create': { anonymous: 303, owner: 404, sales: 404, crew: 403 },

@@ -10,6 +10,8 @@ export const CATEGORIES = [
 	'stone',
 	'aggregate',
 	'wall',
+	'paving',
+	'planting',
 	'lighting',
 	'electrical',
 	'equipment',

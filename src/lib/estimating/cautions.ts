@@ -19,13 +19,19 @@ export interface CautionFacts {
 	/** Where the deepest open water is ("The basin", a pond's name); "The basin" when not given. */
 	openWaterWhere?: string;
 	openWaterLimitM: number;
+	/** Dry creeks, drainage and paved areas that move water across the yard. */
+	drainsWater?: string[];
+	/** Soak-aways that put water into the ground. */
+	soakaways?: string[];
+	/** Paths with steps. */
+	steps?: string[];
 }
 
 const LOCATE: Caution = {
 	id: 'locate-utilities',
 	title: 'Locate buried utilities before digging',
 	reason:
-		'Basins, trenches for pipe and cable, and wall footings cut into ground that may hide gas, power, water and communication lines.',
+		'Basins, trenches for pipe and cable, creek beds, soak-aways, path bases, planting holes and wall footings cut into ground that may hide gas, power, water and communication lines.',
 	reference:
 		'In the US call 811 (or use the state one-call center online) and wait the period the state sets before digging, commonly two to three working days (from memory); elsewhere, the local locating service.'
 };
@@ -101,6 +107,29 @@ function openWater(depthM: number, limitM: number, where = 'The basin'): Caution
 	};
 }
 
+function foundationWater(names: string[], soakaways: string[]): Caution {
+	const soak = soakaways.length
+		? ` Keep ${soakaways.join(', ')} well away from the foundation, a septic field and the neighbour’s side (commonly 10 ft or more from a foundation; common practice, no source), and dig it only after the buried lines are marked.`
+		: '';
+	return {
+		id: 'foundation-drainage',
+		title: 'Send water away from foundations',
+		reason: `${names.join(', ')} move${names.length === 1 ? 's' : ''} water across the yard: grade the ground and every channel to fall away from the house, never toward it.${soak}`,
+		reference:
+			'IRC R401.3: the grade falls at least 6 in (152 mm) within the first 10 ft (3048 mm) from the foundation, or drains and swales do the same; local code and drainage rules apply.'
+	};
+}
+
+function stepsCaution(names: string[]): Caution {
+	return {
+		id: 'steps',
+		title: 'Steps: even risers, within the local code',
+		reason: `${names.join(', ')} ${names.length === 1 ? 'has' : 'have'} steps: keep every riser the same height and every tread the same depth, and check the rise and tread the local code allows for outdoor steps.`,
+		reference:
+			'IRC R311.7.5.1 (riser at most 7 3/4 in, risers within 3/8 in of each other) and R311.7.5.2 (tread at least 10 in) for stairs serving a dwelling (from memory); the local code has the final word.'
+	};
+}
+
 export function cautionsFor(facts: CautionFacts): Caution[] {
 	const list: Caution[] = [];
 	if (facts.digs) list.push(LOCATE);
@@ -113,6 +142,10 @@ export function cautionsFor(facts: CautionFacts): Caution[] {
 	if (facts.openWaterDepthM > 0) {
 		list.push(openWater(facts.openWaterDepthM, facts.openWaterLimitM, facts.openWaterWhere));
 	}
+	if (facts.drainsWater?.length) {
+		list.push(foundationWater(facts.drainsWater, facts.soakaways ?? []));
+	}
+	if (facts.steps?.length) list.push(stepsCaution(facts.steps));
 	list.push(LOCAL_CODES);
 	return list;
 }

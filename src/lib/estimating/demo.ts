@@ -247,6 +247,29 @@ export function demoCatalog(): Catalog {
 			),
 			item('CABLE-12-2', 'Direct-burial cable 12/2', 'electrical', 'ft', 55, 120),
 			item('SVC-CORE-DRILL', 'Core drilling through a column', 'other', 'each', 4000, 9000),
+			// Paths and patios, dry creeks and planting (invented prices).
+			item('FLAG-SANDSTONE', 'Sandstone flagstone, 1–2 in', 'paving', 'ton', 29000, 56000),
+			item('PAVER-CONCRETE-84', 'Concrete paver 8 × 4 in', 'paving', 'ft2', 420, 950),
+			item('STEP-STONE-4', 'Stone step slab, 4 ft × 14 in × 6 in', 'paving', 'each', 16000, 32000),
+			item('EDGE-RESTRAINT', 'Paver edge restraint, 8 ft lengths', 'paving', 'ft', 95, 220, {
+				increment: 8
+			}),
+			item('AGG-BEDDING-SAND', 'Concrete sand for bedding', 'aggregate', 'ton', 3200, 6800, {
+				bulkDensityLbFt3: 100
+			}),
+			item('AGG-JOINT-POLY', 'Polymeric joint sand, 0.5 ft³ bag', 'aggregate', 'bag', 2400, 4200, {
+				bagVolumeFt3: 0.5
+			}),
+			item('AGG-COBBLE-RIVER', 'River cobble, 3–6 in', 'aggregate', 'ton', 9500, 18500, {
+				bulkDensityLbFt3: 95
+			}),
+			item('FABRIC-WOVEN', 'Woven landscape fabric', 'other', 'ft2', 12, 35),
+			item('STONE-CREEK-BOULDER', 'Creek bank boulder', 'stone', 'each', 4500, 9500),
+			item('PLANT-PERENNIAL-1G', 'Perennial, 1 gal', 'planting', 'each', 650, 1600),
+			item('PLANT-GRASS-1G', 'Ornamental grass, 1 gal', 'planting', 'each', 700, 1700),
+			item('PLANT-SHRUB-5G', 'Flowering shrub, 5 gal', 'planting', 'each', 2200, 5200),
+			item('MULCH-BARK', 'Shredded bark mulch', 'planting', 'yd3', 3200, 6500),
+			item('COMPOST-BLEND', 'Compost soil amendment', 'planting', 'yd3', 3800, 7800),
 			// Ponds and streams. A liner sheet names its size and family: the engine takes the
 			// smallest sheet of the family that covers the bed, or seams sheets when none does.
 			...(

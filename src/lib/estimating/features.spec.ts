@@ -221,7 +221,10 @@ describe('the starting design follows the inquiry', () => {
 		expect(kinds(['pond'])).toEqual(['pond']);
 		expect(kinds(['stream'])).toEqual(['stream']);
 		expect(kinds(['water-feature'])).toEqual(['fountain']);
-		expect(kinds(['lighting'])).toEqual(['fountain']);
+		// Lighting alone is a lighting-only design; paths and planting are features of their own.
+		expect(kinds(['lighting'])).toEqual([]);
+		expect(kinds(['patio', 'planting'])).toEqual(['path', 'planting']);
+		expect(kinds(['other'])).toEqual(['fountain']);
 		expect(kinds(['pond', 'stream', 'water-feature'])).toEqual(['pond', 'stream', 'fountain']);
 	});
 

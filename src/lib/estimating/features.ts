@@ -25,16 +25,28 @@ import type { StonesResult } from './stones';
 import { analyseStream, bankBoulders, streamFlowM3s, type StreamResult } from './stream';
 import { fromSI, gph, toSI, type UnitSystem } from './units';
 import { fountainSystem, pondSystem, streamSystem, type WaterSystem } from './watersystem';
+import {
+	analyseYard,
+	isYardFeature,
+	yardLines,
+	yardDigs,
+	yardStones,
+	yardTasks,
+	type YardResult
+} from './yard';
 
 export const FEATURE_LABELS: Record<Feature['kind'], string> = {
 	fountain: 'Stone fountain over a basin',
 	pond: 'Pond',
-	stream: 'Pondless stream or waterfall'
+	stream: 'Pondless stream or waterfall',
+	path: 'Path, patio or terrace',
+	drainage: 'Dry creek and drainage',
+	planting: 'Planting'
 };
 
 export const bucketOf = (optionId?: string) => optionId ?? BASE_BUCKET;
 
-export interface FeatureResult {
+export interface FeatureResult extends YardResult {
 	id: string;
 	kind: Feature['kind'];
 	name: string;
@@ -91,6 +103,10 @@ export function analyseFeatures(
 				systemId: f.id,
 				pond: analysePond(f, catalog.items, settings, system.flowM3s)
 			});
+		} else if (isYardFeature(f)) {
+			const yard = analyseYard(f, settings);
+			stones.push(...yardStones(f, yard));
+			results.push({ ...base, ...yard });
 		} else {
 			const intoPond = f.feedsPondId
 				? design.features.some((p) => p.kind === 'pond' && p.id === f.feedsPondId)
@@ -286,6 +302,7 @@ export function featureLines(
 		if (f.kind === 'fountain') fountainLines(f, i, r, add, design.features.length > 1);
 		else if (f.kind === 'pond' && r.pond) pondLines(f, i, r.pond, catalog, add, warn);
 		else if (f.kind === 'stream' && r.stream) streamLines(f, i, r.stream, catalog, add, warn);
+		else if (isYardFeature(f)) yardLines(f, i, r, bucketOf(f.optionId), add);
 	});
 }
 
@@ -307,6 +324,8 @@ export function featureDigs(design: ParsedDesign, results: readonly FeatureResul
 		} else if (f.kind === 'pond' && r?.pond) {
 			// The water and the gravel laid on the liner.
 			digs.push({ bucket, what: f.name, volumeM3: r.pond.volumeM3 + r.pond.gravelVolumeM3 });
+		} else if (isYardFeature(f) && r) {
+			digs.push(...yardDigs(f, r, bucket));
 		} else if (f.kind === 'stream' && r?.stream) {
 			// The running water in the bed and the gravel under it.
 			digs.push({
@@ -337,6 +356,7 @@ export function featureTasks(
 ): LaborTask[] {
 	const settings = catalog.settings;
 	const people = settings.labor.baseCrewSize;
+	const items = new Map(catalog.items.map((x) => [x.sku, x]));
 	const tasks: LaborTask[] = [];
 	const several = design.features.length > 1;
 	design.features.forEach((f, i) => {
@@ -359,6 +379,8 @@ export function featureTasks(
 			if (r?.pond && r.pond.gravelVolumeM3 > 0) {
 				task('topping', `Spread gravel on the liner: ${f.name}`, yd3(r.pond.gravelVolumeM3));
 			}
+		} else if (isYardFeature(f)) {
+			tasks.push(...yardTasks(f, r, settings, items, bucket));
 		} else if (r?.stream) {
 			task('stream', `Shape, line and rock ${f.name}`, fromSI(r.stream.lengthM, 'length', 'ft'));
 			task('fall', `Build the falls: ${f.name}`, r.stream.fallCount);

@@ -113,6 +113,9 @@ describe('the demo estimate', () => {
 				'uplight va valve voltage wall washed ' +
 				'epdm mil pond ponds skimmer rated gph biological filter to gal waterfall weir box flexible ' +
 				'reservoir vault stream mixed bank flagstone edging by square foot ' +
+				'sandstone concrete paver step slab edge restraint lengths sand for bedding polymeric ' +
+				'joint cobble woven landscape fabric creek perennial ornamental grass flowering shrub ' +
+				'shredded bark mulch compost soil amendment ' +
 				'perforated sock compact track loader mini excavator day machine delivery of or load ' +
 				'pick up haul away dump spoil yd loose drain with aggregate'
 			).split(' ')

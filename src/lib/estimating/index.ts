@@ -35,6 +35,7 @@ import { formatQuantity, type DisplayKind, type UnitSystem } from './units';
 import { upgradeDesign } from './upgrade';
 import { crossCheck, type FieldError } from './validate';
 import { wallTakeoff, type WallResult } from './walls';
+import { yardQuantities, yardWarnings } from './yard';
 import type { WaterSystem } from './watersystem';
 
 export interface QuantityLine {
@@ -160,6 +161,11 @@ function quantities(result: PartResults, units: UnitSystem) {
 			);
 		}
 	}
+	for (const f of result.features) {
+		for (const q of yardQuantities(f)) {
+			add(`${q.key}-${f.id}`, `${f.name}: ${q.label}`, q.kind, q.si);
+		}
+	}
 	if (result.stones.stones.length) {
 		add('stone-weight', 'Stone, total weight', 'mass', result.stones.totalWeightKg);
 		add('heaviest-stone', 'Heaviest stone', 'mass', result.stones.heaviestKg);
@@ -197,7 +203,14 @@ function cautionFacts(result: PartResults, design: ParsedDesign, openWaterDepthI
 		wallsNeedingEngineering: result.walls.filter((w) => w.needsEngineering).map((w) => w.name),
 		openWaterDepthM: deepest.depthM,
 		openWaterWhere: deepest.where,
-		openWaterLimitM: openWaterDepthIn * 0.0254
+		openWaterLimitM: openWaterDepthIn * 0.0254,
+		drainsWater: design.features
+			.filter((f) => f.kind === 'drainage' || f.kind === 'path')
+			.map((f) => f.name),
+		soakaways: design.features
+			.filter((f) => f.kind === 'drainage' && f.soakaway)
+			.map((f) => f.name),
+		steps: design.features.filter((f) => f.kind === 'path' && f.steps).map((f) => f.name)
 	};
 }
 
@@ -264,7 +277,8 @@ function collectWarnings(parts: Parts, takeoffWarnings: string[], unpricedLabor:
 		...parts.features.flatMap((f) => [
 			...(f.basin?.warnings ?? []),
 			...(f.pond?.warnings ?? []),
-			...(f.stream?.warnings ?? [])
+			...(f.stream?.warnings ?? []),
+			...yardWarnings(f)
 		]),
 		...parts.stones.warnings,
 		...(parts.lighting?.warnings ?? []),

@@ -52,7 +52,27 @@ export const LABOR_RATES = [
 	rate('pond-line', 'Shape shelves and line a pond', 'ft2', 'person', 0.08),
 	rate('pond-equipment', 'Set a pond’s skimmer, filter and pump', 'pond', 'person', 4),
 	rate('stream', 'Shape, line and rock a stream', 'ft', 'person', 0.5),
-	rate('fall', 'Build a fall', 'fall', 'person', 2)
+	rate('fall', 'Build a fall', 'fall', 'person', 2),
+	rate(
+		'path-layers',
+		'Spread and compact a path’s base and bedding (a loose yd³)',
+		'yd3',
+		'person',
+		1.8
+	),
+	rate('flagstone', 'Lay flagstone', 'ft2', 'person', 0.17),
+	rate('pavers', 'Lay pavers', 'ft2', 'person', 0.08),
+	rate('edge-restraint', 'Set edge restraint', 'ft', 'person', 0.04),
+	rate('joint-fill', 'Sweep in joint fill', 'ft2', 'person', 0.01),
+	rate('step', 'Build a step', 'step', 'person', 3),
+	rate('creek-stone', 'Place creek cobble or soak-away gravel', 'ton', 'person', 2),
+	rate('fabric', 'Lay landscape fabric', 'ft2', 'person', 0.005),
+	rate('plant-1-gal', 'Plant a 1 gal plant', 'plant', 'person', 0.15),
+	rate('plant-2-gal', 'Plant a 2 gal plant', 'plant', 'person', 0.25),
+	rate('plant-5-gal', 'Plant a 5 gal plant', 'plant', 'person', 0.5),
+	rate('plant-15-gal', 'Plant a 15 gal plant', 'plant', 'person', 1.25),
+	rate('mulch', 'Spread mulch', 'yd3', 'person', 1),
+	rate('amend', 'Work in soil amendment', 'yd3', 'person', 1.5)
 ] as const satisfies readonly LaborRateSpec[];
 
 export type LaborRateKey = (typeof LABOR_RATES)[number]['key'];

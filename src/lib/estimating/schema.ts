@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { FITTING_KINDS, NOMINAL_SIZES, PIPE_MATERIALS } from './pipes';
 import { GAUGES, ROCK_TYPES } from './choices';
 import { CATEGORIES } from './categories';
+import { BASE_COMPACTION_FACTOR, BEDDING_COMPACTION_FACTOR } from './earthwork';
 import { LABOR_RATES, SOIL_KINDS, SOILS, type LaborRateKey } from './labor-rates';
 
 const id = z.string().min(1, 'Required');
@@ -304,11 +305,140 @@ const streamFeatureSchema = z.object({
 		.optional()
 });
 
-export const FEATURE_KINDS = ['fountain', 'pond', 'stream'] as const;
+// Paths, patios and terraces: flagstone or pavers over areas, on a compacted base and a bedding
+// layer, with edge restraint, joint fill and steps.
+const stepsSchema = z.object({
+	count: count.min(1, 'At least one step'),
+	riseIn: positive,
+	treadIn: positive,
+	widthFt: positive,
+	sku: z.string().optional()
+});
+
+const pathFeatureSchema = z.object({
+	id,
+	kind: z.literal('path'),
+	name: name.default('Path'),
+	optionId,
+	surface: z.enum(['flagstone', 'pavers']).default('flagstone'),
+	areas: z.array(areaSchema).min(1, 'At least one area'),
+	surfaceSku: z.string().optional(),
+	thicknessIn: positive.default(1.5),
+	rock: z.enum(ROCK_TYPES).default('sandstone'),
+	paver: z.object({ lengthIn: positive, widthIn: positive }).default({ lengthIn: 8, widthIn: 4 }),
+	/** Flagstone: the share of the area left as joints between stones. */
+	jointPercent: z.number().nonnegative('Must not be negative').max(60, 'At most 60%').default(10),
+	/** Pavers: the joint width between units. */
+	jointWidthIn: nonNegative.default(0.125),
+	wastePercent: percent.optional(),
+	baseSku: z.string().optional(),
+	baseDepthIn: nonNegative.default(4),
+	beddingSku: z.string().optional(),
+	beddingDepthIn: nonNegative.default(1),
+	jointSku: z.string().optional(),
+	edgeSku: z.string().optional(),
+	/** Edges that need no restraint (against the house, a wall or a step). */
+	edgeExcludedFt: nonNegative.default(0),
+	steps: stepsSchema.optional()
+});
+
+// A dry creek and drainage: the runoff of a roof or yard area, a cobble channel to carry it, a
+// gravel soak-away to hold one storm's runoff, and the fall of the ground next to the house.
+const drainageFeatureSchema = z.object({
+	id,
+	kind: z.literal('drainage'),
+	name: name.default('Dry creek'),
+	optionId,
+	catchment: z.object({
+		areas: z.array(areaSchema).min(1, 'At least one area'),
+		runoffC: z.number().gt(0, 'Must be above 0').max(1, 'At most 1').default(0.9)
+	}),
+	/** The design rain intensity; blank takes the firm's setting. */
+	rainInPerHr: positive.optional(),
+	creek: z
+		.object({
+			lengthFt: positive,
+			slopePercent: z.number().positive('Must be greater than zero').max(100, 'At most 100%'),
+			flowDepthIn: positive.default(6),
+			sideSlope: positive.max(20, 'At most 20').default(2),
+			freeboardIn: nonNegative.default(3),
+			cobbleDepthIn: positive.default(4),
+			fabricOverlapFt: nonNegative.default(1)
+		})
+		.optional(),
+	cobbleSku: z.string().optional(),
+	fabricSku: z.string().optional(),
+	boulderSku: z.string().optional(),
+	boulder: z
+		.object({
+			lengthIn: positive,
+			widthIn: positive,
+			heightIn: positive,
+			rock: z.enum(ROCK_TYPES),
+			spacingFt: positive
+		})
+		.optional(),
+	soakaway: z
+		.object({
+			depthFt: positive,
+			voidFraction: z.number().gt(0, 'Must be above 0').max(1, 'At most 1').default(0.35),
+			sku: z.string().optional(),
+			fabricSku: z.string().optional()
+		})
+		.optional(),
+	/** The fall of the ground over the first 10 ft from the house, as built or designed. */
+	houseFallIn: nonNegative.optional()
+});
+
+export const CONTAINER_SIZES = ['1-gal', '2-gal', '5-gal', '15-gal'] as const;
+export const PLANT_LAYOUTS = ['square', 'triangular'] as const;
+
+// Planting: beds by area; each group of plants at a spacing and layout over part of the beds (or a
+// fixed count), mulch by depth, and soil amendment worked in.
+const plantingFeatureSchema = z.object({
+	id,
+	kind: z.literal('planting'),
+	name: name.default('Planting'),
+	optionId,
+	areas: z.array(areaSchema).min(1, 'At least one area'),
+	groups: z
+		.array(
+			z.object({
+				id,
+				name,
+				sku: z.string().optional(),
+				container: z.enum(CONTAINER_SIZES).default('1-gal'),
+				spacingIn: positive,
+				layout: z.enum(PLANT_LAYOUTS).default('triangular'),
+				coverPercent: percent.default(100),
+				/** A fixed number of plants (specimens) instead of a spacing over the beds. */
+				count: count.optional()
+			})
+		)
+		.default([]),
+	mulchSku: z.string().optional(),
+	mulchDepthIn: nonNegative.default(3),
+	amendSku: z.string().optional(),
+	amendDepthIn: nonNegative.default(2),
+	wastePercent: percent.optional()
+});
+
+export const FEATURE_KINDS = [
+	'fountain',
+	'pond',
+	'stream',
+	'path',
+	'drainage',
+	'planting'
+] as const;
+export const WATER_FEATURE_KINDS = ['fountain', 'pond', 'stream'] as const;
 export const featureSchema = z.discriminatedUnion('kind', [
 	fountainFeatureSchema,
 	pondFeatureSchema,
-	streamFeatureSchema
+	streamFeatureSchema,
+	pathFeatureSchema,
+	drainageFeatureSchema,
+	plantingFeatureSchema
 ]);
 
 // The ground the work is dug in and how: by hand, by machine, or chosen from the dig volume.
@@ -423,6 +553,36 @@ export const settingsSchema = z.object({
 	// ISPSC section 305 wants a barrier around water over 24 in deep (from memory).
 	openWaterDepthIn: positive.default(24),
 	aggregateWastePercent: percent.default(10),
+	// Paths and patios: the compaction factors that turn a compacted base and bedding layer into the
+	// loose volume to order (earthwork.ts names the table they come from).
+	hardscape: z
+		.object({
+			baseCompactionFactor: z
+				.number()
+				.min(1, 'At least 1')
+				.max(3, 'At most 3')
+				.default(BASE_COMPACTION_FACTOR),
+			beddingCompactionFactor: z
+				.number()
+				.min(1, 'At least 1')
+				.max(3, 'At most 3')
+				.default(BEDDING_COMPACTION_FACTOR)
+		})
+		.prefault({}),
+	// Drainage. The design rain is the firm's local design storm (NOAA Atlas 14 in the US): the
+	// 2 in/h default is an invented starting point to replace. The cobble channel's Manning n is
+	// Chow's normal value for a stream bed of gravels, cobbles and few boulders (V. T. Chow,
+	// Open-Channel Hydraulics, 1959, Table 5-6; from memory). IRC R401.3 asks for 6 in of fall
+	// within the first 10 ft from the foundation.
+	drainage: z
+		.object({
+			designRainInPerHr: positive.default(2),
+			stormMinutes: positive.default(60),
+			cobbleManningN: z.number().gt(0, 'Must be above 0').max(1, 'At most 1').default(0.04),
+			houseFallIn: positive.default(6),
+			houseFallOverFt: positive.default(10)
+		})
+		.prefault({}),
 	pond: z
 		.object({
 			// Turn the pond over once an hour with fish, every two hours for plants; 1 ft of liner
@@ -564,6 +724,11 @@ export type FeatureKind = Feature['kind'];
 export type Fountain = Extract<Feature, { kind: 'fountain' }>;
 export type Pond = Extract<Feature, { kind: 'pond' }>;
 export type Stream = Extract<Feature, { kind: 'stream' }>;
+export type PathFeature = Extract<Feature, { kind: 'path' }>;
+export type DrainageFeature = Extract<Feature, { kind: 'drainage' }>;
+export type PlantingFeature = Extract<Feature, { kind: 'planting' }>;
+export type WaterFeature = Fountain | Pond | Stream;
+export type YardFeature = PathFeature | DrainageFeature | PlantingFeature;
 export type PondOutline = Pond['outline'];
 export type Reservoir = NonNullable<Stream['reservoir']>;
 export type Branch = Fountain['branches'][number];

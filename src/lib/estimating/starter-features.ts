@@ -11,6 +11,7 @@ export type PondInput = Extract<FeatureInput, { kind: 'pond' }>;
 export type StreamInput = Extract<FeatureInput, { kind: 'stream' }>;
 import type { Pick, Slot } from './starter-slots';
 import { settingsSchema } from './schema';
+import { starterPath, starterPlanting } from './starter-yard';
 
 type Note = (text: string) => void;
 
@@ -174,7 +175,15 @@ export function featuresForServices(
 	note: Note
 ) {
 	const wanted = WATER_SERVICES.filter((s) => services.includes(s));
-	if (wanted.length === 0 || (wanted.length === 1 && wanted[0] === 'water-feature')) return;
+	const yard = yardFeaturesFor(services, items);
+	if (wanted.length === 0 && (yard.length || services.includes('lighting'))) {
+		dryYard(design, services, yard);
+		return;
+	}
+	if (wanted.length === 0 || (wanted.length === 1 && wanted[0] === 'water-feature')) {
+		if (wanted.length) design.features = [...(design.features ?? []), ...yard];
+		return;
+	}
 	const fountain = demoDesign().features?.[0];
 	const features: FeatureInput[] = [];
 	const pond = wanted.includes('pond') ? starterPond() : undefined;
@@ -193,6 +202,7 @@ export function featuresForServices(
 		features.push(stream);
 	}
 	if (wanted.includes('water-feature') && fountain) features.push(fountain);
+	features.push(...yard);
 	design.features = features;
 	design.name = wanted.length > 1 ? 'Water features' : pond ? 'Pond' : 'Pondless stream';
 	if (!wanted.includes('water-feature')) {
@@ -201,4 +211,53 @@ export function featuresForServices(
 		design.aggregates = [];
 		design.alternates = [];
 	}
+}
+
+/** A path for "patio", planting beds for "planting" (see starter-yard.ts). */
+function yardFeaturesFor(services: readonly string[], items: readonly CatalogItem[]) {
+	const out: FeatureInput[] = [];
+	if (services.includes('patio')) out.push(starterPath(items));
+	if (services.includes('planting')) out.push(starterPlanting(items));
+	return out;
+}
+
+/**
+ * A yard with no water: the paths and planting asked for, the lighting only when it was asked for,
+ * the wall only for walls; the fountain's stones, topping, core drilling and their choices go.
+ */
+function dryYard(design: Design, services: readonly string[], yard: FeatureInput[]) {
+	design.features = yard;
+	design.stones = [];
+	design.aggregates = [];
+	design.extraLines = [];
+	design.alternates = [];
+	if (services.includes('walls')) {
+		design.walls = (design.walls ?? []).map((w) => ({ ...w, optionId: undefined }));
+	} else design.walls = [];
+	design.options = [];
+	if (services.includes('lighting') && design.lighting) {
+		design.lighting = {
+			...design.lighting,
+			fixtures: design.lighting.fixtures.map((f) => ({
+				...f,
+				name: f.name.replace(/^Column uplight$/, 'Uplight')
+			}))
+		};
+	} else delete design.lighting;
+	const names = [
+		services.includes('patio') ? 'path' : '',
+		services.includes('planting') ? 'planting' : '',
+		services.includes('lighting') ? 'lighting' : ''
+	].filter(Boolean);
+	const text = names.join(', ').replace(/, ([^,]*)$/, ' and $1');
+	design.name = text.charAt(0).toUpperCase() + text.slice(1);
+}
+
+/** What the estimate is called at first: "<name> — water feature", or the dry-yard work asked for. */
+export function starterLabel(name: string, services: readonly string[]): string {
+	const water = WATER_SERVICES.some((s) => services.includes(s));
+	const dry = ['patio', 'planting', 'lighting'].filter((s) => services.includes(s));
+	if (water || dry.length === 0) return `${name} — water feature`;
+	const words = dry.map((s) => (s === 'patio' ? 'path' : s));
+	return `${name} — ${words.join(', ').replace(/, ([^,]*)$/, ' and $1')}`;
 }

@@ -118,7 +118,8 @@ function waterRuns(parts: TakeoffParts): Run[] {
 			const fed = design.features.find(
 				(f) => f.kind === 'stream' && system.feeds.includes(f.id) && f.id !== feature.id
 			);
-			const input = feature.kind === 'pond' && fed?.kind === 'stream' ? fed.supply : feature.supply;
+			const own = 'supply' in feature ? feature.supply : undefined;
+			const input = feature.kind === 'pond' && fed?.kind === 'stream' ? fed.supply : own;
 			runs.push({
 				run: system.supply,
 				fittings: input?.fittings ?? [],

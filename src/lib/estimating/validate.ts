@@ -4,6 +4,7 @@ import { pondErrors } from './pond';
 import { firstNonMonotoneIndex } from './pumps';
 import type { Fountain, ParsedCatalog, ParsedDesign, Supply } from './schema';
 import { streamErrors } from './stream';
+import { isYardFeature, yardSkus } from './yard';
 
 export interface FieldError {
 	path: string;
@@ -63,6 +64,7 @@ function checkFeatures(c: Collector, design: ParsedDesign) {
 	design.features.forEach((f, i) => {
 		const at: Path = ['design', 'features', i];
 		if (f.kind === 'fountain') checkFountain(c, f, at);
+		else if (isYardFeature(f)) return;
 		else if (f.kind === 'pond') {
 			checkSupply(c, f.supply, [...at, 'supply']);
 			for (const e of pondErrors(f)) c.add([...at, ...e.path], e.message);
@@ -95,7 +97,7 @@ function checkPumps(c: Collector, design: ParsedDesign, catalog: ParsedCatalog) 
 	});
 	checkUnique(c, catalog.pumps, ['catalog', 'pumps']);
 	design.features.forEach((f, i) => {
-		if (f.pumpModelId && !catalog.pumps.some((p) => p.id === f.pumpModelId)) {
+		if ('pumpModelId' in f && f.pumpModelId && !catalog.pumps.some((p) => p.id === f.pumpModelId)) {
 			c.add(
 				['design', 'features', i, 'pumpModelId'],
 				`No pump model "${f.pumpModelId}" in the price list`
@@ -112,6 +114,10 @@ function skuReferences(design: ParsedDesign): [Path, string | undefined][] {
 		if (f.kind === 'fountain') {
 			push([...at, 'basin', 'sku'], f.basin?.sku);
 			if (f.basin?.fill.kind === 'gravel') push([...at, 'basin', 'fill', 'sku'], f.basin.fill.sku);
+			return;
+		}
+		if (isYardFeature(f)) {
+			for (const [path, sku] of yardSkus(f)) push([...at, ...path], sku);
 			return;
 		}
 		for (const key of ['linerSku', 'underlaymentSku', 'gravelSku'] as const) {

@@ -36,7 +36,8 @@ export const HANDLING_NAMES: Record<string, string> = {
 
 /**
  * Cautions the homeowner should read: utilities, electrical work, a wall that needs a permit or an
- * engineer, open water, and always that local codes and licensed trades come first. Lifting stones
+ * engineer, open water, water kept away from the house, even steps, and always that local codes and
+ * licensed trades come first. Lifting stones
  * is the crew's concern and stays on the office and crew views.
  */
 export const HOMEOWNER_CAUTIONS = new Set([
@@ -45,6 +46,8 @@ export const HOMEOWNER_CAUTIONS = new Set([
 	'licensed-electrician',
 	'wall-height',
 	'open-water',
+	'foundation-drainage',
+	'steps',
 	'local-codes'
 ]);
 

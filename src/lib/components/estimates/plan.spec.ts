@@ -108,3 +108,25 @@ describe('every feature is drawn', () => {
 		expect(chosen.features.find((f) => f.kind === 'pond')?.optional).toBe(false);
 	});
 });
+
+describe('plan drawing of the yard features', () => {
+	it('draws a path’s and a bed’s areas to scale, and a dry creek with its soak-away', async () => {
+		const { starterDrainage, starterPath, starterPlanting } =
+			await import('$lib/estimating/starter-yard');
+		const design = designSchema.parse({
+			name: 'Yard',
+			features: [starterPath([]), starterPlanting([]), starterDrainage([])]
+		});
+		const plan = planOf(design, inclusionFor(design, includedBuckets(design)));
+		expect(plan.basin).toBeUndefined();
+		expect(plan.features.map((f) => f.kind)).toEqual(['path', 'planting', 'drainage']);
+		const [path, beds, creek] = plan.features;
+		const box = boxOf(path.shapes.flat());
+		expect(box.maxX - box.minX).toBeCloseTo(20, 9);
+		expect(box.maxY - box.minY).toBeCloseTo(4, 9);
+		expect(path.detail).toBe('flagstone over 80 ft², 2 steps');
+		expect(beds.detail).toBe('beds of 96 ft², 3 plant groups');
+		expect(creek.shapes).toHaveLength(2);
+		expect(creek.detail).toBe('creek 30 ft long into a soak-away');
+	});
+});

@@ -304,6 +304,7 @@ function featureShape(f: Feature): Omit<PlanFeature, 'key' | 'optional'> | undef
 			detail: `${fmt(length)} ft long over ${falls.length} fall${falls.length === 1 ? '' : 's'}, rising ${fmt(f.riseFt)} ft; ${f.reservoir ? `reservoir ${fmt(f.reservoir.lengthFt)} × ${fmt(f.reservoir.widthFt)} ft` : 'falls into the pond'}`
 		};
 	}
+	if (f.kind === 'path' || f.kind === 'planting' || f.kind === 'drainage') return yardShape(f);
 	const basin = basinOf(f);
 	if (!basin) return undefined;
 	return {
@@ -313,6 +314,63 @@ function featureShape(f: Feature): Omit<PlanFeature, 'key' | 'optional'> | undef
 		falls: [],
 		label: f.name,
 		detail: `${basin.label}, ${basin.detail}, ${f.outlets.length} outlet${f.outlets.length === 1 ? '' : 's'}`
+	};
+}
+
+/** Areas side by side from the origin, each to scale. */
+function areasInRow(areas: readonly Area[]): Point[][] {
+	let x = 0;
+	return areas.map((a) => {
+		const pts = outline(a);
+		const box = boxOf(pts);
+		const placed = shift(pts, x - box.minX, -(box.minY + box.maxY) / 2);
+		x += box.maxX - box.minX + GAP_FT / 2;
+		return placed;
+	});
+}
+
+/** A path's or planting's areas; a dry creek as its channel and soak-away. */
+function yardShape(
+	f: Extract<Feature, { kind: 'path' | 'planting' | 'drainage' }>
+): Omit<PlanFeature, 'key' | 'optional'> {
+	const total = (areas: readonly Area[]) => areas.reduce((s, a) => s + areaFt2(a), 0);
+	if (f.kind === 'path') {
+		const steps = f.steps ? `, ${f.steps.count} step${f.steps.count === 1 ? '' : 's'}` : '';
+		return {
+			kind: 'path',
+			name: f.name,
+			shapes: areasInRow(f.areas),
+			falls: [],
+			label: f.name,
+			detail: `${f.surface} over ${fmt(total(f.areas))} ft²${steps}`
+		};
+	}
+	if (f.kind === 'planting') {
+		return {
+			kind: 'planting',
+			name: f.name,
+			shapes: areasInRow(f.areas),
+			falls: [],
+			label: f.name,
+			detail: `beds of ${fmt(total(f.areas))} ft², ${f.groups.length} plant group${f.groups.length === 1 ? '' : 's'}`
+		};
+	}
+	const shapes: Point[][] = [];
+	const creek = f.creek;
+	// The creek is drawn 2 ft wide: its size comes from the runoff, which the drawing does not compute.
+	if (creek) shapes.push(shift(rect(creek.lengthFt, 2), creek.lengthFt / 2, 0));
+	if (f.soakaway) {
+		const x = creek ? creek.lengthFt + GAP_FT : 0;
+		shapes.push(shift(rect(3, 3), x + 1.5, 0));
+	}
+	if (!shapes.length) shapes.push(rect(1, 1));
+	return {
+		kind: 'drainage',
+		name: f.name,
+		shapes,
+		falls: [],
+		label: f.name,
+		detail: `${creek ? `creek ${fmt(creek.lengthFt)} ft long` : 'no creek'}${f.soakaway ? ' into a soak-away' : ''}`
 	};
 }
 

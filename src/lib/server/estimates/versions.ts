@@ -10,6 +10,7 @@ import {
 } from '$lib/estimating/overrides';
 import { scopeFromNotes, starterDesign } from '$lib/estimating/prefill';
 import { starterFromCatalog, starterGapsNote } from '$lib/estimating/starter';
+import { starterLabel } from '$lib/estimating/starter-features';
 import type { SaveEstimateInput } from '$lib/schema/estimates';
 import { db, type Tx } from '../platform/db';
 import { activities, estimates, leads, users } from '../platform/db/schema';
@@ -99,7 +100,7 @@ export async function createEstimate(leadId: string, user: SessionUser) {
 		estimatingConfig(),
 		loadCatalog()
 	]);
-	const label = `${found.contact.name} — water feature`;
+	const label = starterLabel(found.contact.name, found.lead.services ?? []);
 	// What the price list cannot supply goes to the staff's timeline, never into the homeowner's scope.
 	const ownDesign = Boolean(notes && typeof notes.design === 'object' && notes.design);
 	const services = found.lead.services ?? [];

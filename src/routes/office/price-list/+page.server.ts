@@ -18,6 +18,8 @@ import { taskHours } from '$lib/server/pricelist/csv';
 import { saveTaskRates, taskRatesFormSchema } from '$lib/server/pricelist/task-rates';
 import { settingsSchema } from '$lib/estimating/schema';
 import { itemFormSchema, saveItem } from '$lib/server/pricelist/item-form';
+import { saveYardSettings } from '$lib/server/pricelist/yard';
+import { yardValues } from '$lib/estimating/yard-fields';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -41,7 +43,16 @@ export const load: PageServerLoad = async (event) => {
 		machineDigAboveYd3: engine.labor.machineDigAboveYd3,
 		truckCapacityTons: engine.equipment.truckCapacityTons
 	};
-	return { items, pumps, rates, config, taskHours: hours, crew, canEdit: user.role === 'owner' };
+	return {
+		items,
+		pumps,
+		rates,
+		config,
+		taskHours: hours,
+		crew,
+		yard: yardValues(config.engine),
+		canEdit: user.role === 'owner'
+	};
 };
 
 export const actions: Actions = {
@@ -125,5 +136,14 @@ export const actions: Actions = {
 		const errors = await saveEstimatingSettings(parsed.data);
 		if (errors.length) return fail(400, { form: 'settings', values: formValues(data), errors });
 		return { form: 'settings', saved: 'settings' };
+	},
+	yard: async (event) => {
+		requireRole(event, 'owner');
+		const data = await event.request.formData();
+		const fieldErrors = await saveYardSettings(data);
+		if (Object.keys(fieldErrors).length) {
+			return fail(400, { form: 'yard', values: formValues(data), fieldErrors });
+		}
+		return { form: 'yard', saved: 'yard' };
 	}
 };
