@@ -1,7 +1,6 @@
-import { fail } from '@sveltejs/kit';
-import { fieldErrors, formValues } from '$lib/schema/auth';
 import { requireRole } from '$lib/server/auth/access';
 import { firmSettings, saveSettings, settingsSchema } from '$lib/server/platform/settings';
+import { parseForm } from '$lib/server/platform/forms';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -12,11 +11,8 @@ export const load: PageServerLoad = async (event) => {
 export const actions: Actions = {
 	default: async (event) => {
 		requireRole(event, 'owner');
-		const data = await event.request.formData();
-		const parsed = settingsSchema.safeParse(Object.fromEntries(data));
-		if (!parsed.success) {
-			return fail(400, { values: formValues(data), errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(event.request, settingsSchema);
+		if (!parsed.ok) return parsed.failure;
 		await saveSettings(parsed.data);
 		return { saved: true };
 	}

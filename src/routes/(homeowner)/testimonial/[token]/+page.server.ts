@@ -1,7 +1,8 @@
 import { error, fail } from '@sveltejs/kit';
-import { fieldErrors, formValues } from '$lib/schema/auth';
+import { formValues } from '$lib/schema/auth';
 import { testimonialSchema } from '$lib/schema/jobs';
 import { submitTestimonial, testimonialForHomeowner } from '$lib/server/jobs/testimonials';
+import { parseForm } from '$lib/server/platform/forms';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {
@@ -12,11 +13,9 @@ export const load: PageServerLoad = async ({ params }) => {
 
 export const actions: Actions = {
 	default: async ({ request, params }) => {
-		const data = await request.formData();
-		const parsed = testimonialSchema.safeParse(Object.fromEntries(data));
-		if (!parsed.success) {
-			return fail(400, { values: formValues(data), errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(request, testimonialSchema);
+		if (!parsed.ok) return parsed.failure;
+		const data = parsed.form;
 		const outcome = await submitTestimonial(params.token, parsed.data);
 		if (outcome === 'missing') error(404, 'This link is not valid.');
 		if (outcome === 'expired') {

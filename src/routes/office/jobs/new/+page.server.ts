@@ -1,10 +1,11 @@
 import { error, fail, redirect } from '@sveltejs/kit';
-import { fieldErrors, formValues } from '$lib/schema/auth';
+import { formValues } from '$lib/schema/auth';
 import { saleByHandSchema } from '$lib/schema/jobs';
 import { requireRole } from '$lib/server/auth/access';
 import { JobError } from '$lib/server/jobs/errors';
 import { leadForSale, recordSaleByHand, sellableEstimates } from '$lib/server/jobs/conversion';
 import { firmToday } from '$lib/server/platform/settings';
+import { parseForm } from '$lib/server/platform/forms';
 import type { Actions, PageServerLoad } from './$types';
 
 // "Mark sold by hand": a yes on signed paper or by phone, recorded by staff; the same conversion.
@@ -19,11 +20,9 @@ export const load: PageServerLoad = async (event) => {
 export const actions: Actions = {
 	default: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
-		const data = await event.request.formData();
-		const parsed = saleByHandSchema.safeParse(Object.fromEntries(data));
-		if (!parsed.success) {
-			return fail(400, { values: formValues(data), errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(event.request, saleByHandSchema);
+		if (!parsed.ok) return parsed.failure;
+		const data = parsed.form;
 		let jobId: string;
 		try {
 			({ jobId } = await recordSaleByHand(

@@ -1,5 +1,5 @@
 import { error, fail } from '@sveltejs/kit';
-import { fieldErrors, formValues } from '$lib/schema/auth';
+
 import { visitNotesSchema } from '$lib/schema/visits';
 import { requireRole } from '$lib/server/auth/access';
 import type { SessionUser } from '$lib/server/auth/sessions';
@@ -12,6 +12,7 @@ import {
 } from '$lib/server/photos/visit-photos';
 import { saveNotes } from '$lib/server/visits/notes';
 import { visitDetail } from '$lib/server/visits/agenda';
+import { parseForm } from '$lib/server/platform/forms';
 import type { Actions, PageServerLoad } from './$types';
 
 /** The visit, or a 404 for an unknown one and a 403 for another salesperson's closed visit. */
@@ -47,11 +48,8 @@ export const actions: Actions = {
 	notes: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
 		await visitFor(user, event.params.id);
-		const data = await event.request.formData();
-		const parsed = visitNotesSchema.safeParse(Object.fromEntries(data));
-		if (!parsed.success) {
-			return fail(400, { values: formValues(data), errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(event.request, visitNotesSchema);
+		if (!parsed.ok) return parsed.failure;
 		if (!(await saveNotes(event.params.id, parsed.data, user.id))) error(404, 'No such visit');
 		return { saved: true };
 	},

@@ -1,5 +1,5 @@
 import { error, fail } from '@sveltejs/kit';
-import { fieldErrors, formValues } from '$lib/schema/auth';
+import { formValues } from '$lib/schema/auth';
 import { bookSchema, cancelFormSchema, rescheduleFormSchema } from '$lib/schema/visits';
 import { requireRole } from '$lib/server/auth/access';
 import { VisitError } from '$lib/server/visits/errors';
@@ -7,6 +7,7 @@ import { bookVisit, cancelVisit, rescheduleVisit } from '$lib/server/visits/book
 import { leadForVisit, visitsOfLead } from '$lib/server/visits/agenda';
 import { salespeople } from '$lib/server/visits/availability';
 import { firmToday } from '$lib/server/platform/settings';
+import { parseForm } from '$lib/server/platform/forms';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -41,11 +42,9 @@ function refused(e: unknown, data: FormData) {
 export const actions: Actions = {
 	book: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
-		const data = await event.request.formData();
-		const parsed = bookSchema.safeParse(Object.fromEntries(data));
-		if (!parsed.success) {
-			return fail(400, { values: formValues(data), errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(event.request, bookSchema);
+		if (!parsed.ok) return parsed.failure;
+		const data = parsed.form;
 		try {
 			await bookVisit({
 				leadId: event.params.id,
@@ -61,11 +60,9 @@ export const actions: Actions = {
 	},
 	reschedule: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
-		const data = await event.request.formData();
-		const parsed = rescheduleFormSchema.safeParse(Object.fromEntries(data));
-		if (!parsed.success) {
-			return fail(400, { values: formValues(data), errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(event.request, rescheduleFormSchema);
+		if (!parsed.ok) return parsed.failure;
+		const data = parsed.form;
 		try {
 			await rescheduleVisit(parsed.data.visitId, {
 				salespersonId: parsed.data.salespersonId,
@@ -81,11 +78,9 @@ export const actions: Actions = {
 	},
 	cancel: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
-		const data = await event.request.formData();
-		const parsed = cancelFormSchema.safeParse(Object.fromEntries(data));
-		if (!parsed.success) {
-			return fail(400, { values: formValues(data), errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(event.request, cancelFormSchema);
+		if (!parsed.ok) return parsed.failure;
+		const data = parsed.form;
 		try {
 			await cancelVisit(parsed.data.visitId, {
 				reason: parsed.data.reason,
