@@ -15,6 +15,7 @@ export const OFFICE_NAV: readonly NavItem[] = [
 	{ href: '/office/jobs', label: 'Jobs', roles: ['owner', 'sales', 'crew'] },
 	{ href: '/office/care', label: 'Care', roles: ['owner', 'sales'] },
 	{ href: '/office/payments', label: 'Payments', roles: ['owner'] },
+	{ href: '/office/costing', label: 'Costing', roles: ['owner'] },
 	{ href: '/office/price-list', label: 'Price list', roles: ['owner', 'sales'] },
 	{ href: '/office/availability', label: 'Availability', roles: ['owner', 'sales'] },
 	{ href: '/office/team', label: 'Team', roles: ['owner'] },

@@ -978,3 +978,5 @@ export type Invoice = typeof invoices.$inferSelect;
 
 // Seasonal care, service visits and calendar feeds live in their own file.
 export * from './care-schema';
+// Job costing (time, materials, other costs, learned labor rates) lives in its own file.
+export * from './costing-schema';
