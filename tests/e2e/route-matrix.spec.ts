@@ -43,6 +43,13 @@ const PAGES: Record<string, Expect> = {
 	'/change-order/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/testimonial/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/care/unsubscribe/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
+	// Job costing: hours are logged by every role allowed on the job (crew on their own jobs);
+	// the phone posts them to the API (POST only). Costing and margins are the owner's.
+	'/office/jobs/[id]/time': { anonymous: 303, owner: 404, sales: 404, crew: 404 },
+	'/api/jobs/[id]/time': { anonymous: 401, owner: 405, sales: 405, crew: 405 },
+	'/office/costing': OWNER_ONLY,
+	'/office/costing/export.csv': OWNER_ONLY,
+	'/office/costing/[id]': { anonymous: 303, owner: 404, sales: 403, crew: 403 },
 	'/api/health': PUBLIC_API,
 	// Payments (issue 10): owner only; the webhook is POST-only and public; token pages 404 on a bad token.
 	'/office/payments': OWNER_ONLY,
@@ -96,6 +103,11 @@ const ACTIONS: Record<string, Expect> = {
 	'/office/jobs/[id]?/sendChangeOrder': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	'/office/jobs/new': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	'/office/jobs/settings?/care': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
+	'/office/jobs/[id]/time?/add': { anonymous: 303, owner: 404, sales: 404, crew: 404 },
+	'/office/costing?/settings': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
+	'/office/costing/[id]?/usage': { anonymous: 303, owner: 404, sales: 403, crew: 403 },
+	'/office/costing/[id]?/cost': { anonymous: 303, owner: 404, sales: 403, crew: 403 },
+	'/office/costing/[id]?/removeCost': { anonymous: 303, owner: 404, sales: 403, crew: 403 },
 	'/office/jobs/settings?/approve': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
 	'/change-order/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
 	'/testimonial/[token]': { anonymous: 404, owner: 404, sales: 404, crew: 404 },
