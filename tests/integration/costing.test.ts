@@ -17,6 +17,9 @@ import { resetDatabase } from '../support/database';
 import { makeUser, seedFirm } from './fixtures';
 import { approveChangeOrder } from './payments-fixtures';
 import { makeHandJob } from './costing-fixtures';
+import { confirmRate, learnedRates, RateChangeError } from '$lib/server/costing/learning';
+import { estimatingConfig } from '$lib/server/pricelist';
+import { laborRateChanges } from '$lib/server/db/schema';
 import { POST as timeApi } from '../../src/routes/api/jobs/[id]/time/+server';
 import { GET as marginsCsv } from '../../src/routes/office/costing/export.csv/+server';
 
@@ -189,17 +192,15 @@ describe('job costing', () => {
 			incurredOn: '2027-05-15'
 		});
 		await approveChangeOrder(job.id, 1, 20_000);
-		await db
-			.insert(payments)
-			.values({
-				id: newId(),
-				jobId: job.id,
-				kind: 'deposit',
-				method: 'cheque',
-				amountCents: 90_000,
-				reference: '1041',
-				receivedOn: '2027-05-01'
-			});
+		await db.insert(payments).values({
+			id: newId(),
+			jobId: job.id,
+			kind: 'deposit',
+			method: 'cheque',
+			amountCents: 90_000,
+			reference: '1041',
+			receivedOn: '2027-05-01'
+		});
 
 		const { costing } = await costingOf(await jobFor(owner, job.id));
 		expect(costing.revenueCents).toBe(305_000);
@@ -253,5 +254,120 @@ describe('job costing', () => {
 		);
 		expect(text).toContain(`J-${done.job.number},Hand-worked job,`);
 		expect(text).toContain(',2850.00,860.00,1990.00,69.82,13.50,0.00');
+	});
+});
+
+describe('estimates that learn', () => {
+	async function finished(
+		completedAt: string | null,
+		tasks: { task: string; hours: number }[],
+		logged: Record<string, number[]>
+	) {
+		const { job } = await makeHandJob({
+			tasks,
+			crewLeadId: rosa.id,
+			completedAt: completedAt ? new Date(completedAt) : null
+		});
+		await costingOf(job);
+		for (const [name, minutes] of Object.entries(logged)) {
+			const id = await taskId(job.id, name);
+			await recordTimeEntries(
+				rosa,
+				job.id,
+				minutes.map((m) => entry({ taskId: id, minutes: m }))
+			);
+		}
+		return job;
+	}
+
+	it('gives each rate the ratio of actual to estimated hours over the last finished jobs, and records the confirmed change', async () => {
+		// The hand-worked set (engine defaults: a basin 6 h, an outlet 1.5 h):
+		//   job A (newest): basin est 6, logged 450 min = 7.5 h; outlets est 4.5, logged 4.5 h
+		//                   (and 120 callback minutes on the basin, not counted)
+		//   job B:          basin est 6, logged 6.5 h; outlets est 3, logged 3.75 h
+		//   job C (oldest): basin est 6, logged 8 h; outlets est 3, nothing logged (not counted)
+		//   job D underway: basin est 6, logged 20 h (not finished: not counted)
+		//   over 10 jobs: basin (7.5 + 6.5 + 8) / 18 = 22 / 18 = 1.2222 over 3 jobs → 6 × 1.2222 = 7.33 h
+		//                 outlets (4.5 + 3.75) / 7.5 = 1.1 over 2 jobs → 1.5 × 1.1 = 1.65 h
+		//   over the last 2: basin (7.5 + 6.5) / 12 = 1.1667 over 2 jobs → 7 h
+		const a = await finished(
+			'2027-06-20T20:00:00Z',
+			[
+				{ task: 'Dig and set basin', hours: 6 },
+				{ task: 'Plumb outlets', hours: 4.5 }
+			],
+			{ 'Dig and set basin': [240, 210], 'Plumb outlets': [270] }
+		);
+		await db
+			.insert(timeEntries)
+			.values({
+				id: newId(),
+				jobId: a.id,
+				taskId: await taskId(a.id, 'Dig and set basin'),
+				person: 'Rosa',
+				workDate: '2027-07-20',
+				minutes: 120,
+				clientKey: key(),
+				callbackId: 'callback-hours'
+			});
+		await finished(
+			'2027-06-10T20:00:00Z',
+			[
+				{ task: 'Dig and set basin', hours: 6 },
+				{ task: 'Plumb outlets', hours: 3 }
+			],
+			{ 'Dig and set basin': [390], 'Plumb outlets': [225] }
+		);
+		await finished(
+			'2027-05-30T20:00:00Z',
+			[
+				{ task: 'Dig and set basin', hours: 6 },
+				{ task: 'Plumb outlets', hours: 3 }
+			],
+			{ 'Dig and set basin': [480] }
+		);
+		await finished(null, [{ task: 'Dig and set basin', hours: 6 }], {
+			'Dig and set basin': [600, 600]
+		});
+
+		const all = await learnedRates();
+		const basin = all.find((r) => r.rateKey === 'basinHours')!;
+		expect(basin.current).toBe(6);
+		expect(basin.ratio).toBeCloseTo(22 / 18, 10);
+		expect(basin.jobs).toBe(3);
+		expect(basin.proposed).toBe(7.33);
+		expect(all.find((r) => r.rateKey === 'outletHours')).toMatchObject({ jobs: 2, proposed: 1.65 });
+		expect(all.find((r) => r.rateKey === 'outletHours')!.ratio).toBeCloseTo(1.1, 10);
+		expect(all.find((r) => r.rateKey === 'fallHours')).toMatchObject({
+			ratio: null,
+			jobs: 0,
+			proposed: null
+		});
+
+		await saveCostingConfig({ ...DEFAULT_COSTING_SETTINGS, learnFromJobs: 2 });
+		const lastTwo = (await learnedRates()).find((r) => r.rateKey === 'basinHours')!;
+		expect(lastTwo).toMatchObject({ jobs: 2, proposed: 7 });
+		expect(lastTwo.ratio).toBeCloseTo(14 / 12, 10);
+
+		// A stale proposal is refused; the one on the page is taken and recorded.
+		await expect(confirmRate(owner, 'basinHours', 7.33)).rejects.toThrow(RateChangeError);
+		expect(await confirmRate(owner, 'basinHours', 7)).toEqual({ from: 6, to: 7 });
+		const config = await estimatingConfig();
+		expect((config.engine.labor as Record<string, unknown>).basinHours).toBe(7);
+		const changes = await db.select().from(laborRateChanges);
+		expect(changes).toHaveLength(1);
+		expect(changes[0]).toMatchObject({
+			rateKey: 'basinHours',
+			fromHours: 6,
+			toHours: 7,
+			jobsCount: 2,
+			confirmedBy: owner.id
+		});
+		expect(changes[0].ratio).toBeCloseTo(14 / 12, 10);
+		// The finished jobs still say the same ratio, now of the new setting.
+		expect((await learnedRates()).find((r) => r.rateKey === 'basinHours')).toMatchObject({
+			current: 7,
+			proposed: 8.17
+		});
 	});
 });

@@ -76,6 +76,16 @@ describe('learned ratios', () => {
 			{ rateKey: 'basinHours', ratio: 1.2, jobs: 3, estimatedHours: 15, actualHours: 18 }
 		]);
 		expect(proposedRate(6, 1.2)).toBe(7.2);
+		// Only the last two jobs that used it (rows newest first): a and b → 13.5 / 12 = 1.125.
+		const lastTwo = learnedRatios(
+			[
+				{ jobId: 'a', rateKey: 'basinHours', estimatedHours: 6, actualHours: 7.5 },
+				{ jobId: 'b', rateKey: 'basinHours', estimatedHours: 6, actualHours: 6 },
+				{ jobId: 'c', rateKey: 'basinHours', estimatedHours: 3, actualHours: 4.5 }
+			],
+			2
+		);
+		expect(lastTwo[0]).toMatchObject({ ratio: 1.125, jobs: 2 });
 		expect(proposedRate(0.02, 1.37)).toBe(0.03);
 	});
 });

@@ -98,15 +98,16 @@ export interface LearnedRatio {
 }
 
 /**
- * The ratio of actual to estimated hours for each setting, over the jobs given (the caller picks
- * the last N finished jobs). A job counts for a setting when its estimate used it (estimated
- * hours above zero) and the crew logged time on those tasks.
+ * The ratio of actual to estimated hours for each setting, over the last `limit` finished jobs
+ * that used it (rows newest job first). A job counts for a setting when its estimate used it
+ * (estimated hours above zero) and the crew logged time on those tasks.
  */
-export function learnedRatios(rows: readonly JobRateHours[]): LearnedRatio[] {
+export function learnedRatios(rows: readonly JobRateHours[], limit = Infinity): LearnedRatio[] {
 	const by = new Map<RateKey, { est: number; act: number; jobs: Set<string> }>();
 	for (const r of rows) {
 		if (!(r.estimatedHours > 0) || !(r.actualHours > 0)) continue;
 		const acc = by.get(r.rateKey) ?? { est: 0, act: 0, jobs: new Set<string>() };
+		if (!acc.jobs.has(r.jobId) && acc.jobs.size >= limit) continue;
 		acc.est += r.estimatedHours;
 		acc.act += r.actualHours;
 		acc.jobs.add(r.jobId);
