@@ -193,7 +193,7 @@ export async function seedCosting(db: Db): Promise<void> {
 		const stone = materials.find((m) => m.category === 'stone');
 		const pebble = materials.find((m) => m.sku === 'AGG-PEBBLE-RIVER');
 		if (stone)
-			await tx
+			{await tx
 				.insert(materialUsage)
 				.values({
 					materialId: stone.id,
@@ -202,16 +202,16 @@ export async function seedCosting(db: Db): Promise<void> {
 					returnedQuantity: 0,
 					invoiceCostCents: 61_480,
 					invoiceReference: 'QS-3318'
-				});
+				});}
 		if (pebble)
-			await tx
+			{await tx
 				.insert(materialUsage)
 				.values({
 					materialId: pebble.id,
 					jobId,
 					pickedQuantity: pebble.quantity + 0.3,
 					returnedQuantity: 0.5
-				});
+				});}
 		await tx
 			.insert(jobCosts)
 			.values({

@@ -298,18 +298,16 @@ describe('estimates that learn', () => {
 			],
 			{ 'Dig and set basin': [240, 210], 'Plumb outlets': [270] }
 		);
-		await db
-			.insert(timeEntries)
-			.values({
-				id: newId(),
-				jobId: a.id,
-				taskId: await taskId(a.id, 'Dig and set basin'),
-				person: 'Rosa',
-				workDate: '2027-07-20',
-				minutes: 120,
-				clientKey: key(),
-				callbackId: 'callback-hours'
-			});
+		await db.insert(timeEntries).values({
+			id: newId(),
+			jobId: a.id,
+			taskId: await taskId(a.id, 'Dig and set basin'),
+			person: 'Rosa',
+			workDate: '2027-07-20',
+			minutes: 120,
+			clientKey: key(),
+			callbackId: 'callback-hours'
+		});
 		await finished(
 			'2027-06-10T20:00:00Z',
 			[

@@ -64,8 +64,9 @@ async function finishedRows(): Promise<JobRateHours[]> {
 					.reduce((s, m) => s + m.minutes, 0) / 60;
 			by.set(key, acc);
 		}
-		for (const [rateKey, v] of by)
+		for (const [rateKey, v] of by) {
 			rows.push({ jobId: id, rateKey, estimatedHours: v.est, actualHours: v.act });
+		}
 	}
 	return rows;
 }
@@ -114,8 +115,9 @@ export async function confirmRate(user: SessionUser, rateKey: RateKey, seen: num
 			`The proposal has changed to ${rate.proposed} h since this page was read; check it again.`
 		);
 	}
-	if (rate.proposed === rate.current)
+	if (rate.proposed === rate.current) {
 		throw new RateChangeError('The finished jobs agree with the current hours.');
+	}
 	if (!(rate.proposed > 0)) throw new RateChangeError('A proposal of 0 hours cannot be used.');
 	await db.transaction(async (tx) => {
 		const [row] = await tx
