@@ -38,16 +38,16 @@ test('the crew lead logs a day’s hours at 390 px with the network cut and rest
 	// In the backyard, no signal.
 	await context.setOffline(true);
 	await expect(page.getByTestId('connection')).toHaveText(/No connection/);
-	await page.getByLabel('Task').selectOption({ label: 'Dig and set basin' });
-	await page.getByLabel('Hours').fill('4.5');
+	await page.getByLabel('Task', { exact: true }).selectOption({ label: 'Dig and set basin' });
+	await page.getByLabel('Hours', { exact: true }).fill('4.5');
 	await page.getByRole('button', { name: 'Save the hours' }).click();
-	await page.getByLabel('Task').selectOption({ label: 'A task not on the list…' });
+	await page.getByLabel('Task', { exact: true }).selectOption({ label: 'A task not on the list…' });
 	await page.getByLabel('New task').fill('Haul spoil to the trailer');
-	await page.getByLabel('Who').fill('Dane Ashgrove');
-	await page.getByLabel('Hours').fill('3:30');
+	await page.getByLabel('Who', { exact: true }).fill('Dane Ashgrove');
+	await page.getByLabel('Hours', { exact: true }).fill('3:30');
 	await page.getByRole('button', { name: 'Save the hours' }).click();
 	// A typo is caught beside the field and not kept.
-	await page.getByLabel('Hours').fill('half a day');
+	await page.getByLabel('Hours', { exact: true }).fill('half a day');
 	await page.getByRole('button', { name: 'Save the hours' }).click();
 	await expect(page.getByText('Enter the hours, such as 7.5 or 7:30')).toBeVisible();
 	const waiting = page.getByTestId('waiting');
