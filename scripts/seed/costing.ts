@@ -90,34 +90,30 @@ export async function seedCosting(db: Db): Promise<void> {
 		const contactId = newId();
 		const propertyId = newId();
 		const leadId = newId();
-		await tx
-			.insert(contacts)
-			.values({
-				id: contactId,
-				name: d.name,
-				email: d.email,
-				phone: d.phone,
-				phoneDigits: d.phone.replace(/\D/g, ''),
-				isCustomer: true,
-				createdAt: at
-			});
+		await tx.insert(contacts).values({
+			id: contactId,
+			name: d.name,
+			email: d.email,
+			phone: d.phone,
+			phoneDigits: d.phone.replace(/\D/g, ''),
+			isCustomer: true,
+			createdAt: at
+		});
 		await tx
 			.insert(properties)
 			.values({ id: propertyId, contactId, street: d.street, town: d.town, createdAt: at });
-		await tx
-			.insert(leads)
-			.values({
-				id: leadId,
-				contactId,
-				propertyId,
-				stage: 'estimate_sent',
-				services: ['water-feature'],
-				message: 'Columns of stone with water over them, where we can hear it from the kitchen.',
-				source: 'website',
-				createdAt: at,
-				lastTouchAt: at,
-				consentAt: at
-			});
+		await tx.insert(leads).values({
+			id: leadId,
+			contactId,
+			propertyId,
+			stage: 'estimate_sent',
+			services: ['water-feature'],
+			message: 'Columns of stone with water over them, where we can hear it from the kitchen.',
+			source: 'website',
+			createdAt: at,
+			lastTouchAt: at,
+			consentAt: at
+		});
 		const estimateId = newId();
 		await tx.insert(estimates).values({
 			id: estimateId,
@@ -192,48 +188,42 @@ export async function seedCosting(db: Db): Promise<void> {
 		const materials = await tx.select().from(jobMaterials).where(eq(jobMaterials.jobId, jobId));
 		const stone = materials.find((m) => m.category === 'stone');
 		const pebble = materials.find((m) => m.sku === 'AGG-PEBBLE-RIVER');
-		if (stone)
-			{await tx
-				.insert(materialUsage)
-				.values({
-					materialId: stone.id,
-					jobId,
-					pickedQuantity: stone.quantity,
-					returnedQuantity: 0,
-					invoiceCostCents: 61_480,
-					invoiceReference: 'QS-3318'
-				});}
-		if (pebble)
-			{await tx
-				.insert(materialUsage)
-				.values({
-					materialId: pebble.id,
-					jobId,
-					pickedQuantity: pebble.quantity + 0.3,
-					returnedQuantity: 0.5
-				});}
-		await tx
-			.insert(jobCosts)
-			.values({
-				id: newId(),
+		if (stone) {
+			await tx.insert(materialUsage).values({
+				materialId: stone.id,
 				jobId,
-				kind: 'equipment',
-				description: 'Compact loader, one day',
-				amountCents: 18_500,
-				incurredOn: days[0],
-				recordedBy: owner?.id ?? null
+				pickedQuantity: stone.quantity,
+				returnedQuantity: 0,
+				invoiceCostCents: 61_480,
+				invoiceReference: 'QS-3318'
 			});
-		await tx
-			.insert(payments)
-			.values({
-				id: newId(),
+		}
+		if (pebble) {
+			await tx.insert(materialUsage).values({
+				materialId: pebble.id,
 				jobId,
-				kind: 'deposit',
-				method: 'cheque',
-				amountCents: totals.depositCents,
-				reference: '2207',
-				receivedOn: firmDay(timeZone, -50),
-				recordedBy: owner?.id ?? null
+				pickedQuantity: pebble.quantity + 0.3,
+				returnedQuantity: 0.5
 			});
+		}
+		await tx.insert(jobCosts).values({
+			id: newId(),
+			jobId,
+			kind: 'equipment',
+			description: 'Compact loader, one day',
+			amountCents: 18_500,
+			incurredOn: days[0],
+			recordedBy: owner?.id ?? null
+		});
+		await tx.insert(payments).values({
+			id: newId(),
+			jobId,
+			kind: 'deposit',
+			method: 'cheque',
+			amountCents: totals.depositCents,
+			reference: '2207',
+			receivedOn: firmDay(timeZone, -50),
+			recordedBy: owner?.id ?? null
+		});
 	});
 }

@@ -12,6 +12,7 @@ import { seedSentEstimates } from './estimates';
 import { seedVisits } from './visits';
 import { seedCare } from './care';
 import { seedCosting } from './costing';
+import { seedSuppliers } from './purchasing';
 
 export async function databaseIsEmpty(url: string): Promise<boolean> {
 	const { db, close } = scriptDb(url);
@@ -67,6 +68,7 @@ export async function seedDemo(url: string): Promise<void> {
 		await seedSentEstimates(jobsDb.db);
 		// A finished job with the crew's hours, for the costing page.
 		await seedCosting(jobsDb.db);
+		await seedSuppliers(jobsDb.db);
 	} finally {
 		await jobsDb.close();
 	}

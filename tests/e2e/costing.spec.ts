@@ -2,6 +2,7 @@
 // (and once more with the answer lost on the way back), and the owner reads a finished job's
 // margin, adds a cost and sees the profit fall by exactly that much.
 import { expect, test, type Page } from '@playwright/test';
+import { waitForMail } from '../support/mailbox';
 import { signIn } from './pages/staff';
 
 const CREW_JOB = /Basalt columns beside the deck/;
@@ -13,6 +14,15 @@ async function noSideways(page: Page) {
 		view: window.innerWidth
 	}));
 	expect(widths.scroll, 'no sideways scrolling').toBeLessThanOrEqual(widths.view);
+}
+
+function firmDay(offset: number): string {
+	return new Intl.DateTimeFormat('en-CA', {
+		timeZone: 'America/Denver',
+		year: 'numeric',
+		month: '2-digit',
+		day: '2-digit'
+	}).format(new Date(Date.now() + offset * 86_400_000));
 }
 
 /** "$1,234.56" or "−$1,234.56" → cents. */
@@ -126,4 +136,45 @@ test('the owner sees a finished job’s margin, and a cost added takes exactly t
 	// The list carries the same new margin.
 	await page.goto('/office/costing');
 	await expect(row.locator('td').last()).toHaveText(margin);
+});
+
+test('a purchase order is sent to the supplier, its PDF arrives, and the calendar flags a late delivery', async ({
+	page
+}) => {
+	await signIn(page, 'owner');
+	await page.goto('/office/jobs');
+	await page.getByRole('link', { name: CREW_JOB }).first().click();
+	await page.getByRole('link', { name: 'Purchase orders' }).click();
+	await page.getByRole('button', { name: /^Make purchase orders/ }).click();
+	await expect(page.getByRole('status')).toHaveText('2 orders made.');
+	const quarry = page.locator('article').filter({ hasText: 'Granite Hollow Quarry' });
+	const total = (await quarry.getByTestId('po-total').textContent())!;
+	// The order's lines add up to its total.
+	const amounts = await quarry
+		.locator('tbody tr')
+		.evaluateAll((rows) => rows.slice(0, -1).map((r) => r.lastElementChild!.textContent!));
+	expect(amounts.reduce((s, a) => s + cents(a), 0)).toBe(cents(total));
+	const number = (await quarry.getByRole('heading').textContent())!.match(/PO-(\d+)/)![1];
+	// Due on the install day itself: too late for the crew, as the calendar will say.
+	await quarry.getByLabel('Needed on site by').fill(firmDay(0));
+	await quarry.getByLabel('Delivery note').fill('Gate on the east side; call on arrival');
+	await quarry.getByRole('button', { name: 'Save date and note' }).click();
+	await expect(quarry.getByRole('status')).toHaveText('Saved.');
+	await quarry.getByRole('button', { name: 'Send to Granite Hollow Quarry as a PDF' }).click();
+	await expect(quarry.getByRole('status')).toHaveText('Sent to orders@granitehollow.example.');
+	const mail = await waitForMail(
+		'orders@granitehollow.example',
+		new RegExp(`PO-${number}`),
+		30_000
+	);
+	expect(mail.attachments?.map((a) => [a.filename, a.contentType])).toEqual([
+		[`PO-${number}.pdf`, 'application/pdf']
+	]);
+	expect(mail.attachments![0].size).toBeGreaterThan(1000);
+	expect(mail.text).toContain(total);
+
+	await page.goto('/office/jobs');
+	await expect(page.getByTestId('late-materials').first()).toContainText(
+		`PO-${number} expected ${firmDay(0)}`
+	);
 });

@@ -46,6 +46,7 @@ const PAGES: Record<string, Expect> = {
 	// Job costing: hours are logged by every role allowed on the job (crew on their own jobs);
 	// the phone posts them to the API (POST only). Costing and margins are the owner's.
 	'/office/jobs/[id]/time': { anonymous: 303, owner: 404, sales: 404, crew: 404 },
+	'/office/jobs/[id]/purchasing': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	'/api/jobs/[id]/time': { anonymous: 401, owner: 405, sales: 405, crew: 405 },
 	'/office/costing': OWNER_ONLY,
 	'/office/costing/export.csv': OWNER_ONLY,
@@ -104,6 +105,12 @@ const ACTIONS: Record<string, Expect> = {
 	'/office/jobs/new': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	'/office/jobs/settings?/care': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
 	'/office/jobs/[id]/time?/add': { anonymous: 303, owner: 404, sales: 404, crew: 404 },
+	'/office/jobs/[id]/purchasing?/supplier': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/jobs/[id]/purchasing?/itemSupplier': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/jobs/[id]/purchasing?/make': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/jobs/[id]/purchasing?/update': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/jobs/[id]/purchasing?/send': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/jobs/[id]/purchasing?/receive': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
 	'/office/costing?/settings': { anonymous: 303, owner: 400, sales: 403, crew: 403 },
 	'/office/costing/[id]?/usage': { anonymous: 303, owner: 404, sales: 403, crew: 403 },
 	'/office/costing/[id]?/cost': { anonymous: 303, owner: 404, sales: 403, crew: 403 },

@@ -16,6 +16,7 @@ import {
 import { includedBuckets, jobBalance } from '../jobsite';
 import { jobCosting, type Costing } from '$lib/costing/profit';
 import { ensureJobTasks } from './tasks';
+import { receivedCosts } from '../purchasing/orders';
 
 export interface CostingSettingsRow {
 	overrunPercent: number;
@@ -94,30 +95,42 @@ function estimatedCosts(
 
 /** Every figure of one job's costing page. */
 export async function costingOf(job: Job) {
-	const [tasks, entries, materials, usage, costs, balance, config, estimate] = await Promise.all([
-		ensureJobTasks(job),
-		db
-			.select({
-				taskId: timeEntries.taskId,
-				callbackId: timeEntries.callbackId,
-				minutes: timeEntries.minutes
-			})
-			.from(timeEntries)
-			.where(eq(timeEntries.jobId, job.id)),
-		db
-			.select()
-			.from(jobMaterials)
-			.where(eq(jobMaterials.jobId, job.id))
-			.orderBy(asc(jobMaterials.sortOrder), asc(jobMaterials.createdAt)),
-		db.select().from(materialUsage).where(eq(materialUsage.jobId, job.id)),
-		db.select().from(jobCosts).where(eq(jobCosts.jobId, job.id)).orderBy(asc(jobCosts.incurredOn)),
-		jobBalance(job.id),
-		costingConfig(),
-		db
-			.select({ catalog: estimates.catalog })
-			.from(estimates)
-			.where(eq(estimates.id, job.estimateId))
-	]);
+	const [tasks, entries, materials, usage, costs, balance, config, estimate, received] =
+		await Promise.all([
+			ensureJobTasks(job),
+			db
+				.select({
+					taskId: timeEntries.taskId,
+					callbackId: timeEntries.callbackId,
+					minutes: timeEntries.minutes
+				})
+				.from(timeEntries)
+				.where(eq(timeEntries.jobId, job.id)),
+			db
+				.select()
+				.from(jobMaterials)
+				.where(eq(jobMaterials.jobId, job.id))
+				.orderBy(asc(jobMaterials.sortOrder), asc(jobMaterials.createdAt)),
+			db.select().from(materialUsage).where(eq(materialUsage.jobId, job.id)),
+			db
+				.select()
+				.from(jobCosts)
+				.where(eq(jobCosts.jobId, job.id))
+				.orderBy(asc(jobCosts.incurredOn)),
+			jobBalance(job.id),
+			costingConfig(),
+			db
+				.select({ catalog: estimates.catalog })
+				.from(estimates)
+				.where(eq(estimates.id, job.estimateId)),
+			receivedCosts(job.id)
+		]);
+	// What a received purchase order cost stands in for the invoice until one is typed.
+	const receivedOf = new Map<string, number>();
+	for (const r of received) {
+		if (r.costCents !== null)
+			{receivedOf.set(r.materialId, (receivedOf.get(r.materialId) ?? 0) + r.costCents);}
+	}
 	const estCost = estimatedCosts(job, materials);
 	const usageOf = new Map(usage.map((u) => [u.materialId, u]));
 	const work = entries.filter((e) => !e.callbackId);
@@ -145,7 +158,7 @@ export async function costingOf(job: Job) {
 				estimatedCostCents: estCost.get(m.id) ?? 0,
 				picked: u?.pickedQuantity ?? 0,
 				returned: u?.returnedQuantity ?? 0,
-				invoiceCostCents: u?.invoiceCostCents ?? null
+				invoiceCostCents: u?.invoiceCostCents ?? receivedOf.get(m.id) ?? null
 			};
 		}),
 		otherCosts: costs.map((c) => ({ kind: c.kind, amountCents: c.amountCents })),

@@ -980,3 +980,5 @@ export type Invoice = typeof invoices.$inferSelect;
 export * from './care-schema';
 // Job costing (time, materials, other costs, learned labor rates) lives in its own file.
 export * from './costing-schema';
+// Suppliers and purchase orders live in their own file.
+export * from './purchasing-schema';
