@@ -14,6 +14,7 @@ export const OFFICE_NAV: readonly NavItem[] = [
 	{ href: '/office/estimates', label: 'Estimates', roles: ['owner', 'sales'] },
 	{ href: '/office/jobs', label: 'Jobs', roles: ['owner', 'sales', 'crew'] },
 	{ href: '/office/care', label: 'Care', roles: ['owner', 'sales'] },
+	{ href: '/office/callbacks', label: 'Callbacks', roles: ['owner', 'sales', 'crew'] },
 	{ href: '/office/payments', label: 'Payments', roles: ['owner'] },
 	{ href: '/office/costing', label: 'Costing', roles: ['owner'] },
 	{ href: '/office/price-list', label: 'Price list', roles: ['owner', 'sales'] },

@@ -94,13 +94,17 @@ export function testimonialRequestMail(input: {
 	name: string;
 	jobTitle: string;
 	url: string;
+	problemUrl?: string;
 }): Built {
 	return build(
 		`How is your new water feature? A few words for ${input.firm.firmName}`,
 		[
 			`Hello ${input.name},`,
 			`Thank you for having us build "${input.jobTitle}". Now that it has had a few days to settle in, would you tell us in a few sentences how it turned out?`,
-			'With your permission we show kind words on our website, with your first name and town only. Nothing appears until we have read it.'
+			'With your permission we show kind words on our website, with your first name and town only. Nothing appears until we have read it.',
+			...(input.problemUrl
+				? [`If anything is ever not right with it, tell us here, with a photo: ${input.problemUrl}`]
+				: [])
 		],
 		input.firm,
 		{ label: 'Write a few words', url: input.url }

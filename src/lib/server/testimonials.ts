@@ -11,6 +11,7 @@ import { testimonialRequestMail } from './job-mail';
 import { careSettings } from './care';
 import { addActivity, jobRef, type Tx } from './jobsite';
 import type { SessionUser } from './auth';
+import { newCallbackLink } from './callbacks/callbacks';
 
 const LINK_DAYS = 60;
 
@@ -39,7 +40,9 @@ export async function requestTestimonial(job: Job, tx: Tx): Promise<() => Promis
 		firm,
 		name: contact.name,
 		jobTitle: job.title,
-		url: `${origin()}/testimonial/${token}`
+		url: `${origin()}/testimonial/${token}`,
+		// The homeowner's way in when something goes wrong later (warranty callbacks).
+		problemUrl: await newCallbackLink(job.id, tx)
 	});
 	const outboxId = await writeMail(
 		{ dedupeKey: `testimonial:${job.id}`, to: contact.email, ...mail, leadId: job.leadId },

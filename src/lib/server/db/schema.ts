@@ -982,3 +982,5 @@ export * from './care-schema';
 export * from './costing-schema';
 // Suppliers and purchase orders live in their own file.
 export * from './purchasing-schema';
+// Warranty callbacks live in their own file.
+export * from './callbacks-schema';
