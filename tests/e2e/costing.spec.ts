@@ -2,7 +2,8 @@
 // (and once more with the answer lost on the way back), and the owner reads a finished job's
 // margin, adds a cost and sees the profit fall by exactly that much.
 import { expect, test, type Page } from '@playwright/test';
-import { waitForMail } from '../support/mailbox';
+import { linkIn, waitForMail } from '../support/mailbox';
+import { yardJpeg } from '../fixtures/images/make';
 import { signIn } from './pages/staff';
 
 const CREW_JOB = /Basalt columns beside the deck/;
@@ -177,4 +178,61 @@ test('a purchase order is sent to the supplier, its PDF arrives, and the calenda
 	await expect(page.getByTestId('late-materials').first()).toContainText(
 		`PO-${number} expected ${firmDay(0)}`
 	);
+});
+
+test('a homeowner reports a problem with a photo through their link, and the callback appears', async ({
+	page,
+	browser
+}) => {
+	// The demo's finished job was completed before problem links went out with the completion
+	// mail: the owner mails one.
+	await signIn(page, 'owner');
+	await page.goto('/office/callbacks');
+	const option = page
+		.getByLabel('Finished job')
+		.locator('option', { hasText: 'Odile Brackenridge' });
+	await page.getByLabel('Finished job').selectOption((await option.getAttribute('value'))!);
+	await page.getByRole('button', { name: 'Send the link' }).click();
+	await expect(page.getByRole('status')).toHaveText('Sent.');
+	const mail = await waitForMail('odile.brackenridge@example.test', /Something not right/, 30_000);
+	const url = linkIn(mail, /^\/callback\//);
+
+	const phone = await browser.newContext({ viewport: { width: 390, height: 844 } });
+	const home = await phone.newPage();
+	await home.goto(url);
+	await expect(home.getByRole('heading', { level: 1 })).toContainText(
+		'Basalt columns by the kitchen garden'
+	);
+	await home.getByLabel('What is wrong?').fill('short');
+	await home.getByRole('button', { name: 'Send' }).click();
+	await expect(home.getByText('Tell us what is wrong in a sentence or two')).toBeVisible();
+	await home
+		.getByLabel('What is wrong?')
+		.fill('The tall column only trickles since last week, and the gravel looks wet around it.');
+	await home.getByLabel(/^Photos/).setInputFiles({
+		name: 'tall-column.jpg',
+		mimeType: 'image/jpeg',
+		buffer: await yardJpeg(1600, 1200)
+	});
+	await home.getByRole('button', { name: 'Send' }).click();
+	await expect(home.getByRole('status')).toContainText('It falls within your warranty.');
+	await phone.close();
+
+	await page.goto('/office/callbacks');
+	const row = page.getByTestId('callbacks').locator('li').filter({ hasText: 'Odile Brackenridge' });
+	await expect(row).toHaveCount(1);
+	await expect(row.getByTestId('warranty')).toHaveText('inside the warranty');
+	await expect(row).toContainText('Reported');
+	await row.getByRole('link').click();
+	await expect(page.getByTestId('description')).toContainText('only trickles');
+	const img = page.getByTestId('callback-photos').locator('img');
+	await expect(img).toHaveCount(1);
+	await expect
+		.poll(() => img.evaluate((el: HTMLImageElement) => el.complete && el.naturalWidth > 0))
+		.toBe(true);
+	// Rosa is sent on a day, as for a service visit.
+	await page.getByLabel('Crew lead').selectOption({ label: 'Rosa Lindqvist' });
+	await page.locator('#scheduledOn').fill(firmDay(2));
+	await page.getByRole('button', { name: 'Schedule the visit' }).click();
+	await expect(page.getByTestId('status')).toHaveText('Scheduled');
 });
