@@ -4,9 +4,9 @@ import { parseArgs } from 'node:util';
 import { createInterface } from 'node:readline';
 import { eq } from 'drizzle-orm';
 import { email as emailSchema, newPassword, roleSchema } from '../src/lib/schema/auth';
-import { hashPassword } from '../src/lib/server/passwords';
-import { newId } from '../src/lib/server/crypto';
-import { settings, users } from '../src/lib/server/db/schema';
+import { hashPassword } from '../src/lib/server/auth/passwords';
+import { newId } from '../src/lib/server/platform/crypto';
+import { settings, users } from '../src/lib/server/platform/db/schema';
 import { databaseUrl } from './lib/config';
 import { scriptDb } from './lib/db';
 

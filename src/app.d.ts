@@ -1,4 +1,4 @@
-import type { SessionUser, SessionInfo } from '$lib/server/auth';
+import type { SessionUser, SessionInfo } from '$lib/server/auth/sessions';
 
 declare global {
 	namespace App {

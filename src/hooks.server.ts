@@ -1,14 +1,14 @@
 import { building } from '$app/environment';
 import { sequence } from '@sveltejs/kit/hooks';
 import type { ServerInit } from '@sveltejs/kit';
-import { startWorkers } from '$lib/server/jobs';
+import { startWorkers } from '$lib/server/queue-workers';
 import { handleBody } from '$lib/server/hooks/body';
 import { handleGuard } from '$lib/server/hooks/guard';
 import { handleHeaders } from '$lib/server/hooks/headers';
 import { handleInput } from '$lib/server/hooks/input';
 import { handleOutage, handleServerError } from '$lib/server/hooks/outage';
 import { handleSession } from '$lib/server/hooks/session';
-import { MissingSecretError, missingSecrets } from '$lib/server/env';
+import { MissingSecretError, missingSecrets } from '$lib/server/platform/env';
 
 export const handle = sequence(
 	handleHeaders,

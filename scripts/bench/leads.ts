@@ -1,6 +1,6 @@
 /**
  * `npm run bench:leads` (not a test): GET /api/leads of the production app against a bare
- * node:http server that runs the same SQL (src/lib/server/leads-sql.ts) through postgres.js with
+ * node:http server that runs the same SQL (src/lib/server/leads/list-sql.ts) through postgres.js with
  * the same pool size, in the same run, with autocannon at 50 connections.
  *
  * Needs the services running (`npm run services`) and a database with the bulk leads
@@ -21,7 +21,7 @@ import { appEnv, databaseUrl } from '../lib/config';
 import { buildIfNeeded } from '../lib/build';
 import { DEMO_STAFF } from '../seed/demo-data';
 import { parseLeadQuery } from '../../src/lib/schema/leads';
-import { assembleList, listSql } from '../../src/lib/server/leads-sql';
+import { assembleList, listSql } from '../../src/lib/server/leads/list-sql';
 
 const url = process.env.DATABASE_URL ?? databaseUrl('dev');
 const POOL = 10;

@@ -3,7 +3,7 @@
 // JSON: the median time and the process's peak resident memory (VmHWM).
 import { readFileSync } from 'node:fs';
 import sharp from 'sharp';
-import { processPhoto } from '../../src/lib/server/images';
+import { processPhoto } from '../../src/lib/server/platform/images';
 import { medianMs } from './lib';
 
 /** The same image steps with sharp's defaults: orient into a buffer, then two sizes from it. */

@@ -12,7 +12,7 @@ import { join } from 'node:path';
 import sharp from 'sharp';
 import { PHOTO_LIMITS } from '../../src/lib/schema/intake';
 import { build } from 'esbuild';
-import { PIXEL_LIMIT } from '../../src/lib/server/images';
+import { PIXEL_LIMIT } from '../../src/lib/server/platform/images';
 import { writeResult } from './lib';
 
 const GOAL_MIB = 200;

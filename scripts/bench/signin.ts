@@ -1,11 +1,15 @@
 // `npm run bench:signin` (not a test): the hashing work of a sign-in with an unknown e-mail against
-// one with a known e-mail and a wrong password. attemptSignIn (src/lib/server/signin.ts) runs
+// one with a known e-mail and a wrong password. attemptSignIn (src/lib/server/auth/signin.ts) runs
 // verifyPassword on the member's hash for a known e-mail and verifyAgainstDummy for an unknown one;
 // both are one argon2id verification, so the ratio should be close to 1. Without the dummy
 // verification an unknown e-mail would answer after the database lookup alone, many times faster.
 // The database lookup and throttle queries are the same on both paths and are left out here.
 // BENCH_ITERATIONS (default 20) sets the number of timed runs of each.
-import { hashPassword, verifyAgainstDummy, verifyPassword } from '../../src/lib/server/passwords';
+import {
+	hashPassword,
+	verifyAgainstDummy,
+	verifyPassword
+} from '../../src/lib/server/auth/passwords';
 import { medianMs, writeResult } from './lib';
 
 const iterations = Number(process.env.BENCH_ITERATIONS ?? 20);

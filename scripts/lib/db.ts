@@ -1,6 +1,6 @@
 import { drizzle } from 'drizzle-orm/postgres-js';
 import postgres from 'postgres';
-import * as schema from '../../src/lib/server/db/schema';
+import * as schema from '../../src/lib/server/platform/db/schema';
 
 /** A short-lived Drizzle client for scripts; call `close()` when done. */
 export function scriptDb(url: string) {

@@ -1,6 +1,6 @@
 // The demo care plan and season settings for Copperleaf Water & Stone (invented figures), so the
 // Care section has something to offer. Safe to run twice.
-import { carePlans, careSeasonSettings } from '../../src/lib/server/db/schema';
+import { carePlans, careSeasonSettings } from '../../src/lib/server/platform/db/schema';
 import type { scriptDb } from '../lib/db';
 
 type Db = ReturnType<typeof scriptDb>['db'];

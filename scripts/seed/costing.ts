@@ -27,8 +27,8 @@ import {
 	settings,
 	timeEntries,
 	users
-} from '../../src/lib/server/db/schema';
-import { newId, newToken, sha256 } from '../../src/lib/server/crypto';
+} from '../../src/lib/server/platform/db/schema';
+import { newId, newToken, sha256 } from '../../src/lib/server/platform/crypto';
 import type { scriptDb } from '../lib/db';
 import { jobsDomain } from './jobs';
 
@@ -43,15 +43,17 @@ export const DEMO_COSTED_JOB = {
 	title: 'Basalt columns by the kitchen garden'
 };
 
-/** Actual hours as a share of the estimate, by the start of the task's name (invented). */
-const PACE: [prefix: string, share: number][] = [
-	['Dig and set basin', 1.35],
-	['Plumb outlets', 1.1],
-	['Set ', 0.9],
-	['Spread ', 1.25],
-	['Lay lighting cable', 1],
-	['Set lighting fixtures', 1]
-];
+/** Actual hours as a share of the estimate, by the rate the task was timed from (invented). */
+const PACE: Record<string, number> = {
+	'dig-hand': 1.35,
+	basin: 1.2,
+	fill: 1.1,
+	branch: 1.1,
+	topping: 1.25,
+	trench: 1,
+	fixture: 1
+};
+const STONES = 0.9;
 
 function firmDay(timeZone: string, offset: number): string {
 	return new Intl.DateTimeFormat('en-CA', {
@@ -166,7 +168,7 @@ export async function seedCosting(db: Db): Promise<void> {
 		const tasks = await ensureJobTasks(job, tx as never);
 		// Each task's hours split between the two of them, over the two days.
 		const entries = tasks.flatMap((t, i) => {
-			const share = PACE.find(([p]) => t.name.startsWith(p))?.[1] ?? 1;
+			const share = t.rateKey?.startsWith('stone-') ? STONES : (PACE[t.rateKey ?? ''] ?? 1);
 			const minutes = Math.max(15, Math.round((t.estimatedHours * share * 60) / 15) * 15);
 			const half = Math.round(minutes / 30) * 15 || minutes;
 			return [

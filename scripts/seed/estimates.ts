@@ -20,8 +20,8 @@ import {
 	leads,
 	properties,
 	users
-} from '../../src/lib/server/db/schema';
-import { newId, newToken, sha256 } from '../../src/lib/server/crypto';
+} from '../../src/lib/server/platform/db/schema';
+import { newId, newToken, sha256 } from '../../src/lib/server/platform/crypto';
 import type { scriptDb } from '../lib/db';
 
 type Db = ReturnType<typeof scriptDb>['db'];

@@ -1,7 +1,7 @@
 import { sql as raw } from 'drizzle-orm';
-import { hashPassword } from '../../src/lib/server/passwords';
-import { settings, users } from '../../src/lib/server/db/schema';
-import { newId } from '../../src/lib/server/crypto';
+import { hashPassword } from '../../src/lib/server/auth/passwords';
+import { settings, users } from '../../src/lib/server/platform/db/schema';
+import { newId } from '../../src/lib/server/platform/crypto';
 import { scriptDb } from '../lib/db';
 import { DEMO_FIRM, DEMO_STAFF } from './demo-data';
 import { appEnv, serviceConfig } from '../lib/config';

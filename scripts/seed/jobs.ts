@@ -23,8 +23,8 @@ import {
 	leads,
 	settings,
 	users
-} from '../../src/lib/server/db/schema';
-import { newId, newToken, sha256 } from '../../src/lib/server/crypto';
+} from '../../src/lib/server/platform/db/schema';
+import { newId, newToken, sha256 } from '../../src/lib/server/platform/crypto';
 import type { scriptDb } from '../lib/db';
 
 type Db = ReturnType<typeof scriptDb>['db'];
@@ -66,7 +66,11 @@ export async function jobsDomain() {
 	}
 	// The app's database module opens its pool lazily; every query below runs in our transaction.
 	process.env.DATABASE_URL ??= 'postgres://unused@127.0.0.1:9/unused';
-	return import('../../src/lib/server/jobsite');
+	const [conversion, labels] = await Promise.all([
+		import('../../src/lib/server/jobs/conversion'),
+		import('../../src/lib/server/jobs/labels')
+	]);
+	return { ...conversion, ...labels };
 }
 
 export async function seedJobs(db: Db): Promise<void> {

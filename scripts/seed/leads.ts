@@ -13,8 +13,8 @@ import {
 	properties,
 	users,
 	type LeadStage
-} from '../../src/lib/server/db/schema';
-import { newId } from '../../src/lib/server/crypto';
+} from '../../src/lib/server/platform/db/schema';
+import { newId } from '../../src/lib/server/platform/crypto';
 import { scriptDb } from '../lib/db';
 
 interface DemoLead {

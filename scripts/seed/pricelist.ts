@@ -7,7 +7,7 @@ import {
 	laborRates,
 	priceListItems,
 	pumpModels
-} from '../../src/lib/server/db/schema';
+} from '../../src/lib/server/platform/db/schema';
 import type { scriptDb } from '../lib/db';
 
 export const DEMO_TERMS = [

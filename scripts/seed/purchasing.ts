@@ -7,8 +7,8 @@ import {
 	priceListItems,
 	pumpModels,
 	suppliers
-} from '../../src/lib/server/db/schema';
-import { newId } from '../../src/lib/server/crypto';
+} from '../../src/lib/server/platform/db/schema';
+import { newId } from '../../src/lib/server/platform/crypto';
 import type { scriptDb } from '../lib/db';
 
 type Db = ReturnType<typeof scriptDb>['db'];

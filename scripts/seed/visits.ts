@@ -17,8 +17,8 @@ import {
 	siteVisits,
 	timeOff,
 	users
-} from '../../src/lib/server/db/schema';
-import { newId, newToken, sha256 } from '../../src/lib/server/crypto';
+} from '../../src/lib/server/platform/db/schema';
+import { newId, newToken, sha256 } from '../../src/lib/server/platform/crypto';
 import type { scriptDb } from '../lib/db';
 
 type Db = ReturnType<typeof scriptDb>['db'];

@@ -49,7 +49,9 @@ test('the crew lead logs a day’s hours at 390 px with the network cut and rest
 	// In the backyard, no signal.
 	await context.setOffline(true);
 	await expect(page.getByTestId('connection')).toHaveText(/No connection/);
-	await page.getByLabel('Task', { exact: true }).selectOption({ label: 'Dig and set basin' });
+	await page
+		.getByLabel('Task', { exact: true })
+		.selectOption({ label: 'Set the basin, pump and vault' });
 	await page.getByLabel('Hours', { exact: true }).fill('4.5');
 	await page.getByRole('button', { name: 'Save the hours' }).click();
 	await page.getByLabel('Task', { exact: true }).selectOption({ label: 'A task not on the list…' });

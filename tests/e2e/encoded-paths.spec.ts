@@ -4,8 +4,8 @@
 // are refused wherever the plain path refuses them.
 import { resolve } from 'node:path';
 import { expect, test } from '@playwright/test';
-import { routeFiles } from '../../src/lib/server/route-files';
-import { rolesFor } from '../../src/lib/server/access';
+import { routeFiles } from '../../src/lib/server/http/route-files';
+import { rolesFor } from '../../src/lib/server/auth/access';
 import { apiAs } from './pages/staff';
 import { rawRequest } from '../support/raw-http';
 

@@ -7,7 +7,7 @@ import postgres from 'postgres';
 import sharp from 'sharp';
 import { randomBytes } from 'node:crypto';
 import { formatCents } from '../../src/lib/components/estimates/money';
-import { putObject, randomKey } from '../../src/lib/server/storage';
+import { putObject, randomKey } from '../../src/lib/server/platform/storage';
 import { linkIn, waitForMail } from '../support/mailbox';
 import { demoUser, signIn } from './pages/staff';
 

@@ -6,7 +6,7 @@ import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import postgres from 'postgres';
 import { expect, test } from '@playwright/test';
-import { routeFiles } from '../../src/lib/server/route-files';
+import { routeFiles } from '../../src/lib/server/http/route-files';
 import { leadQuerySchema } from '../../src/lib/schema/leads';
 import { slotsQuerySchema } from '../../src/lib/schema/visits';
 import { apiAs } from './pages/staff';

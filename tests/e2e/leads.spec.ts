@@ -4,7 +4,7 @@ import { randomBytes } from 'node:crypto';
 import postgres from 'postgres';
 import sharp from 'sharp';
 import { expect, test } from '@playwright/test';
-import { putObject, randomKey } from '../../src/lib/server/storage';
+import { putObject, randomKey } from '../../src/lib/server/platform/storage';
 import { signIn } from './pages/staff';
 
 const run = randomBytes(4).toString('hex');

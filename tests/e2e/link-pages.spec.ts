@@ -4,7 +4,7 @@ import { randomBytes } from 'node:crypto';
 import { resolve } from 'node:path';
 import postgres from 'postgres';
 import { expect, test, type APIResponse } from '@playwright/test';
-import { routeFiles } from '../../src/lib/server/route-files';
+import { routeFiles } from '../../src/lib/server/http/route-files';
 import { seedAcceptedJob } from './pages/accepted-job';
 
 const GROUP = resolve('src/routes/(homeowner)');

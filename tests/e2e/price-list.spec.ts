@@ -43,7 +43,7 @@ test('owner round-trips the pumps and labor lists through the import page', asyn
 	await page.getByLabel('Which list is the file?').selectOption('labor');
 	await page.getByLabel('…or paste it').fill(laborCsv);
 	await page.getByRole('button', { name: 'Preview' }).click();
-	await expect(preview).toContainText('Dig and set the basin');
+	await expect(preview).toContainText('Set a basin or reservoir');
 	await page.getByRole('button', { name: /^Import \d+ labor rows$/ }).click();
 	await expect(page.getByRole('status')).toContainText('labor rows');
 	expect(await (await page.request.get('/office/price-list/export?list=labor')).text()).toBe(
@@ -56,7 +56,9 @@ test('sales reads and exports the price list but has no import', async ({ page }
 	await page.goto('/office/price-list');
 	await expect(page.getByRole('link', { name: 'Export pumps CSV' })).toBeVisible();
 	await expect(page.getByRole('link', { name: 'Import CSV' })).toHaveCount(0);
-	const basin = page.getByTestId('task-hours').getByRole('row', { name: /Dig and set the basin/ });
+	const basin = page
+		.getByTestId('task-hours')
+		.getByRole('row', { name: /Set a basin or reservoir/ });
 	await expect(basin).toContainText(/\d/);
 	const labor = await page.request.get('/office/price-list/export?list=labor');
 	expect(labor.status()).toBe(200);

@@ -2,7 +2,7 @@
 // listed here fails the first test, so none can ship without its expected statuses.
 import { resolve } from 'node:path';
 import { expect, test, type APIRequestContext } from '@playwright/test';
-import { routeFiles } from '../../src/lib/server/route-files';
+import { routeFiles } from '../../src/lib/server/http/route-files';
 import { apiAs, type DemoRole } from './pages/staff';
 
 type Who = 'anonymous' | DemoRole;

@@ -1,11 +1,16 @@
 import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { eq } from 'drizzle-orm';
-import { db } from '$lib/server/db';
-import { sessions, users } from '$lib/server/db/schema';
-import { cookieForToken, createSession, endSession, validateSessionToken } from '$lib/server/auth';
-import { attemptSignIn } from '$lib/server/signin';
-import { changeRole, setDisabled } from '$lib/server/team';
-import { sha256 } from '$lib/server/crypto';
+import { db } from '$lib/server/platform/db';
+import { sessions, users } from '$lib/server/platform/db/schema';
+import {
+	cookieForToken,
+	createSession,
+	endSession,
+	validateSessionToken
+} from '$lib/server/auth/sessions';
+import { attemptSignIn } from '$lib/server/auth/signin';
+import { changeRole, setDisabled } from '$lib/server/auth/team';
+import { sha256 } from '$lib/server/platform/crypto';
 import { resetDatabase } from '../support/database';
 import { makeUser, PASSWORD, seedFirm } from './fixtures';
 
@@ -184,7 +189,7 @@ describe('the session cookie', () => {
 		delete process.env.PUBLIC_ORIGIN;
 		vi.resetModules();
 		try {
-			const fresh = await import('$lib/server/auth');
+			const fresh = await import('$lib/server/auth/sessions');
 			expect(fresh.cookieForToken('token-value').attributes).toMatchObject({
 				secure: true,
 				httpOnly: true,

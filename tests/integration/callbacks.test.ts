@@ -1,9 +1,12 @@
 import { beforeEach, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
-import { db } from '$lib/server/db';
-import { callbackPhotos, callbacks, jobs, outbox, photos } from '$lib/server/db/schema';
-import type { SessionUser } from '$lib/server/auth';
-import { convertAcceptedEstimate, JobError, scheduleJob, setStage } from '$lib/server/jobsite';
+import { db } from '$lib/server/platform/db';
+import { callbackPhotos, callbacks, jobs, outbox, photos } from '$lib/server/platform/db/schema';
+import type { SessionUser } from '$lib/server/auth/sessions';
+import { convertAcceptedEstimate } from '$lib/server/jobs/conversion';
+import { JobError } from '$lib/server/jobs/errors';
+import { scheduleJob } from '$lib/server/jobs/schedule';
+import { setStage } from '$lib/server/jobs/stage';
 import {
 	callbackFor,
 	callbackPage,
@@ -13,7 +16,7 @@ import {
 	scheduleCallback
 } from '$lib/server/callbacks/callbacks';
 import { costingOf, DEFAULT_COSTING_SETTINGS, saveCostingConfig } from '$lib/server/costing/report';
-import { newToken } from '$lib/server/crypto';
+import { newToken } from '$lib/server/platform/crypto';
 import { resetDatabase } from '../support/database';
 import { yardJpeg } from '../fixtures/images/make';
 import { makeEstimate, makeUser, seedFirm } from './fixtures';

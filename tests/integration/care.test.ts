@@ -4,16 +4,17 @@
 import { afterAll, beforeEach, describe, expect, it } from 'vitest';
 import { and, asc, eq, like, sql } from 'drizzle-orm';
 import sharp from 'sharp';
-import { db } from '$lib/server/db';
+import { db } from '$lib/server/platform/db';
 import {
 	jobs,
 	outbox,
 	priceListItems,
 	propertyFeatures,
 	serviceVisits
-} from '$lib/server/db/schema';
-import { sendCareReminder } from '$lib/server/care';
-import { convertAcceptedEstimate, setStage } from '$lib/server/jobsite';
+} from '$lib/server/platform/db/schema';
+import { sendCareReminder } from '$lib/server/care/reminders';
+import { convertAcceptedEstimate } from '$lib/server/jobs/conversion';
+import { setStage } from '$lib/server/jobs/stage';
 import { planSchema } from '$lib/schema/care';
 import { addFeature, setPin } from '$lib/server/care/features';
 import { saveSeasonSettings, savePlan } from '$lib/server/care/plans';
@@ -33,8 +34,8 @@ import {
 	visitInvoice
 } from '$lib/server/care/service';
 import { SEASON_DEFAULTS } from '$lib/care/seasons';
-import type { SessionUser } from '$lib/server/auth';
-import { stopQueue } from '$lib/server/queue';
+import type { SessionUser } from '$lib/server/auth/sessions';
+import { stopQueue } from '$lib/server/platform/queue';
 import { resetDatabase } from '../support/database';
 import { makeEstimate, makeLead, makeUser, seedFirm } from './fixtures';
 

@@ -2,16 +2,17 @@
 // new contact that the office sees as a possible duplicate and may merge, keeping every record.
 import { beforeEach, describe, expect, it } from 'vitest';
 import { eq, inArray } from 'drizzle-orm';
-import { db } from '$lib/server/db';
-import { activities, contacts, leads, outbox, settings } from '$lib/server/db/schema';
-import { formStamp, receiveInquiry } from '$lib/server/intake';
+import { db } from '$lib/server/platform/db';
+import { activities, contacts, leads, outbox, settings } from '$lib/server/platform/db/schema';
+import { formStamp } from '$lib/server/leads/intake/stamp';
+import { receiveInquiry } from '$lib/server/leads/intake/form';
 import {
 	mergeContacts,
 	MergeError,
 	possibleDuplicates,
 	samePerson
-} from '$lib/server/contact-merge';
-import { sendLeadMail } from '$lib/server/lead-mail';
+} from '$lib/server/leads/contact-merge';
+import { sendLeadMail } from '$lib/server/leads/mail';
 import {
 	load as leadPageLoad,
 	actions as leadPageActions

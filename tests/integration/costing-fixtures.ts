@@ -1,9 +1,15 @@
 // A job built row by row with figures chosen to be worked by hand (see costing.test.ts): an
 // estimate whose catalog holds one labor rate and whose engine result holds three labor tasks,
 // and a job whose frozen acceptance holds three priced material lines and the tax.
-import { db } from '$lib/server/db';
-import { estimates, jobMaterials, jobs, users, type FrozenEstimate } from '$lib/server/db/schema';
-import { newId } from '$lib/server/crypto';
+import { db } from '$lib/server/platform/db';
+import {
+	estimates,
+	jobMaterials,
+	jobs,
+	users,
+	type FrozenEstimate
+} from '$lib/server/platform/db/schema';
+import { newId } from '$lib/server/platform/crypto';
 import { eq } from 'drizzle-orm';
 import { makeVisitLead } from './fixtures';
 
@@ -11,7 +17,7 @@ export interface HandJobOptions {
 	contractCents?: number;
 	taxCents?: number;
 	costPerHourCents?: number;
-	tasks?: { task: string; hours: number; bucket?: string }[];
+	tasks?: { task: string; hours: number; key?: string; bucket?: string }[];
 	lines?: {
 		sku: string;
 		name: string;
@@ -25,11 +31,11 @@ export interface HandJobOptions {
 }
 
 export const HAND_TASKS = [
-	{ task: 'Dig and set basin', hours: 6 },
-	{ task: 'Plumb outlets', hours: 4.5 },
-	{ task: 'Set Low basalt column (cart)', hours: 3 },
+	{ task: 'Dig and set basin', hours: 6, key: 'basin' },
+	{ task: 'Plumb outlets', hours: 4.5, key: 'branch' },
+	{ task: 'Set Low basalt column (cart)', hours: 3, key: 'stone-cart' },
 	// Bought as an option the homeowner left out: never a labor line of the job.
-	{ task: 'Build Low retaining wall', hours: 5, bucket: 'low-wall' }
+	{ task: 'Build Low retaining wall', hours: 5, key: 'wall-face', bucket: 'low-wall' }
 ];
 
 export const HAND_LINES = [

@@ -1,9 +1,9 @@
 import { beforeEach, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
-import { db } from '$lib/server/db';
-import { jobTasks, payments, timeEntries } from '$lib/server/db/schema';
-import { newId } from '$lib/server/crypto';
-import type { SessionUser } from '$lib/server/auth';
+import { db } from '$lib/server/platform/db';
+import { jobTasks, payments, timeEntries } from '$lib/server/platform/db/schema';
+import { newId } from '$lib/server/platform/crypto';
+import type { SessionUser } from '$lib/server/auth/sessions';
 import { recordTimeEntries } from '$lib/server/costing/time';
 import {
 	costingOf,
@@ -12,14 +12,14 @@ import {
 	completedJobs
 } from '$lib/server/costing/report';
 import { addJobCost, saveUsage } from '$lib/server/costing/materials';
-import { jobFor } from '$lib/server/jobsite';
+import { jobFor } from '$lib/server/jobs/read';
 import { resetDatabase } from '../support/database';
 import { makeUser, seedFirm } from './fixtures';
 import { approveChangeOrder } from './payments-fixtures';
 import { makeHandJob } from './costing-fixtures';
 import { confirmRate, learnedRates, RateChangeError } from '$lib/server/costing/learning';
-import { estimatingConfig } from '$lib/server/pricelist';
-import { laborRateChanges } from '$lib/server/db/schema';
+import { estimatingConfig } from '$lib/server/pricelist/catalog';
+import { laborRateChanges } from '$lib/server/platform/db/schema';
 import { POST as timeApi } from '../../src/routes/api/jobs/[id]/time/+server';
 import { GET as marginsCsv } from '../../src/routes/office/costing/export.csv/+server';
 
@@ -281,20 +281,20 @@ describe('estimates that learn', () => {
 	}
 
 	it('gives each rate the ratio of actual to estimated hours over the last finished jobs, and records the confirmed change', async () => {
-		// The hand-worked set (engine defaults: a basin 6 h, an outlet 1.5 h):
+		// The hand-worked set (the engine's default rates: a basin 4 h, a branch 1.5 h):
 		//   job A (newest): basin est 6, logged 450 min = 7.5 h; outlets est 4.5, logged 4.5 h
 		//                   (and 120 callback minutes on the basin, not counted)
 		//   job B:          basin est 6, logged 6.5 h; outlets est 3, logged 3.75 h
 		//   job C (oldest): basin est 6, logged 8 h; outlets est 3, nothing logged (not counted)
 		//   job D underway: basin est 6, logged 20 h (not finished: not counted)
-		//   over 10 jobs: basin (7.5 + 6.5 + 8) / 18 = 22 / 18 = 1.2222 over 3 jobs → 6 × 1.2222 = 7.33 h
-		//                 outlets (4.5 + 3.75) / 7.5 = 1.1 over 2 jobs → 1.5 × 1.1 = 1.65 h
-		//   over the last 2: basin (7.5 + 6.5) / 12 = 1.1667 over 2 jobs → 7 h
+		//   over 10 jobs: basin (7.5 + 6.5 + 8) / 18 = 22 / 18 = 1.2222 over 3 jobs → 4 × 1.2222 = 4.89 h
+		//                 branches (4.5 + 3.75) / 7.5 = 1.1 over 2 jobs → 1.5 × 1.1 = 1.65 h
+		//   over the last 2: basin (7.5 + 6.5) / 12 = 1.1667 over 2 jobs → 4.67 h
 		const a = await finished(
 			'2027-06-20T20:00:00Z',
 			[
-				{ task: 'Dig and set basin', hours: 6 },
-				{ task: 'Plumb outlets', hours: 4.5 }
+				{ task: 'Dig and set basin', hours: 6, key: 'basin' },
+				{ task: 'Plumb outlets', hours: 4.5, key: 'branch' }
 			],
 			{ 'Dig and set basin': [240, 210], 'Plumb outlets': [270] }
 		);
@@ -311,61 +311,63 @@ describe('estimates that learn', () => {
 		await finished(
 			'2027-06-10T20:00:00Z',
 			[
-				{ task: 'Dig and set basin', hours: 6 },
-				{ task: 'Plumb outlets', hours: 3 }
+				{ task: 'Dig and set basin', hours: 6, key: 'basin' },
+				{ task: 'Plumb outlets', hours: 3, key: 'branch' }
 			],
 			{ 'Dig and set basin': [390], 'Plumb outlets': [225] }
 		);
 		await finished(
 			'2027-05-30T20:00:00Z',
 			[
-				{ task: 'Dig and set basin', hours: 6 },
-				{ task: 'Plumb outlets', hours: 3 }
+				{ task: 'Dig and set basin', hours: 6, key: 'basin' },
+				{ task: 'Plumb outlets', hours: 3, key: 'branch' }
 			],
 			{ 'Dig and set basin': [480] }
 		);
-		await finished(null, [{ task: 'Dig and set basin', hours: 6 }], {
+		await finished(null, [{ task: 'Dig and set basin', hours: 6, key: 'basin' }], {
 			'Dig and set basin': [600, 600]
 		});
 
 		const all = await learnedRates();
-		const basin = all.find((r) => r.rateKey === 'basinHours')!;
-		expect(basin.current).toBe(6);
+		const basin = all.find((r) => r.rateKey === 'basin')!;
+		expect(basin.current).toBe(4);
 		expect(basin.ratio).toBeCloseTo(22 / 18, 10);
 		expect(basin.jobs).toBe(3);
-		expect(basin.proposed).toBe(7.33);
-		expect(all.find((r) => r.rateKey === 'outletHours')).toMatchObject({ jobs: 2, proposed: 1.65 });
-		expect(all.find((r) => r.rateKey === 'outletHours')!.ratio).toBeCloseTo(1.1, 10);
-		expect(all.find((r) => r.rateKey === 'fallHours')).toMatchObject({
+		expect(basin.proposed).toBe(4.89);
+		expect(all.find((r) => r.rateKey === 'branch')).toMatchObject({ jobs: 2, proposed: 1.65 });
+		expect(all.find((r) => r.rateKey === 'branch')!.ratio).toBeCloseTo(1.1, 10);
+		expect(all.find((r) => r.rateKey === 'fall')).toMatchObject({
 			ratio: null,
 			jobs: 0,
 			proposed: null
 		});
 
 		await saveCostingConfig({ ...DEFAULT_COSTING_SETTINGS, learnFromJobs: 2 });
-		const lastTwo = (await learnedRates()).find((r) => r.rateKey === 'basinHours')!;
-		expect(lastTwo).toMatchObject({ jobs: 2, proposed: 7 });
+		const lastTwo = (await learnedRates()).find((r) => r.rateKey === 'basin')!;
+		expect(lastTwo).toMatchObject({ jobs: 2, proposed: 4.67 });
 		expect(lastTwo.ratio).toBeCloseTo(14 / 12, 10);
 
 		// A stale proposal is refused; the one on the page is taken and recorded.
-		await expect(confirmRate(owner, 'basinHours', 7.33)).rejects.toThrow(RateChangeError);
-		expect(await confirmRate(owner, 'basinHours', 7)).toEqual({ from: 6, to: 7 });
+		await expect(confirmRate(owner, 'basin', 4.89)).rejects.toThrow(RateChangeError);
+		expect(await confirmRate(owner, 'basin', 4.67)).toEqual({ from: 4, to: 4.67 });
 		const config = await estimatingConfig();
-		expect((config.engine.labor as Record<string, unknown>).basinHours).toBe(7);
+		const labor = config.engine.labor as { rates: Record<string, number> };
+		expect(labor.rates.basin).toBe(4.67);
 		const changes = await db.select().from(laborRateChanges);
 		expect(changes).toHaveLength(1);
 		expect(changes[0]).toMatchObject({
-			rateKey: 'basinHours',
-			fromHours: 6,
-			toHours: 7,
+			rateKey: 'basin',
+			fromHours: 4,
+			toHours: 4.67,
 			jobsCount: 2,
 			confirmedBy: owner.id
 		});
 		expect(changes[0].ratio).toBeCloseTo(14 / 12, 10);
 		// The finished jobs still say the same ratio, now of the new setting.
-		expect((await learnedRates()).find((r) => r.rateKey === 'basinHours')).toMatchObject({
-			current: 7,
-			proposed: 8.17
+		// 4.67 × 1.1667 = 5.448 → 5.45
+		expect((await learnedRates()).find((r) => r.rateKey === 'basin')).toMatchObject({
+			current: 4.67,
+			proposed: 5.45
 		});
 	});
 });

@@ -1,7 +1,7 @@
 // Fixtures for the estimate tests: a priced catalog and a lead made by direct inserts.
-import { db } from '$lib/server/db';
-import { contacts, leads } from '$lib/server/db/schema';
-import { newId } from '$lib/server/crypto';
+import { db } from '$lib/server/platform/db';
+import { contacts, leads } from '$lib/server/platform/db/schema';
+import { newId } from '$lib/server/platform/crypto';
 import { scriptDb } from '../../scripts/lib/db';
 import { seedPriceList } from '../../scripts/seed/pricelist';
 

@@ -2,10 +2,11 @@
 // with an empty list it is still made and the lead's timeline says what is missing.
 import { eq, sql } from 'drizzle-orm';
 import { beforeEach, describe, expect, it } from 'vitest';
-import { db } from '$lib/server/db';
+import { db } from '$lib/server/platform/db';
 import { fountainIn } from '$lib/estimating/testing';
-import { activities, priceListItems } from '$lib/server/db/schema';
-import { createEstimate, getEstimate } from '$lib/server/estimates';
+import { activities, priceListItems } from '$lib/server/platform/db/schema';
+import { createEstimate } from '$lib/server/estimates/versions';
+import { getEstimate } from '$lib/server/estimates/records';
 import { resetDatabase } from '../support/database';
 import { makeUser, seedFirm } from './fixtures';
 import { makeLead, seedCatalog } from './estimates-fixtures';

@@ -2,7 +2,7 @@ import { eq } from 'drizzle-orm';
 import { fountainIn } from '$lib/estimating/testing';
 import { isHttpError } from '@sveltejs/kit';
 import { beforeEach, describe, expect, it } from 'vitest';
-import { db } from '$lib/server/db';
+import { db } from '$lib/server/platform/db';
 import {
 	activities,
 	estimateAcceptances,
@@ -12,23 +12,16 @@ import {
 	photos,
 	priceListItems,
 	siteVisits
-} from '$lib/server/db/schema';
+} from '$lib/server/platform/db/schema';
 import { formatCents } from '$lib/components/estimates/money';
-import {
-	acceptEstimate,
-	createEstimate,
-	getEstimate,
-	homeownerMessage,
-	newVersion,
-	openByToken,
-	saveEstimate,
-	sendEstimate,
-	type StoredResult
-} from '$lib/server/estimates';
-import { exportCsv, importCsv, loadCatalog } from '$lib/server/pricelist';
-import { previewCsv } from '$lib/server/pricelist-csv';
+import { acceptEstimate, homeownerMessage, openByToken } from '$lib/server/estimates/homeowner';
+import { createEstimate, newVersion, saveEstimate } from '$lib/server/estimates/versions';
+import { getEstimate, type StoredResult } from '$lib/server/estimates/records';
+import { sendEstimate } from '$lib/server/estimates/sending';
+import { exportCsv, importCsv, loadCatalog } from '$lib/server/pricelist/catalog';
+import { previewCsv } from '$lib/server/pricelist/csv';
 import { estimate as runEngine, type ParsedDesign } from '$lib/estimating';
-import type { YardPhoto } from '$lib/server/estimate-photos';
+import type { YardPhoto } from '$lib/server/photos/estimate-photos';
 import { load as homeownerLoad } from '../../src/routes/(homeowner)/estimate/[token]/+page.server';
 import { resetDatabase } from '../support/database';
 import { makeUser, seedFirm } from './fixtures';

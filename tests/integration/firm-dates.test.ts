@@ -3,14 +3,14 @@
 // toISOString().
 import { afterAll, afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { eq } from 'drizzle-orm';
-import { db } from '$lib/server/db';
-import { jobs, payments, settings } from '$lib/server/db/schema';
-import { firmToday } from '$lib/server/settings';
+import { db } from '$lib/server/platform/db';
+import { jobs, payments, settings } from '$lib/server/platform/db/schema';
+import { firmToday } from '$lib/server/platform/settings';
 import { DEPOSIT_TERMS_DAYS, insertPayment, lockJob } from '$lib/server/payments/ledger';
 import { ensureInvoice } from '$lib/server/payments/invoices';
 import { openBalances } from '$lib/server/payments/balances';
 import { addDays } from '$lib/scheduling/zone';
-import { stopQueue } from '$lib/server/queue';
+import { stopQueue } from '$lib/server/platform/queue';
 import { resetDatabase } from '../support/database';
 import { makeUser, seedFirm } from './fixtures';
 import { makePaymentJob } from './payments-fixtures';

@@ -1,7 +1,7 @@
-import { db } from '$lib/server/db';
-import { settings } from '$lib/server/db/schema';
-import { createUser } from '$lib/server/team';
-import type { Role } from '$lib/server/db/schema';
+import { db } from '$lib/server/platform/db';
+import { settings } from '$lib/server/platform/db/schema';
+import { createUser } from '$lib/server/auth/team';
+import type { Role } from '$lib/server/platform/db/schema';
 
 export const PASSWORD = 'correct horse battery';
 
@@ -20,8 +20,8 @@ export async function makeUser(role: Role, email = `${role}@test.example`, name 
 }
 
 // --- leads (issue 5) ---------------------------------------------------------------------------
-import * as leadSchema from '$lib/server/db/schema';
-import { newId as newLeadId } from '$lib/server/crypto';
+import * as leadSchema from '$lib/server/platform/db/schema';
+import { newId as newLeadId } from '$lib/server/platform/crypto';
 
 export interface LeadFixture {
 	name?: string;
@@ -97,9 +97,9 @@ export async function makeLead(f: LeadFixture = {}) {
 export async function makeEstimate(
 	options: { accepted?: boolean; email?: string; name?: string } = {}
 ) {
-	const { db } = await import('$lib/server/db');
-	const schema = await import('$lib/server/db/schema');
-	const { newId } = await import('$lib/server/crypto');
+	const { db } = await import('$lib/server/platform/db');
+	const schema = await import('$lib/server/platform/db/schema');
+	const { newId } = await import('$lib/server/platform/crypto');
 	const { estimate } = await import('$lib/estimating');
 	const { demoCatalog, demoDesign } = await import('$lib/estimating/demo');
 	const design = demoDesign();
@@ -179,8 +179,8 @@ export async function makeEstimate(
 
 // ---------------------------------------------------------------------------------------------
 // Site visits (issue 6): leads made with direct inserts, so these tests need no intake code.
-import { availability, contacts, leads, properties } from '$lib/server/db/schema';
-import { newId } from '$lib/server/crypto';
+import { availability, contacts, leads, properties } from '$lib/server/platform/db/schema';
+import { newId } from '$lib/server/platform/crypto';
 
 let leadSerial = 0;
 

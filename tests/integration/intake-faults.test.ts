@@ -9,17 +9,14 @@ import { count, eq, sql } from 'drizzle-orm';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { startMail, startS3, type StandIn } from '../../scripts/lib/standins';
 import { startCluster, stopCluster } from '../../scripts/lib/postgres';
-import { db } from '$lib/server/db';
-import { leads, outbox, photos, settings, contacts } from '$lib/server/db/schema';
-import {
-	DATABASE_DOWN,
-	STORAGE_DOWN,
-	formStamp,
-	receiveInquiry,
-	uploadDraft
-} from '$lib/server/intake';
-import { deliverOutboxMessage } from '$lib/server/outbox';
-import { createUser } from '$lib/server/team';
+import { db } from '$lib/server/platform/db';
+import { leads, outbox, photos, settings, contacts } from '$lib/server/platform/db/schema';
+import { DATABASE_DOWN, STORAGE_DOWN } from '$lib/server/leads/intake/errors';
+import { formStamp } from '$lib/server/leads/intake/stamp';
+import { receiveInquiry } from '$lib/server/leads/intake/form';
+import { uploadDraft } from '$lib/server/leads/intake/drafts';
+import { deliverOutboxMessage } from '$lib/server/platform/outbox';
+import { createUser } from '$lib/server/auth/team';
 import { resetDatabase } from '../support/database';
 import { yardJpeg } from '../fixtures/images/make';
 

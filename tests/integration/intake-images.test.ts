@@ -1,7 +1,7 @@
 // The photo pipeline on its own: types from bytes, limits, orientation, metadata.
 import sharp from 'sharp';
 import { describe, expect, it, vi } from 'vitest';
-import { PIXEL_LIMIT, PhotoError, processPhoto, sniff } from '$lib/server/images';
+import { PIXEL_LIMIT, PhotoError, processPhoto, sniff } from '$lib/server/platform/images';
 import { cleanFileName } from '$lib/schema/intake';
 import {
 	heic,

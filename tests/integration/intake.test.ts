@@ -4,7 +4,7 @@ import { ListObjectsV2Command, S3Client } from '@aws-sdk/client-s3';
 import { count, eq } from 'drizzle-orm';
 import sharp from 'sharp';
 import { beforeEach, describe, expect, it } from 'vitest';
-import { db } from '$lib/server/db';
+import { db } from '$lib/server/platform/db';
 import {
 	activities,
 	contacts,
@@ -13,19 +13,13 @@ import {
 	photos,
 	properties,
 	settings
-} from '$lib/server/db/schema';
-import { createUser } from '$lib/server/team';
-import {
-	formStamp,
-	receiveInquiry,
-	sweepDrafts,
-	uploadDraft,
-	deleteDraft,
-	thanksPath,
-	verifyThanks
-} from '$lib/server/intake';
-import { deliverOutboxMessage } from '$lib/server/outbox';
-import { getObject } from '$lib/server/storage';
+} from '$lib/server/platform/db/schema';
+import { createUser } from '$lib/server/auth/team';
+import { formStamp, thanksPath, verifyThanks } from '$lib/server/leads/intake/stamp';
+import { receiveInquiry } from '$lib/server/leads/intake/form';
+import { sweepDrafts, uploadDraft, deleteDraft } from '$lib/server/leads/intake/drafts';
+import { deliverOutboxMessage } from '$lib/server/platform/outbox';
+import { getObject } from '$lib/server/platform/storage';
 import { resetDatabase } from '../support/database';
 import { clearMail, waitForMail } from '../support/mailbox';
 import {

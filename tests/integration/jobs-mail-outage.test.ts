@@ -3,13 +3,17 @@
 // and go out (once) when mail is back.
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { eq, sql } from 'drizzle-orm';
-import { db } from '$lib/server/db';
-import { changeOrders, outbox } from '$lib/server/db/schema';
-import { convertAcceptedEstimate } from '$lib/server/jobsite';
-import { createChangeOrder, decideChangeOrder, sendChangeOrder } from '$lib/server/change-orders';
-import { sendCareReminder } from '$lib/server/care';
-import { deliverOutboxMessage } from '$lib/server/outbox';
-import { stopQueue } from '$lib/server/queue';
+import { db } from '$lib/server/platform/db';
+import { changeOrders, outbox } from '$lib/server/platform/db/schema';
+import { convertAcceptedEstimate } from '$lib/server/jobs/conversion';
+import {
+	createChangeOrder,
+	decideChangeOrder,
+	sendChangeOrder
+} from '$lib/server/jobs/change-orders';
+import { sendCareReminder } from '$lib/server/care/reminders';
+import { deliverOutboxMessage } from '$lib/server/platform/outbox';
+import { stopQueue } from '$lib/server/platform/queue';
 import { resetDatabase } from '../support/database';
 import { smtpRelay } from '../support/smtp-relay';
 import { allMail, clearMail, waitForMail } from '../support/mailbox';

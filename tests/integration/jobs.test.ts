@@ -1,6 +1,6 @@
 import { beforeEach, describe, expect, it } from 'vitest';
 import { and, eq } from 'drizzle-orm';
-import { db } from '$lib/server/db';
+import { db } from '$lib/server/platform/db';
 import {
 	activities,
 	changeOrders,
@@ -10,24 +10,22 @@ import {
 	leads,
 	outbox,
 	testimonials
-} from '$lib/server/db/schema';
+} from '$lib/server/platform/db/schema';
+import { addPunchItem, setPunchDone } from '$lib/server/jobs/checklists';
+import { convertAcceptedEstimate, recordSaleByHand } from '$lib/server/jobs/conversion';
+import { crewConflicts, crewJobView, jobFor } from '$lib/server/jobs/read';
+import { jobBalance } from '$lib/server/payments/balance';
+import { JobError } from '$lib/server/jobs/errors';
+import { scheduleJob } from '$lib/server/jobs/schedule';
+import { setStage } from '$lib/server/jobs/stage';
 import {
-	addPunchItem,
-	convertAcceptedEstimate,
-	crewConflicts,
-	crewJobView,
-	jobBalance,
-	jobFor,
-	JobError,
-	recordSaleByHand,
-	scheduleJob,
-	setPunchDone,
-	setStage
-} from '$lib/server/jobsite';
-import { createChangeOrder, decideChangeOrder, sendChangeOrder } from '$lib/server/change-orders';
-import { nextCareDate, sendCareReminder, unsubscribeCare } from '$lib/server/care';
-import { deliverOutboxMessage } from '$lib/server/outbox';
-import type { SessionUser } from '$lib/server/auth';
+	createChangeOrder,
+	decideChangeOrder,
+	sendChangeOrder
+} from '$lib/server/jobs/change-orders';
+import { nextCareDate, sendCareReminder, unsubscribeCare } from '$lib/server/care/reminders';
+import { deliverOutboxMessage } from '$lib/server/platform/outbox';
+import type { SessionUser } from '$lib/server/auth/sessions';
 import { resetDatabase } from '../support/database';
 import { allMail, clearMail, linkIn, waitForMail } from '../support/mailbox';
 import { demoDesign } from '$lib/estimating/demo';

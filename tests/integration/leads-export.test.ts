@@ -3,10 +3,10 @@
 import { beforeEach, describe, expect, it } from 'vitest';
 import postgres from 'postgres';
 import { csvLine } from '$lib/csv';
-import { db } from '$lib/server/db';
-import { contacts, leads, properties } from '$lib/server/db/schema';
-import { newId } from '$lib/server/crypto';
-import { EXPORT_BATCH_ROWS, leadsCsvStream } from '$lib/server/leads-export';
+import { db } from '$lib/server/platform/db';
+import { contacts, leads, properties } from '$lib/server/platform/db/schema';
+import { newId } from '$lib/server/platform/crypto';
+import { EXPORT_BATCH_ROWS, leadsCsvStream } from '$lib/server/leads/export';
 import {
 	BUDGET_LABELS,
 	SERVICE_LABELS,
@@ -15,7 +15,7 @@ import {
 	parseLeadQuery
 } from '$lib/schema/leads';
 import { formatWhen } from '$lib/components/leads/format';
-import type { SessionUser } from '$lib/server/auth';
+import type { SessionUser } from '$lib/server/auth/sessions';
 import { GET as csvGet } from '../../src/routes/office/leads/export.csv/+server';
 import { resetDatabase } from '../support/database';
 import { makeUser, seedFirm } from './fixtures';

@@ -1,10 +1,10 @@
 // The lead page's photos: only short-lived signed links to the private bucket, which expire.
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { db } from '$lib/server/db';
-import { photos } from '$lib/server/db/schema';
-import { newId } from '$lib/server/crypto';
-import { bucket, putObject, randomKey, signedUrl } from '$lib/server/storage';
-import { env } from '$lib/server/env';
+import { db } from '$lib/server/platform/db';
+import { photos } from '$lib/server/platform/db/schema';
+import { newId } from '$lib/server/platform/crypto';
+import { bucket, putObject, randomKey, signedUrl } from '$lib/server/platform/storage';
+import { env } from '$lib/server/platform/env';
 import { load } from '../../src/routes/office/leads/[id]/+page.server';
 import { resetDatabase } from '../support/database';
 import { makeLead, makeUser, seedFirm } from './fixtures';

@@ -1,8 +1,8 @@
 // The leads API, list query, edits and Today, against the real database and stand-ins.
 import { beforeEach, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
-import { client, db } from '$lib/server/db';
-import { activities, leads, outbox } from '$lib/server/db/schema';
+import { client, db } from '$lib/server/platform/db';
+import { activities, leads, outbox } from '$lib/server/platform/db/schema';
 import { parseLeadQuery } from '$lib/schema/leads';
 import {
 	assignLead,
@@ -12,10 +12,10 @@ import {
 	listSql,
 	logActivity,
 	todaySummary
-} from '$lib/server/leads';
-import { sendLeadMail } from '$lib/server/lead-mail';
-import { deliverOutboxMessage } from '$lib/server/outbox';
-import type { SessionUser } from '$lib/server/auth';
+} from '$lib/server/leads/leads';
+import { sendLeadMail } from '$lib/server/leads/mail';
+import { deliverOutboxMessage } from '$lib/server/platform/outbox';
+import type { SessionUser } from '$lib/server/auth/sessions';
 import { GET as apiGet } from '../../src/routes/api/leads/+server';
 import { GET as csvGet } from '../../src/routes/office/leads/export.csv/+server';
 import { resetDatabase } from '../support/database';

@@ -1,7 +1,7 @@
 import { beforeEach, describe, expect, it } from 'vitest';
-import { db } from '$lib/server/db';
-import { outbox } from '$lib/server/db/schema';
-import { deliverOutboxMessage, writeMail } from '$lib/server/outbox';
+import { db } from '$lib/server/platform/db';
+import { outbox } from '$lib/server/platform/db/schema';
+import { deliverOutboxMessage, writeMail } from '$lib/server/platform/outbox';
 import { resetDatabase } from '../support/database';
 import { allMail, clearMail, waitForMail } from '../support/mailbox';
 

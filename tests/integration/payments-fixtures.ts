@@ -1,8 +1,8 @@
 // Jobs for the payments tests, made with direct inserts (an accepted estimate with a link and
 // its job), so these tests need neither the estimate builder nor the conversion code.
-import { db } from '$lib/server/db';
-import { changeOrders, estimates, jobs, type FrozenEstimate } from '$lib/server/db/schema';
-import { newId, newToken, sha256 } from '$lib/server/crypto';
+import { db } from '$lib/server/platform/db';
+import { changeOrders, estimates, jobs, type FrozenEstimate } from '$lib/server/platform/db/schema';
+import { newId, newToken, sha256 } from '$lib/server/platform/crypto';
 import { makeVisitLead } from './fixtures';
 
 export async function makePaymentJob(

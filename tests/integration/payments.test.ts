@@ -5,7 +5,7 @@ import { createServer, type Server } from 'node:http';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import Stripe from 'stripe';
-import { db } from '$lib/server/db';
+import { db } from '$lib/server/platform/db';
 import {
 	checkoutRequests,
 	invoices,
@@ -13,7 +13,7 @@ import {
 	outbox,
 	paymentEvents,
 	payments
-} from '$lib/server/db/schema';
+} from '$lib/server/platform/db/schema';
 import { handleWebhook } from '$lib/server/payments/webhook';
 import { confirmReturn, startCheckout } from '$lib/server/payments/checkout';
 import {
@@ -24,9 +24,9 @@ import {
 } from '$lib/server/payments/ledger';
 import { ensureInvoice } from '$lib/server/payments/invoices';
 import { openBalances } from '$lib/server/payments/balances';
-import { jobBalance } from '$lib/server/jobsite';
-import { deliverOutboxMessage } from '$lib/server/outbox';
-import { stopQueue } from '$lib/server/queue';
+import { jobBalance } from '$lib/server/payments/balance';
+import { deliverOutboxMessage } from '$lib/server/platform/outbox';
+import { stopQueue } from '$lib/server/platform/queue';
 import { resetDatabase } from '../support/database';
 import { clearMail, waitForMail } from '../support/mailbox';
 import { makeUser, seedFirm } from './fixtures';

@@ -2,9 +2,9 @@
 // typed, and changing an item through the form keeps the engine details it cannot show.
 import { eq } from 'drizzle-orm';
 import { beforeEach, describe, expect, it } from 'vitest';
-import { db } from '$lib/server/db';
-import { priceListItems } from '$lib/server/db/schema';
-import { loadCatalog } from '$lib/server/pricelist';
+import { db } from '$lib/server/platform/db';
+import { priceListItems } from '$lib/server/platform/db/schema';
+import { loadCatalog } from '$lib/server/pricelist/catalog';
 import { actions } from '../../src/routes/office/price-list/+page.server';
 import { resetDatabase } from '../support/database';
 import { makeUser, seedFirm } from './fixtures';

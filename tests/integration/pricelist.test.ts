@@ -3,17 +3,18 @@
 // imports back unchanged, and only the owner can import (sales may export).
 import { eq } from 'drizzle-orm';
 import { beforeEach, describe, expect, it } from 'vitest';
-import { db } from '$lib/server/db';
+import { db } from '$lib/server/platform/db';
 import {
 	estimatingSettings,
 	laborRates,
 	priceListItems,
 	pumpModels,
 	siteVisits
-} from '$lib/server/db/schema';
+} from '$lib/server/platform/db/schema';
 import { estimate as runEngine, demoDesign } from '$lib/estimating';
-import { exportPriceList, importPriceList, loadCatalog } from '$lib/server/pricelist';
-import { createEstimate, getEstimate } from '$lib/server/estimates';
+import { exportPriceList, importPriceList, loadCatalog } from '$lib/server/pricelist/catalog';
+import { createEstimate } from '$lib/server/estimates/versions';
+import { getEstimate } from '$lib/server/estimates/records';
 import { actions } from '../../src/routes/office/price-list/import/+page.server';
 import { GET as exportRoute } from '../../src/routes/office/price-list/export/+server';
 import { resetDatabase } from '../support/database';
@@ -102,10 +103,11 @@ describe('labor rates and task hours', () => {
 			LABOR,
 			'rate,installer,Installer,,,40.00,90.00,no',
 			'rate,mason,Stone mason,,,48.00,120.00,yes',
-			'task,basin,Dig and set the basin,basin,9.5,,,',
+			'task,basin,Set a basin,basin,9.5,,,',
 			'task,stone-team-lift,Team lift,stone,1,,,'
 		].join('\n');
-		expect(laborHoursFor(await loadCatalog(), /^Dig and set basin/)).toBe(6);
+		// The rate list's default: 4 person-hours to set a basin (common practice, no source).
+		expect(laborHoursFor(await loadCatalog(), /^Set the basin/)).toBe(4);
 		const result = await importPriceList(csv);
 		expect(result.written).toBe(4);
 		const rates = await db.select().from(laborRates).orderBy(laborRates.id);
@@ -118,10 +120,10 @@ describe('labor rates and task hours', () => {
 		expect(catalog.settings).toMatchObject({
 			markupPercent: engine.markupPercent,
 			taxRatePercent: engine.taxRatePercent,
-			labor: { rateId: 'mason', basinHours: 9.5, stoneHours: { 'team-lift': 1 } }
+			labor: { rateId: 'mason', rates: { basin: 9.5, 'stone-team-lift': 1 } }
 		});
 		// The estimate a salesperson builds now uses the new hours and the mason's rate.
-		expect(laborHoursFor(catalog, /^Dig and set basin/)).toBe(9.5);
+		expect(laborHoursFor(catalog, /^Set the basin/)).toBe(9.5);
 		const priced = runEngine(demoDesign(), catalog);
 		if (!priced.ok) throw new Error('the demo design should price');
 		const { laborCents, laborHours } = priced.pricing.base;
@@ -133,7 +135,7 @@ describe('labor rates and task hours', () => {
 		const csv = [
 			LABOR,
 			'rate,mason,Stone mason,,,48.00,120.00,yes',
-			'task,basin,Dig and set the basin,basin,-2,,,'
+			'task,basin,Set a basin,basin,-2,,,'
 		].join('\n');
 		const result = await importPriceList(csv, 'labor');
 		expect(result.written).toBe(0);
@@ -161,7 +163,7 @@ describe('export and import again', () => {
 		}
 		// The labor round trip writes the engine's task hours out in full; the engine reads the same.
 		const catalog = await loadCatalog();
-		expect(laborHoursFor(catalog, /^Dig and set basin/)).toBe(6);
+		expect(laborHoursFor(catalog, /^Set the basin/)).toBe(4);
 	});
 });
 
@@ -200,7 +202,7 @@ describe('who may import', () => {
 });
 
 describe('imported task hours and the visit notes', () => {
-	it('start the estimate with the firm’s hours for rocky soil, a steep slope and a narrow gate', async () => {
+	it('start the estimate with the firm’s rates for rocky soil, a steep slope and a narrow gate', async () => {
 		const csv = [LABOR, 'task,basin,Dig,basin,10,,,', 'task,stone-cart,Cart,stone,1.5,,,'].join(
 			'\n'
 		);
@@ -233,24 +235,26 @@ describe('imported task hours and the visit notes', () => {
 		} as typeof siteVisits.$inferInsert);
 		const row = (await getEstimate((await createEstimate(lead.id, sales))!))!;
 		const design = row.design as {
+			site: { soil: string };
 			walls: { optionId?: string; exposedHeightIn: number }[];
 			extraLabor: { task: string; hours: number }[];
 		};
+		expect(design.site.soil).toBe('rocky');
 		expect(design.walls[0]).toMatchObject({ exposedHeightIn: 30 });
 		expect(design.walls[0].optionId).toBeUndefined();
 		expect(design.extraLabor.map((t) => [t.task.split(':')[0], t.hours])).toEqual([
+			// Half the firm's 10 h basin.
 			['Cut and level the pad on a steep slope', 5],
-			['Extra digging in rocky soil', 5],
-			// Half of 55 ft of cable trench at 0.02 h/ft, to the quarter hour.
-			['Extra digging in rocky soil', 0.5],
-			['Move Low basalt column in by hand', 1.5],
-			['Move Middle basalt column in by hand', 1.5],
-			['Move Tall basalt column in by hand', 2]
+			// The stones' set crew-hours once more: the firm's 1.5 h a stone by cart, the default 1 h
+			// by hoist, each for the 4 people the stone needs (the four accent boulders ride a cart).
+			['Move Low basalt column in by hand', 6],
+			['Move Middle basalt column in by hand', 6],
+			['Move Tall basalt column in by hand', 4],
+			['Move Granite accent boulders in by hand', 24]
 		]);
 		expect(row.scope).toBe('Side gate only\nSite: steep slope, rocky soil, access 22 in wide');
 		const stored = row.result as { engine: { labor: { tasks: { task: string }[] } } };
-		expect(stored.engine.labor.tasks.map((t) => t.task)).toContain(
-			'Extra digging in rocky soil: basin'
-		);
+		// Rocky ground digs at 2.5 times the loam rate (common practice, no source).
+		expect(stored.engine.labor.tasks.map((t) => t.task)).toContain('Dig the basin (by hand)');
 	});
 });

@@ -1,7 +1,7 @@
 import { beforeEach, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { PDFDocument } from 'pdf-lib';
-import { db } from '$lib/server/db';
+import { db } from '$lib/server/platform/db';
 import {
 	jobDays,
 	jobMaterials,
@@ -9,11 +9,11 @@ import {
 	priceListItems,
 	pumpModels,
 	purchaseOrders
-} from '$lib/server/db/schema';
-import { newId } from '$lib/server/crypto';
-import type { SessionUser } from '$lib/server/auth';
-import { JobError } from '$lib/server/jobsite';
-import { deliverOutboxMessage } from '$lib/server/outbox';
+} from '$lib/server/platform/db/schema';
+import { newId } from '$lib/server/platform/crypto';
+import type { SessionUser } from '$lib/server/auth/sessions';
+import { JobError } from '$lib/server/jobs/errors';
+import { deliverOutboxMessage } from '$lib/server/platform/outbox';
 import {
 	addSupplier,
 	lateMaterials,

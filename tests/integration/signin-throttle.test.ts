@@ -2,14 +2,14 @@
 // slowed, nobody is locked out. A browser that signed in before keeps signing in during an attack;
 // others wait a delay that doubles per failure and never passes a minute; a reset clears it.
 import { beforeEach, describe, expect, it } from 'vitest';
-import { db } from '$lib/server/db';
-import { signInThrottles } from '$lib/server/db/schema';
-import { attemptSignIn } from '$lib/server/signin';
-import { deviceCookieValue } from '$lib/server/device';
-import { accountKey, delayAfter, THROTTLE, waitFor } from '$lib/server/throttle';
-import { completePasswordReset } from '$lib/server/team';
-import { newId, newToken, sha256 } from '$lib/server/crypto';
-import { passwordResets } from '$lib/server/db/schema';
+import { db } from '$lib/server/platform/db';
+import { signInThrottles } from '$lib/server/platform/db/schema';
+import { attemptSignIn } from '$lib/server/auth/signin';
+import { deviceCookieValue } from '$lib/server/auth/device';
+import { accountKey, delayAfter, THROTTLE, waitFor } from '$lib/server/auth/throttle';
+import { completePasswordReset } from '$lib/server/auth/team';
+import { newId, newToken, sha256 } from '$lib/server/platform/crypto';
+import { passwordResets } from '$lib/server/platform/db/schema';
 import { resetDatabase } from '../support/database';
 import { makeUser, PASSWORD, seedFirm } from './fixtures';
 

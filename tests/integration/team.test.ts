@@ -1,9 +1,9 @@
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { eq, sql } from 'drizzle-orm';
-import { db } from '$lib/server/db';
-import { invitations, passwordResets, users } from '$lib/server/db/schema';
-import { createSession, validateSessionToken } from '$lib/server/auth';
-import { attemptSignIn } from '$lib/server/signin';
+import { db } from '$lib/server/platform/db';
+import { invitations, passwordResets, users } from '$lib/server/platform/db/schema';
+import { createSession, validateSessionToken } from '$lib/server/auth/sessions';
+import { attemptSignIn } from '$lib/server/auth/signin';
 import {
 	acceptInvitation,
 	changeRole,
@@ -13,9 +13,9 @@ import {
 	requestPasswordReset,
 	setDisabled,
 	TeamError
-} from '$lib/server/team';
-import { startWorkers, stopQueue } from '$lib/server/jobs';
-import { outbox } from '$lib/server/db/schema';
+} from '$lib/server/auth/team';
+import { startWorkers, stopQueue } from '$lib/server/queue-workers';
+import { outbox } from '$lib/server/platform/db/schema';
 import { actions as forgotActions } from '../../src/routes/(auth)/forgot/+page.server';
 import { resetDatabase } from '../support/database';
 import { allMail, clearMail, linkIn, waitForMail } from '../support/mailbox';

@@ -4,20 +4,16 @@
 import ICAL from 'ical.js';
 import { eq, sql } from 'drizzle-orm';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { db } from '$lib/server/db';
-import { activities, leads, outbox, siteVisits, timeOff } from '$lib/server/db/schema';
-import { deliverOutboxMessage } from '$lib/server/outbox';
-import { stopQueue } from '$lib/server/queue';
+import { db } from '$lib/server/platform/db';
+import { activities, leads, outbox, siteVisits, timeOff } from '$lib/server/platform/db/schema';
+import { deliverOutboxMessage } from '$lib/server/platform/outbox';
+import { stopQueue } from '$lib/server/platform/queue';
 import { zonedInstant } from '$lib/scheduling/zone';
-import {
-	VisitError,
-	bookVisit,
-	cancelVisit,
-	rescheduleVisit,
-	sendVisitReminder,
-	saveNotes,
-	visitByToken
-} from '$lib/server/visits';
+import { VisitError } from '$lib/server/visits/errors';
+import { bookVisit, cancelVisit, rescheduleVisit } from '$lib/server/visits/booking';
+import { sendVisitReminder } from '$lib/server/visits/reminders';
+import { saveNotes } from '$lib/server/visits/notes';
+import { visitByToken } from '$lib/server/visits/homeowner';
 import { actions as visitPageActions } from '../../src/routes/office/visits/[id]/+page.server';
 import { actions as leadVisitActions } from '../../src/routes/office/leads/[id]/visit/+page.server';
 import {

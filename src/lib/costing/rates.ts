@@ -1,83 +1,41 @@
-// Which task-hours setting an estimate's labor task was priced from, told from the task's name as
-// the engine writes it (src/lib/estimating/labor.ts and features.ts), and the learned ratio of
-// actual to estimated hours for each setting over finished jobs. Pure: runs anywhere.
-import { HANDLING_METHODS } from '$lib/estimating/stones';
+// Which of the firm's labor rates an estimate's labor task was timed from (the engine writes the
+// rate's key on every task it times; hours typed into a design carry 'extra'), and the learned
+// ratio of actual to estimated hours for each rate over finished jobs. Pure: runs anywhere.
+import { LABOR_RATE_KEYS, LABOR_RATES, type LaborRateKey } from '$lib/estimating/labor-rates';
 
-export const RATE_KEYS = [
-	'basinHours',
-	'outletHours',
-	...HANDLING_METHODS.map((m) => `stoneHours.${m}` as const),
-	'fixtureHours',
-	'cableHoursPerFt',
-	'toppingHoursPerFt2',
-	'wallHoursPerUnit',
-	'pondHoursPerFt2',
-	'streamHoursPerFt',
-	'fallHours',
-	'reservoirHours'
-] as const;
-export type RateKey = (typeof RATE_KEYS)[number];
+export const RATE_KEYS = LABOR_RATE_KEYS;
+export type RateKey = LaborRateKey;
 
-export const RATE_LABELS: Record<RateKey, { label: string; per: string }> = {
-	basinHours: { label: 'Dig and set a basin', per: 'basin' },
-	outletHours: { label: 'Plumb an outlet', per: 'outlet' },
-	'stoneHours.one-person': { label: 'Set a stone one person can lift', per: 'stone' },
-	'stoneHours.team-lift': { label: 'Set a stone by a team lift', per: 'stone' },
-	'stoneHours.cart': { label: 'Set a stone with a cart', per: 'stone' },
-	'stoneHours.hoist': { label: 'Set a stone with a hoist', per: 'stone' },
-	'stoneHours.compact-loader': { label: 'Set a stone with a compact loader', per: 'stone' },
-	'stoneHours.larger-machine': { label: 'Set a stone with a larger machine', per: 'stone' },
-	fixtureHours: { label: 'Set a lighting fixture', per: 'fixture' },
-	cableHoursPerFt: { label: 'Lay lighting cable', per: 'ft' },
-	toppingHoursPerFt2: { label: 'Spread topping or gravel', per: 'ft2' },
-	wallHoursPerUnit: { label: 'Lay a wall unit', per: 'wall unit' },
-	pondHoursPerFt2: { label: 'Dig, shape and line a pond', per: 'ft2' },
-	streamHoursPerFt: { label: 'Dig and line a stream', per: 'ft' },
-	fallHours: { label: 'Build a fall', per: 'fall' },
-	reservoirHours: { label: 'Dig and set a reservoir', per: 'reservoir' }
-};
-
-const STONE = new RegExp(`^Set .+ \\((${HANDLING_METHODS.join('|')})\\)$`);
+export const RATE_LABELS = Object.fromEntries(
+	LABOR_RATES.map((r) => [
+		r.key,
+		{ label: r.label, per: r.unit === 'yd3' ? 'yd³' : r.unit === 'ft2' ? 'ft²' : r.unit }
+	])
+) as Record<RateKey, { label: string; per: string }>;
 
 /**
- * The setting a task's hours were computed from, or null for hours typed by hand (extra labor,
- * site conditions), which no single setting explains. Order matters: "Build the falls: …" before
- * "Build …" (a wall), "Spread stream gravel: …" is topping hours as any spread is.
+ * The rate a stored task was timed from, or null for hours typed by hand ('extra') and for tasks
+ * of estimates made before tasks carried their rate.
  */
-export function rateKeyOf(task: string): RateKey | null {
-	if (task === 'Dig and set basin') return 'basinHours';
-	if (task === 'Plumb outlets') return 'outletHours';
-	if (task === 'Set lighting fixtures') return 'fixtureHours';
-	if (task === 'Lay lighting cable') return 'cableHoursPerFt';
-	// Half a basin's hours, by the engine's own rule.
-	if (task.startsWith('Set skimmer, filter and pump: ')) return 'basinHours';
-	if (task.startsWith('Dig, shape and line ')) return 'pondHoursPerFt2';
-	if (task.startsWith('Dig and set reservoir: ')) return 'reservoirHours';
-	if (task.startsWith('Dig and line ')) return 'streamHoursPerFt';
-	if (task.startsWith('Build the falls: ')) return 'fallHours';
-	const stone = STONE.exec(task);
-	if (stone) return `stoneHours.${stone[1]}` as RateKey;
-	if (task.startsWith('Spread ')) return 'toppingHoursPerFt2';
-	if (task.startsWith('Build ')) return 'wallHoursPerUnit';
-	return null;
+export function rateKeyOf(task: { key?: unknown }): RateKey | null {
+	return typeof task.key === 'string' && (RATE_KEYS as readonly string[]).includes(task.key)
+		? (task.key as RateKey)
+		: null;
 }
 
-/** A setting's current value from the engine's labor settings object. */
+/** A rate's current value from the engine's labor settings object (settings.labor). */
 export function rateValue(labor: Record<string, unknown>, key: RateKey): number | null {
-	const [head, tail] = key.split('.');
-	const v = tail ? (labor[head] as Record<string, unknown> | undefined)?.[tail] : labor[head];
+	const v = (labor.rates as Record<string, unknown> | undefined)?.[key];
 	return typeof v === 'number' && Number.isFinite(v) ? v : null;
 }
 
-/** The labor settings with one setting replaced (a copy; the input is not changed). */
+/** The labor settings with one rate replaced (a copy; the input is not changed). */
 export function withRate(
 	labor: Record<string, unknown>,
 	key: RateKey,
-	hours: number
+	value: number
 ): Record<string, unknown> {
-	const [head, tail] = key.split('.');
-	if (!tail) return { ...labor, [head]: hours };
-	return { ...labor, [head]: { ...(labor[head] as Record<string, unknown>), [tail]: hours } };
+	return { ...labor, rates: { ...(labor.rates as Record<string, unknown>), [key]: value } };
 }
 
 /** One finished job's hours on the tasks priced from one setting. */

@@ -12,5 +12,6 @@ export const CATEGORIES = [
 	'wall',
 	'lighting',
 	'electrical',
+	'equipment',
 	'other'
 ] as const;

@@ -11,6 +11,8 @@ export interface CautionFacts {
 	hasPump: boolean;
 	hasLighting: boolean;
 	stonesNeedingHelp: string[];
+	/** A loader or excavator works on site. */
+	machines?: boolean;
 	wallsNeedingPermit: string[];
 	wallsNeedingEngineering: string[];
 	openWaterDepthM: number;
@@ -43,6 +45,15 @@ const ELECTRICIAN: Caution = {
 	reason:
 		'New circuits, receptacles and the supply to the pump or transformer are line-voltage work; the low-voltage side beyond a listed transformer is the installer’s.',
 	reference: 'NEC (NFPA 70) and the state or local electrical licensing rules.'
+};
+
+const MACHINES: Caution = {
+	id: 'machines',
+	title: 'Machines on site',
+	reason:
+		'A loader or excavator works here: only a trained operator runs it, everyone else stays out of its swing and travel path, the ground it crosses and the edges of the hole are checked first, and a suspended stone is never stood under.',
+	reference:
+		'The machine maker’s operating manual; OSHA 29 CFR 1926 Subpart P for excavations (in the US); local rules.'
 };
 
 const LOCAL_CODES: Caution = {
@@ -95,6 +106,7 @@ export function cautionsFor(facts: CautionFacts): Caution[] {
 	if (facts.digs) list.push(LOCATE);
 	if (facts.hasPump || facts.hasLighting) list.push(GROUND_FAULT, ELECTRICIAN);
 	if (facts.stonesNeedingHelp.length) list.push(heavyLifting(facts.stonesNeedingHelp));
+	if (facts.machines) list.push(MACHINES);
 	if (facts.wallsNeedingPermit.length || facts.wallsNeedingEngineering.length) {
 		list.push(wallHeight(facts.wallsNeedingPermit, facts.wallsNeedingEngineering));
 	}

@@ -119,6 +119,7 @@ export function demoDesign(): Design {
 				capLengthIn: 16,
 				padSku: 'AGG-BASE-ROAD',
 				drainSku: 'AGG-DRAIN-CLEAN',
+				drainPipeSku: 'PIPE-DRAIN-4',
 				optionId: 'low-wall'
 			}
 		],
@@ -311,7 +312,36 @@ export function demoCatalog(): Catalog {
 				bulkDensityLbFt3: 100
 			}),
 			item('STONE-BANK-BOULDER', 'Bank boulder, 12–18 in', 'stone', 'each', 4500, 9500),
-			item('STONE-EDGE-FLAG', 'Flagstone pond edging', 'stone', 'ft2', 650, 1400)
+			item('STONE-EDGE-FLAG', 'Flagstone pond edging', 'stone', 'ft2', 650, 1400),
+			// Retaining-wall drainage, machines, deliveries and spoil (invented prices).
+			item('PIPE-DRAIN-4', '4 in perforated drain pipe with sock', 'wall', 'ft', 90, 220),
+			item('EQUIP-LOADER-DAY', 'Compact track loader, a day', 'equipment', 'day', 28000, 42000),
+			item('EQUIP-EXCAVATOR-DAY', 'Mini excavator, a day', 'equipment', 'day', 38000, 57000),
+			item('EQUIP-DELIVERY', 'Machine delivery and pick-up', 'equipment', 'each', 15000, 22500, {
+				taxable: false
+			}),
+			item(
+				'DELIVERY-LOAD',
+				'Delivery of stone or aggregate, a load',
+				'equipment',
+				'load',
+				9500,
+				14000,
+				{
+					taxable: false
+				}
+			),
+			item(
+				'SPOIL-HAUL-YD3',
+				'Haul away and dump spoil, loose yd³',
+				'equipment',
+				'yd3',
+				3500,
+				5500,
+				{
+					taxable: false
+				}
+			)
 		],
 		pumps: [
 			{

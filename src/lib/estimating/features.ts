@@ -6,7 +6,8 @@
  */
 import { basinBudget, type BasinBudget } from './basin';
 import type { HydraulicsResult } from './hydraulics';
-import { BASE_BUCKET, type LaborTask } from './labor';
+import { BASE_BUCKET, rateTask, type Dig, type LaborTask } from './labor';
+import type { LaborRateKey } from './labor-rates';
 import { analysePond, pondGallons, pondPlan, turnoverGph, type PondResult } from './pond';
 import type { Measure } from './pricing';
 import type {
@@ -288,64 +289,91 @@ export function featureLines(
 	});
 }
 
-const ft2 = (m2: number) => fromSI(m2, 'area', 'ft2');
+const yd3 = (m3: number) => fromSI(m3, 'volume', 'yd3');
 
-/** Each feature's labor in its own bucket, from the firm's task hours. */
+/** What each feature digs, in bank volume, in its own bucket (the digging tasks come from these). */
+export function featureDigs(design: ParsedDesign, results: readonly FeatureResult[]): Dig[] {
+	const digs: Dig[] = [];
+	const several = design.features.length > 1;
+	design.features.forEach((f, i) => {
+		const bucket = bucketOf(f.optionId);
+		const r = results[i];
+		if (f.kind === 'fountain' && r?.basin) {
+			digs.push({
+				bucket,
+				what: several ? `the basin: ${f.name}` : 'the basin',
+				volumeM3: r.basin.grossVolumeM3
+			});
+		} else if (f.kind === 'pond' && r?.pond) {
+			// The water and the gravel laid on the liner.
+			digs.push({ bucket, what: f.name, volumeM3: r.pond.volumeM3 + r.pond.gravelVolumeM3 });
+		} else if (f.kind === 'stream' && r?.stream) {
+			// The running water in the bed and the gravel under it.
+			digs.push({
+				bucket,
+				what: `the bed: ${f.name}`,
+				volumeM3: r.stream.bedDrainBackM3 + r.stream.gravelVolumeM3
+			});
+			if (f.reservoir && r.stream.reservoir) {
+				digs.push({
+					bucket,
+					what: `the reservoir: ${f.name}`,
+					volumeM3: r.stream.reservoir.grossVolumeM3
+				});
+			}
+		}
+	});
+	return digs;
+}
+
+/**
+ * Each feature's labor in its own bucket, from the firm's rates (the digging is timed with the
+ * rest of the design's digs, since a machine on site digs them all).
+ */
 export function featureTasks(
 	design: ParsedDesign,
 	results: readonly FeatureResult[],
 	catalog: ParsedCatalog
 ): LaborTask[] {
-	const hours = catalog.settings.labor;
+	const settings = catalog.settings;
+	const people = settings.labor.baseCrewSize;
 	const tasks: LaborTask[] = [];
+	const several = design.features.length > 1;
 	design.features.forEach((f, i) => {
 		const bucket = bucketOf(f.optionId);
 		const r = results[i];
+		const of = (text: string) => (several ? `${text}: ${f.name}` : text);
+		const task = (key: LaborRateKey, name: string, quantity: number) =>
+			tasks.push(rateTask(settings, key, { bucket, task: name, quantity, people }));
 		if (f.kind === 'fountain') {
-			if (f.basin) tasks.push({ bucket, task: 'Dig and set basin', hours: hours.basinHours });
-			if (f.outlets.length) {
-				tasks.push({
-					bucket,
-					task: 'Plumb outlets',
-					hours: f.outlets.length * hours.outletHours
-				});
+			if (f.basin) {
+				task('basin', of('Set the basin, pump and vault'), 1);
+				if (f.basin.fill.kind === 'gravel' && r?.basin) {
+					task('fill', of('Fill the basin with gravel'), yd3(r.basin.grossVolumeM3));
+				}
 			}
+			task('branch', of('Plumb the branches'), f.branches.length);
 		} else if (f.kind === 'pond') {
-			const area = pondPlan(f.outline).areaFt2;
-			tasks.push({
-				bucket,
-				task: `Dig, shape and line ${f.name}`,
-				hours: area * hours.pondHoursPerFt2
-			});
-			tasks.push({
-				bucket,
-				task: `Set skimmer, filter and pump: ${f.name}`,
-				hours: hours.basinHours / 2
-			});
-		} else if (r.stream) {
-			tasks.push({
-				bucket,
-				task: `Dig and line ${f.name}`,
-				hours: fromSI(r.stream.lengthM, 'length', 'ft') * hours.streamHoursPerFt
-			});
-			tasks.push({
-				bucket,
-				task: `Build the falls: ${f.name}`,
-				hours: r.stream.fallCount * hours.fallHours
-			});
-			if (f.reservoir) {
-				tasks.push({
-					bucket,
-					task: `Dig and set reservoir: ${f.name}`,
-					hours: hours.reservoirHours
-				});
+			task('pond-line', `Shape shelves and line ${f.name}`, pondPlan(f.outline).areaFt2);
+			task('pond-equipment', `Set skimmer, filter and pump: ${f.name}`, 1);
+			if (r?.pond && r.pond.gravelVolumeM3 > 0) {
+				task('topping', `Spread gravel on the liner: ${f.name}`, yd3(r.pond.gravelVolumeM3));
 			}
-			if (r.stream.bedAreaM2 > 0) {
-				tasks.push({
-					bucket,
-					task: `Spread stream gravel: ${f.name}`,
-					hours: ft2(r.stream.bedAreaM2) * hours.toppingHoursPerFt2
-				});
+		} else if (r?.stream) {
+			task('stream', `Shape, line and rock ${f.name}`, fromSI(r.stream.lengthM, 'length', 'ft'));
+			task('fall', `Build the falls: ${f.name}`, r.stream.fallCount);
+			if (f.reservoir && r.stream.reservoir) {
+				task('basin', `Set the reservoir and pump vault: ${f.name}`, 1);
+				if (f.reservoir.kind === 'gravel') {
+					task(
+						'fill',
+						`Fill the reservoir with gravel: ${f.name}`,
+						yd3(r.stream.reservoir.grossVolumeM3)
+					);
+				}
+			}
+			if (r.stream.gravelVolumeM3 > 0) {
+				task('topping', `Spread stream gravel: ${f.name}`, yd3(r.stream.gravelVolumeM3));
 			}
 		}
 	});

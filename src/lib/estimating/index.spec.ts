@@ -112,7 +112,9 @@ describe('the demo estimate', () => {
 				'stone submersible tall tap the three through topping transformer underlayment unit ' +
 				'uplight va valve voltage wall washed ' +
 				'epdm mil pond ponds skimmer rated gph biological filter to gal waterfall weir box flexible ' +
-				'reservoir vault stream mixed bank flagstone edging by square foot'
+				'reservoir vault stream mixed bank flagstone edging by square foot ' +
+				'perforated sock compact track loader mini excavator day machine delivery of or load ' +
+				'pick up haul away dump spoil yd loose drain with aggregate'
 			).split(' ')
 		);
 		const names: string[] = [];

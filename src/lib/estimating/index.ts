@@ -9,13 +9,15 @@ import type { BasinBudget } from './basin';
 import { cautionsFor, type Caution } from './cautions';
 import {
 	analyseFeatures,
+	featureDigs,
 	featureTasks,
 	fountainBasins,
 	openWater,
 	type FeatureResult
 } from './features';
 import type { HydraulicsResult } from './hydraulics';
-import { laborSummary, laborTasks, type LaborSummary, type LaborTask } from './labor';
+import { siteWork, type SiteWorkResult } from './equipment';
+import { laborSummary, laborTasks, planMachines, type LaborSummary, type LaborTask } from './labor';
 import { analyseLighting, type LightingResult } from './lighting';
 import { includedBuckets, pickLaborRate, priceSummary, type PriceSummary } from './pricing';
 import type { PumpMatch } from './pumps';
@@ -61,6 +63,8 @@ export interface EstimateSuccess {
 	walls: WallResult[];
 	lighting?: LightingResult;
 	labor: { tasks: LaborTask[]; summary: LaborSummary };
+	/** Machines, deliveries and spoil, each priced as a line of its own. */
+	siteWork: SiteWorkResult;
 	pricing: PriceSummary;
 	warnings: string[];
 	cautions: Caution[];
@@ -166,6 +170,10 @@ function quantities(result: PartResults, units: UnitSystem) {
 			add(`aggregate-${a.id}-weight`, `${a.name}, weight`, 'bulkMass', a.massKg);
 		}
 	});
+	for (const s of result.siteWork.spoil) {
+		const of = s.bucket === 'base' ? '' : ` (${s.bucket})`;
+		add(`spoil-${s.bucket}`, `Dug soil, loose${of}`, 'bulkVolume', s.looseM3);
+	}
 	result.walls.forEach((w) => {
 		add(`wall-${w.id}-pad`, `${w.name}, levelling pad`, 'bulkVolume', w.padVolumeM3);
 		add(`wall-${w.id}-drain`, `${w.name}, drainage stone`, 'bulkVolume', w.drainVolumeM3);
@@ -184,6 +192,7 @@ function cautionFacts(result: PartResults, design: ParsedDesign, openWaterDepthI
 		hasPump: result.systems.length > 0,
 		hasLighting: Boolean(result.lighting),
 		stonesNeedingHelp: result.stones.stones.filter((s) => s.handling.people > 1).map((s) => s.name),
+		machines: result.siteWork.machines.some((m) => m.delivered),
 		wallsNeedingPermit: result.walls.filter((w) => w.needsPermit).map((w) => w.name),
 		wallsNeedingEngineering: result.walls.filter((w) => w.needsEngineering).map((w) => w.name),
 		openWaterDepthM: deepest.depthM,
@@ -222,20 +231,29 @@ type Parts = ReturnType<typeof analyseParts>;
 function labor(design: ParsedDesign, parts: Parts, catalog: ParsedCatalog) {
 	const settings = catalog.settings;
 	const included = includedBuckets(design);
+	const digs = [
+		...featureDigs(design, parts.features),
+		...parts.walls.map((w) => ({
+			bucket: w.optionId ?? 'base',
+			what: `the footing: ${w.name}`,
+			volumeM3: w.trenchVolumeM3
+		}))
+	];
 	const tasks = laborTasks(
 		{
 			features: featureTasks(design, parts.features, catalog),
+			digs,
 			stones: parts.stones.stones,
 			aggregates: parts.aggregates,
 			walls: parts.walls,
 			lighting: parts.lighting && { result: parts.lighting, optionId: design.lighting?.optionId },
-			extra: design.extraLabor
+			extra: design.extraLabor,
+			site: design.site
 		},
 		settings
 	);
-	const includedStones = parts.stones.stones.filter((s) => included.has(s.optionId ?? 'base'));
-	const stoneCrew = Math.max(0, ...includedStones.map((s) => s.handling.people));
-	return { tasks, summary: laborSummary(tasks, included, stoneCrew, settings) };
+	const machines = planMachines(digs, parts.stones.stones, design.site, settings);
+	return { tasks, digs, machines, summary: laborSummary(tasks, included, settings) };
 }
 
 function collectWarnings(parts: Parts, takeoffWarnings: string[], unpricedLabor: boolean) {
@@ -261,16 +279,29 @@ function compute(design: ParsedDesign, catalog: ParsedCatalog, units: UnitSystem
 	const takeoff = buildTakeoff({ design, ...parts }, catalog);
 	if (takeoff.errors.length) return { ok: false, errors: takeoff.errors };
 	const work = labor(design, parts, catalog);
-	const pricing = priceSummary(design, takeoff.lines, work.tasks, pickLaborRate(catalog), settings);
+	const site = siteWork(
+		{
+			digs: work.digs,
+			machines: work.machines,
+			tasks: work.tasks,
+			stones: parts.stones.stones.map((result, i) => ({ result, sku: parts.stoneInputs[i]?.sku })),
+			lines: takeoff.lines,
+			site: design.site
+		},
+		catalog
+	);
+	const lines = [...takeoff.lines, ...site.lines];
+	const pricing = priceSummary(design, lines, work.tasks, pickLaborRate(catalog), settings);
 	const unpricedLabor = catalog.laborRates.length === 0 && work.tasks.length > 0;
 	// The stone inputs were for the takeoff; the result carries the analysed stones only.
 	const shown: Omit<Parts, 'stoneInputs'> & { stoneInputs?: unknown } = { ...parts };
 	delete shown.stoneInputs;
 	const partial = Object.assign(shown, {
 		units,
-		labor: work,
+		labor: { tasks: work.tasks, summary: work.summary },
+		siteWork: site.result,
 		pricing,
-		warnings: collectWarnings(parts, takeoff.warnings, unpricedLabor)
+		warnings: collectWarnings(parts, [...takeoff.warnings, ...site.warnings], unpricedLabor)
 	});
 	const cautions = cautionsFor(cautionFacts(partial, design, settings.openWaterDepthIn));
 	return Object.assign(partial, {

@@ -2,8 +2,8 @@
 import type { Lighting, Settings } from './schema';
 import { feet, toFeet } from './units';
 
-export const GAUGES = ['16', '14', '12', '10', '8'] as const;
-export type Gauge = (typeof GAUGES)[number];
+import { GAUGES, type Gauge } from './choices';
+export { GAUGES, type Gauge };
 
 // NEC (NFPA 70) Chapter 9, Table 8, DC resistance at 75 °C, uncoated stranded copper,
 // ohms per 1000 ft. 12 AWG stranded uncoated 1.98 Ω/kft (NEC (NFPA 70) Chapter 9 Table 8); the
@@ -39,6 +39,8 @@ export interface RunResult {
 	tapV: number;
 	loadVA: number;
 	cableLengthM: number;
+	/** Trench dug for the run's cable (shared stretches counted once). */
+	trenchLengthM: number;
 	fixtures: FixtureOnRun[];
 	lastFixtureVolts: number;
 	lowestVolts: number;
@@ -159,6 +161,7 @@ function runResult(
 		tapV: run.tapV,
 		loadVA: placed.reduce((sum, p) => sum + p.va, 0),
 		cableLengthM: farthest * (1 + settings.cableSlackPercent / 100),
+		trenchLengthM: farthest,
 		fixtures,
 		lastFixtureVolts: fixtures[fixtures.length - 1].volts,
 		lowestVolts: range.lowest,

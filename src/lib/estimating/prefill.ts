@@ -17,6 +17,8 @@ import {
 } from './schema';
 import { sizeReservoir } from './starter-features';
 import { analyseStones, type HandlingMethod } from './stones';
+import { rateTask } from './labor';
+import { stoneRateKey, type Soil as SiteSoil } from './labor-rates';
 import { starterFromCatalog } from './starter';
 
 export type Notes = Record<string, unknown>;
@@ -60,7 +62,13 @@ export function narrowAccessLabor(design: Design, accessIn: number, settings: Se
 	return analyseStones(parsed.data.stones, settings).stones.flatMap((stone) => {
 		const gear = GEAR_WIDTH_IN[stone.handling.method];
 		if (!gear || accessIn >= gear.widthIn) return [];
-		const hours = quarterHours(stone.count * settings.labor.stoneHours[stone.handling.method]);
+		const set = rateTask(settings, stoneRateKey(stone.handling.method), {
+			bucket: 'base',
+			task: '',
+			quantity: stone.count,
+			people: stone.handling.people
+		});
+		const hours = quarterHours(set.hours);
 		if (hours <= 0) return [];
 		return [
 			{
@@ -72,63 +80,23 @@ export function narrowAccessLabor(design: Design, accessIn: number, settings: Se
 	});
 }
 
-// Extra digging time against loam or sand: rock and clay are slow to dig, fill hides debris
-// (common practice, no source).
-export const SOIL_DIG_FACTOR: Partial<Record<Soil, number>> = {
-	rocky: 0.5,
-	clay: 0.25,
-	fill: 0.25
+/**
+ * The visit's soil as the engine's site soil (its digging rate and swell follow from it). Fill is
+ * dug and hauled like loam; an unknown soil leaves the design's own.
+ */
+export const SITE_SOIL: Partial<Record<Soil, SiteSoil>> = {
+	loam: 'loam',
+	sand: 'sand',
+	clay: 'clay',
+	rocky: 'rocky',
+	fill: 'loam'
 };
 
-/** Extra hours for the basin hole and the lighting cable trench in hard or mixed soil. */
 /** The design's fountain with a basin, if any (the starting designs have one at most). */
 const fountainOf = (design: Design) =>
 	design.features?.find(
 		(f): f is Extract<FeatureInput, { kind: 'fountain' }> => f.kind === 'fountain' && !!f.basin
 	);
-
-export function soilLabor(design: Design, soil: Soil, settings: Settings) {
-	const factor = SOIL_DIG_FACTOR[soil];
-	if (!factor) return [];
-	const labor = settings.labor;
-	const tasks: { task: string; hours: number; optionId?: string }[] = [];
-	if (fountainOf(design)) {
-		tasks.push({ task: `Extra digging in ${soil} soil: basin`, hours: labor.basinHours * factor });
-	}
-	for (const f of design.features ?? []) {
-		if (f.kind === 'pond') {
-			const o = f.outline;
-			const areaFt2 =
-				o.shape === 'rectangle'
-					? o.lengthFt * o.widthFt
-					: o.shape === 'oval'
-						? (Math.PI / 4) * o.lengthFt * o.widthFt
-						: 0;
-			tasks.push({
-				task: `Extra digging in ${soil} soil: ${f.name}`,
-				hours: areaFt2 * labor.pondHoursPerFt2 * factor
-			});
-		} else if (f.kind === 'stream') {
-			const lengthFt = f.segments.reduce((s, seg) => s + seg.lengthFt, 0);
-			tasks.push({
-				task: `Extra digging in ${soil} soil: ${f.name}`,
-				hours: lengthFt * labor.streamHoursPerFt * factor
-			});
-		}
-	}
-	const trenchFt = (design.lighting?.runs ?? []).reduce(
-		(sum, run) => sum + Math.max(0, ...run.fixtures.map((f) => f.distanceFt)),
-		0
-	);
-	if (trenchFt > 0) {
-		tasks.push({
-			task: `Extra digging in ${soil} soil: cable trench`,
-			hours: trenchFt * labor.cableHoursPerFt * factor,
-			...(design.lighting?.optionId ? { optionId: design.lighting.optionId } : {})
-		});
-	}
-	return tasks.map((t) => ({ ...t, hours: quarterHours(t.hours) })).filter((t) => t.hours > 0);
-}
 
 // The fall across the spot as a grade for each slope the salesperson can pick, and the share of
 // the basin hours spent cutting and levelling the pad (common practice, no source). A gentle
@@ -169,7 +137,7 @@ export function applySlope(
 		}
 	}
 	if (fountainOf(design)) {
-		const hours = quarterHours(settings.labor.basinHours * levelling);
+		const hours = quarterHours(settings.labor.rates.basin * levelling);
 		if (hours > 0) {
 			design.extraLabor = [
 				...(design.extraLabor ?? []),
@@ -263,9 +231,10 @@ export function starterDesign(
 	}
 	const soil = choiceIn(notes, 'soil', SOILS);
 	const access = numberIn(notes, 'accessWidthIn');
+	const siteSoil = soil ? SITE_SOIL[soil] : undefined;
+	if (siteSoil) design.site = { ...(design.site ?? {}), soil: siteSoil };
 	design.extraLabor = [
 		...(design.extraLabor ?? []),
-		...(soil ? soilLabor(design, soil, settings) : []),
 		...(access ? narrowAccessLabor(design, access, settings) : [])
 	];
 	return design;

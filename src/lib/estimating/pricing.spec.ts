@@ -1,5 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
+import { crewTask } from './labor';
 import {
 	bucketTotals,
 	percentOf,
@@ -86,11 +87,14 @@ describe('quantities in the item’s unit', () => {
 	});
 });
 
+const task = (hours: number) =>
+	crewTask({ bucket: 'base', key: 'extra', task: 't', people: 1, hours, basis: '' });
+
 describe('bucket totals, worked by hand', () => {
 	it('$100.00 taxable + $50.00 untaxed + 2 h at $80: markup 10%, tax 8% on taxable materials with markup', () => {
 		const t = bucketTotals(
 			[line('base', 10000), line('base', 5000, false)],
-			[{ bucket: 'base', task: 't', hours: 2 }],
+			[task(2)],
 			rate,
 			settings
 		);
@@ -104,7 +108,7 @@ describe('bucket totals, worked by hand', () => {
 	});
 
 	it('tax on everything when the settings say so', () => {
-		const t = bucketTotals([line('base', 10000)], [{ bucket: 'base', task: 't', hours: 1 }], rate, {
+		const t = bucketTotals([line('base', 10000)], [task(1)], rate, {
 			...settings,
 			taxAppliesTo: 'all'
 		});
@@ -172,7 +176,7 @@ describe('options, alternates, deposit', () => {
 				(amounts, hours, markupPercent, taxRatePercent) => {
 					const t = bucketTotals(
 						amounts.map(([a, taxable]) => line('base', a, taxable)),
-						[{ bucket: 'base', task: 't', hours }],
+						[task(hours)],
 						rate,
 						{ ...settings, markupPercent, taxRatePercent }
 					);

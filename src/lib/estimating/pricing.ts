@@ -47,7 +47,8 @@ const DEFAULT_INCREMENT: Record<ItemUnit, number> = {
 	ton: 0.1,
 	lb: 1,
 	bag: 1,
-	load: 1
+	load: 1,
+	day: 1
 };
 
 function massFrom(measure: Measure, item: CatalogItem): number | undefined {
@@ -78,6 +79,8 @@ export function quantityInUnit(measure: Measure, item: CatalogItem): number | un
 		case 'bag':
 			if (volume === undefined || !item.bagVolumeFt3) return undefined;
 			return fromSI(volume, 'volume', 'ft3') / item.bagVolumeFt3;
+		case 'day':
+			return measure.count;
 		case 'load':
 			if (volume === undefined || !item.loadVolumeYd3) return undefined;
 			return fromSI(volume, 'volume', 'yd3') / item.loadVolumeYd3;

@@ -233,6 +233,21 @@ describe('pump choice', () => {
 		expect(matchPump([edge], system(3, 2, 1000), gph(1000), required, loose).chosenId).toBe('edge');
 	});
 
+	it('compares the pump and the system at the same flow: the system’s head grows with the margin too', () => {
+		// System: 3 ft static + 2 ft that grows with Q² (5 ft at 1000 gph). At 1150 gph it needs
+		// 3 + 2 × 1.15² = 5.645 ft. A straight curve from 10 ft at 0 to 0 at 2450 gph gives
+		// 10 × (1 − 1150/2450) = 5.306 ft there: above the 5 ft needed at 1000 gph, below the 5.645 ft
+		// needed at 1150 gph, so it does not serve with the 15% margin (common practice, no source).
+		const close = model('close', 90, [
+			[0, 10],
+			[2450, 0]
+		]);
+		const match = matchPump([close], system(3, 2, 1000), gph(1000), feet(5), settings);
+		expect(match.requiredHeadAtMarginM).toBeCloseTo(feet(3 + 2 * 1.15 ** 2), 9);
+		expect(match.evaluations[0].headAtMarginFlowM).toBeCloseTo(feet(10 * (1 - 1150 / 2450)), 6);
+		expect(match.chosenId).toBeUndefined();
+	});
+
 	it('warns when nothing fits, and returns curves to plot', () => {
 		const match = matchPump([small], system(12, 3, 1000), gph(1000), feet(15), settings);
 		expect(match.chosenId).toBeUndefined();

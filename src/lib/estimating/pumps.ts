@@ -158,6 +158,8 @@ export interface PumpMatch {
 	requiredFlowM3s: number;
 	requiredHeadM: number;
 	marginFlowM3s: number;
+	/** The system's head at the flow with margin: what the pump must give there. */
+	requiredHeadAtMarginM: number;
 	evaluations: PumpEvaluation[];
 	chosenId?: string;
 	systemCurve: CurvePoint[];
@@ -221,8 +223,10 @@ const bySize = (a: PumpEvaluation, b: PumpEvaluation) =>
 	a.watts - b.watts || a.priceCents - b.priceCents || a.id.localeCompare(b.id);
 
 /**
- * The smallest suitable pump (least watts, then least price): one that still gives the hardest
- * branch's head at the total flow raised by the margin from the settings.
+ * The smallest suitable pump (least watts, then least price): at the total flow raised by the
+ * margin from the settings, the pump's head must reach the system's head at that same flow (the
+ * hardest branch's head, grown with the flow along the system curve). Comparing the pump at the
+ * raised flow with the system at the design flow would count part of the margin that is not there.
  */
 export function matchPump(
 	models: readonly PumpModel[],
@@ -233,8 +237,12 @@ export function matchPump(
 	pinnedId?: string
 ): PumpMatch {
 	const marginFlowM3s = requiredFlowM3s * (1 + settings.pumpMarginPercent / 100);
+	const requiredHeadAtMarginM = Math.max(
+		requiredHeadM,
+		requiredHeadM + systemHead(system, marginFlowM3s) - systemHead(system, requiredFlowM3s)
+	);
 	const evaluations = models
-		.map((m) => evaluate(m, system, marginFlowM3s, requiredHeadM, settings))
+		.map((m) => evaluate(m, system, marginFlowM3s, requiredHeadAtMarginM, settings))
 		.sort(bySize);
 	const chosen = pinnedId
 		? evaluations.find((e) => e.id === pinnedId)
@@ -251,6 +259,7 @@ export function matchPump(
 		requiredFlowM3s,
 		requiredHeadM,
 		marginFlowM3s,
+		requiredHeadAtMarginM,
 		evaluations,
 		chosenId: chosen?.id,
 		systemCurve: sample(plotMax, (q) => systemHead(system, q)),

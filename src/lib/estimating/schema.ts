@@ -1,9 +1,9 @@
 /** Zod schemas for the design (US customary input, JSON-serialisable) and the catalog. */
 import { z } from 'zod';
 import { FITTING_KINDS, NOMINAL_SIZES, PIPE_MATERIALS } from './pipes';
-import { ROCK_TYPES } from './stones';
-import { GAUGES } from './lighting';
+import { GAUGES, ROCK_TYPES } from './choices';
 import { CATEGORIES } from './categories';
+import { LABOR_RATES, SOIL_KINDS, SOILS, type LaborRateKey } from './labor-rates';
 
 const id = z.string().min(1, 'Required');
 const name = z.string().min(1, 'Required');
@@ -152,6 +152,8 @@ const wallSchema = z.object({
 	capLengthIn: positive.optional(),
 	padSku: z.string().optional(),
 	drainSku: z.string().optional(),
+	/** Perforated drain pipe behind a retaining wall, sold by the foot. */
+	drainPipeSku: z.string().optional(),
 	surcharge: z.boolean().default(false),
 	optionId
 });
@@ -296,8 +298,16 @@ export const featureSchema = z.discriminatedUnion('kind', [
 	streamFeatureSchema
 ]);
 
+// The ground the work is dug in and how: by hand, by machine, or chosen from the dig volume.
+export const siteSchema = z.object({
+	soil: z.enum(SOIL_KINDS).default('loam'),
+	dig: z.enum(['auto', 'hand', 'machine']).default('auto'),
+	haulSpoil: z.boolean().default(true)
+});
+
 export const designSchema = z.object({
 	name: name.default('Untitled design'),
+	site: siteSchema.prefault({}),
 	features: z.array(featureSchema).default([]),
 	stones: z.array(stoneSchema).default([]),
 	aggregates: z.array(aggregateSchema).default([]),
@@ -318,7 +328,18 @@ export const designSchema = z.object({
 		.default([])
 });
 
-export const ITEM_UNITS = ['each', 'ft', 'ft2', 'ft3', 'yd3', 'ton', 'lb', 'bag', 'load'] as const;
+export const ITEM_UNITS = [
+	'each',
+	'ft',
+	'ft2',
+	'ft3',
+	'yd3',
+	'ton',
+	'lb',
+	'bag',
+	'load',
+	'day'
+] as const;
 export type ItemUnit = (typeof ITEM_UNITS)[number];
 
 const itemSchema = z.object({
@@ -364,6 +385,10 @@ const laborRateSchema = z.object({
 });
 
 const hours = nonNegative;
+// One entry a labor rate, its default from the rate list (labor-rates.ts).
+const laborRateShape = Object.fromEntries(
+	LABOR_RATES.map((r) => [r.key, hours.default(r.default)])
+) as Record<LaborRateKey, z.ZodDefault<typeof hours>>;
 // The firm's settings. Defaults without a note are invented starting points for a firm to replace
 // with its own figures (no source).
 export const settingsSchema = z.object({
@@ -408,21 +433,41 @@ export const settingsSchema = z.object({
 		.prefault({}),
 	lift: z
 		.object({
-			// NIOSH 94-110 ideal geometry: hands 25 cm out, starting at 75 cm, moving 25 cm or less.
-			horizontalCm: positive.default(25),
-			originHeightCm: nonNegative.default(75),
-			travelCm: nonNegative.default(25),
+			// Setting a stone, in the terms of the NIOSH lifting equation (NIOSH 94-110): lifted from
+			// near the ground (hands at 15 cm), held out past the knees (40 cm from the ankles), raised
+			// 60 cm onto its bed, facing it (no twist), a few lifts in an hour or less (FM 1.00, table 5,
+			// under 0.2 lifts a minute), and a poor grip on rough rock (CM 0.90, table 7). The figures
+			// of the geometry are from memory of how a stone is set, for the firm to change.
+			horizontalCm: positive.default(40),
+			originHeightCm: nonNegative.default(15),
+			travelCm: nonNegative.default(60),
 			asymmetryDeg: nonNegative.default(0),
 			frequencyMultiplier: z.number().min(0).max(1).default(1),
-			couplingMultiplier: z.number().min(0).max(1).default(1)
+			couplingMultiplier: z.number().min(0).max(1).default(0.9)
 		})
 		.prefault({}),
-	// UK HSE L23: a two-person team manages about two-thirds of the sum of its members (from memory).
-	teamLiftEfficiency: z
-		.number()
-		.gt(0)
-		.max(1)
-		.default(2 / 3),
+	// What a team manages against the sum of its members' limits: two people two-thirds, three
+	// people half (UK HSE L23, guidance on the Manual Handling Operations Regulations, from memory);
+	// four or more, half as for three (from memory: teams past four rarely work well together).
+	teamFactors: z
+		.object({
+			two: z
+				.number()
+				.gt(0)
+				.max(1)
+				.default(2 / 3),
+			three: z
+				.number()
+				.gt(0)
+				.max(1)
+				.default(1 / 2),
+			fourOrMore: z
+				.number()
+				.gt(0)
+				.max(1)
+				.default(1 / 2)
+		})
+		.prefault({}),
 	teamLiftLimitLb: positive.default(120),
 	maxTeamSize: count.min(2, 'At least two').default(4),
 	cartLimitLb: positive.default(500),
@@ -436,7 +481,16 @@ export const settingsSchema = z.object({
 			permitHeightIn: positive.default(48),
 			engineeredHeightIn: positive.default(48),
 			surchargeEngineeredHeightIn: positive.default(24),
-			unitWastePercent: percent.default(5)
+			unitWastePercent: percent.default(5),
+			// Loose base bought for a compacted pad: a granular soil's loose ÷ compacted volume,
+			// 1.11 ÷ 0.95 (US Army FM 5-434, Earthmoving Operations, table 1-2, sand).
+			padCompactionFactor: z
+				.number()
+				.min(1)
+				.max(2)
+				.default(SOILS.sand.swell / SOILS.sand.compaction),
+			// The drain pipe runs past the wall's ends to daylight (common practice, no source).
+			drainOutletFt: nonNegative.default(10)
 		})
 		.prefault({}),
 	lighting: z
@@ -454,26 +508,25 @@ export const settingsSchema = z.object({
 			rateId: z.string().optional(),
 			hoursPerDay: positive.default(8),
 			baseCrewSize: count.min(1).default(2),
-			basinHours: hours.default(6),
-			outletHours: hours.default(1.5),
-			stoneHours: z
-				.object({
-					'one-person': hours.default(0.25),
-					'team-lift': hours.default(0.75),
-					cart: hours.default(1),
-					hoist: hours.default(2),
-					'compact-loader': hours.default(1.5),
-					'larger-machine': hours.default(4)
-				})
-				.prefault({}),
-			fixtureHours: hours.default(0.75),
-			cableHoursPerFt: hours.default(0.02),
-			toppingHoursPerFt2: hours.default(0.02),
-			wallHoursPerUnit: hours.default(0.1),
-			pondHoursPerFt2: hours.default(0.2),
-			streamHoursPerFt: hours.default(0.75),
-			fallHours: hours.default(2),
-			reservoirHours: hours.default(6)
+			// Dig with a machine once a bucket's digging passes this many bank yd³ (common
+			// practice, no source); a stone set by a machine brings one in anyway.
+			machineDigAboveYd3: nonNegative.default(3),
+			rates: z.object(laborRateShape).prefault({})
+		})
+		.prefault({}),
+	equipment: z
+		.object({
+			// Price-list items for the machine lines, deliveries and spoil; a missing item leaves
+			// the line unpriced with a warning.
+			compactMachineSku: z.string().default('EQUIP-LOADER-DAY'),
+			largerMachineSku: z.string().default('EQUIP-EXCAVATOR-DAY'),
+			machineDeliverySku: z.string().default('EQUIP-DELIVERY'),
+			truckloadSku: z.string().default('DELIVERY-LOAD'),
+			haulOffSku: z.string().default('SPOIL-HAUL-YD3'),
+			// A small dump truck's payload (common practice, no source).
+			truckCapacityTons: positive.default(10),
+			// Stone and gravel brought by the firm's own trailer below this weight (no delivery line).
+			deliveryAboveTons: nonNegative.default(1)
 		})
 		.prefault({})
 });
@@ -509,3 +562,4 @@ export type Area = z.output<typeof areaSchema>;
 export type Wall = ParsedDesign['walls'][number];
 export type Lighting = NonNullable<ParsedDesign['lighting']>;
 export type Outlet = Fountain['outlets'][number];
+export type Site = ParsedDesign['site'];

@@ -9,7 +9,7 @@ import { demoDesign } from './demo';
 import type { CatalogItem, Design, FeatureInput } from './schema';
 export type PondInput = Extract<FeatureInput, { kind: 'pond' }>;
 export type StreamInput = Extract<FeatureInput, { kind: 'stream' }>;
-import type { Pick, Slot } from './starter';
+import type { Pick, Slot } from './starter-slots';
 import { settingsSchema } from './schema';
 
 type Note = (text: string) => void;

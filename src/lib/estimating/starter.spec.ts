@@ -4,14 +4,23 @@ import { estimate } from './index';
 import { demoCatalog, demoDesign } from './demo';
 import { starterDesign } from './prefill';
 import { starterFromCatalog, starterGapsNote } from './starter';
-import type { Catalog } from './schema';
+import { catalogSchema, type Catalog } from './schema';
 
 /** The demo price list with every SKU renamed, as a firm's own list would number its items. */
 function renamedCatalog(): Catalog {
 	const catalog = demoCatalog();
+	const renamed = new Map((catalog.items ?? []).map((item, n) => [item.sku, `FIRM-${1000 + n}`]));
+	// The firm's settings name its own items for machines, deliveries and spoil.
+	const equipment = Object.fromEntries(
+		Object.entries(catalogSchema.parse(catalog).settings.equipment).map(([k, v]) => [
+			k,
+			typeof v === 'string' ? (renamed.get(v) ?? v) : v
+		])
+	);
 	return {
 		...catalog,
-		items: (catalog.items ?? []).map((item, n) => ({ ...item, sku: `FIRM-${1000 + n}` }))
+		items: (catalog.items ?? []).map((item) => ({ ...item, sku: renamed.get(item.sku)! })),
+		settings: { ...catalog.settings, equipment }
 	};
 }
 
@@ -24,7 +33,13 @@ function skusOf(design: ReturnType<typeof demoDesign>): string[] {
 		})(),
 		...(design.stones ?? []).map((s) => s.sku),
 		...(design.aggregates ?? []).map((a) => a.sku),
-		...(design.walls ?? []).flatMap((w) => [w.unitSku, w.capSku, w.padSku, w.drainSku]),
+		...(design.walls ?? []).flatMap((w) => [
+			w.unitSku,
+			w.capSku,
+			w.padSku,
+			w.drainSku,
+			w.drainPipeSku
+		]),
 		...(design.lighting?.fixtures ?? []).map((f) => f.sku),
 		...(design.lighting?.transformers ?? []).map((t) => t.sku),
 		...(design.lighting?.runs ?? []).map((r) => r.cableSku),

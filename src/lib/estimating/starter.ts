@@ -4,27 +4,16 @@
  * an item of the same category that can price it (the demo SKU when the list has it, so the demo
  * keeps its numbers); a part the list cannot supply is left out or left unpriced, with a note.
  */
-import type { CATEGORIES } from './categories';
 import { demoCatalog, demoDesign } from './demo';
 import { quantityInUnit, type Measure } from './pricing';
 import { catalogSchema, type CatalogItem, type Design } from './schema';
 import { featuresForServices } from './starter-features';
+import type { Pick, Slot } from './starter-slots';
 
 export interface Starter {
 	design: Design;
 	/** What the starting design lacks because the price list cannot supply it, in plain words. */
 	notes: string[];
-}
-
-export interface Slot {
-	category: (typeof CATEGORIES)[number];
-	/** What the takeoff measures for this part: an item must be able to price it. */
-	measure: Measure;
-	/** Names that fit the part best (preferred, or required when `strict`). */
-	hint?: RegExp;
-	strict?: boolean;
-	/** Names that must not be picked for this part (a cap is not a wall unit). */
-	exclude?: RegExp;
 }
 
 const COUNT: Measure = { count: 1 };
@@ -40,6 +29,7 @@ const SLOTS = {
 	wallCap: { category: 'wall', measure: COUNT, hint: /\bcap/i, strict: true },
 	pad: { category: 'aggregate', measure: VOLUME, hint: /base|pad/i, strict: true },
 	drain: { category: 'aggregate', measure: VOLUME, hint: /drain/i, strict: true },
+	drainPipe: { category: 'wall', measure: { lengthM: 1 }, hint: /drain|perforated/i, strict: true },
 	uplight: { category: 'lighting', measure: COUNT, hint: /up/i, exclude: /transformer/i },
 	pathLight: { category: 'lighting', measure: COUNT, hint: /path/i, exclude: /transformer/i },
 	transformer: { category: 'lighting', measure: COUNT, hint: /transformer/i, strict: true },
@@ -71,8 +61,6 @@ export function pickItem(
 		undefined
 	);
 }
-
-export type Pick = (slot: Slot, demoSku: string | undefined) => CatalogItem | undefined;
 
 function basinParts(design: Design, pick: Pick, note: (text: string) => void) {
 	const fountain = design.features?.find((f) => f.kind === 'fountain');
@@ -164,7 +152,8 @@ function wallParts(design: Design, pick: Pick, note: (text: string) => void) {
 		}
 		for (const [key, slot, what] of [
 			['padSku', SLOTS.pad, 'levelling pad base'],
-			['drainSku', SLOTS.drain, 'drainage stone']
+			['drainSku', SLOTS.drain, 'drainage stone'],
+			['drainPipeSku', SLOTS.drainPipe, 'drain pipe']
 		] as const) {
 			const item = pick(slot, wall[key]);
 			if (item) wall[key] = item.sku;

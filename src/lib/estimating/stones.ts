@@ -1,6 +1,7 @@
 /** Stone volumes and weights, and the safe way to set each one (NIOSH lifting equation). */
 import type { Settings, Stone } from './schema';
 import { KILOGRAMS_PER_POUND, inches, toSI } from './units';
+import { ROCK_TYPES, type RockType } from './choices';
 
 // Specific gravity (g/cm³) ranges, "Densities of Common Rock Types", A. Alden, About.com
 // Geology (reprinted by ThoughtCo). The engine uses each range's midpoint.
@@ -15,10 +16,9 @@ export const ROCK_DENSITY_RANGES = {
 	gneiss: [2.6, 2.9],
 	andesite: [2.5, 2.8],
 	rhyolite: [2.4, 2.6]
-} as const satisfies Record<string, readonly [number, number]>;
+} as const satisfies Record<RockType, readonly [number, number]>;
 
-export type RockType = keyof typeof ROCK_DENSITY_RANGES;
-export const ROCK_TYPES = Object.keys(ROCK_DENSITY_RANGES) as [RockType, ...RockType[]];
+export { ROCK_TYPES, type RockType };
 
 export function rockDensityKgM3(rock: RockType): number {
 	const [low, high] = ROCK_DENSITY_RANGES[rock];
@@ -132,29 +132,43 @@ export interface HandlingPlan {
 
 const lb = (value: number) => value * KILOGRAMS_PER_POUND;
 
-function teamPeople(weightKg: number, perPersonKg: number, efficiency: number): number {
-	return Math.max(2, Math.ceil(weightKg / (perPersonKg * efficiency) - 1e-9));
+/** The share of its members' summed limits a team of this size manages (settings.teamFactors). */
+export function teamFactor(people: number, settings: Settings): number {
+	const t = settings.teamFactors;
+	return people <= 2 ? t.two : people === 3 ? t.three : t.fourOrMore;
+}
+
+/** What a team of this size may lift together, kg. */
+export const teamLimitKg = (people: number, perPersonKg: number, settings: Settings) =>
+	people * perPersonKg * teamFactor(people, settings);
+
+/** The smallest team, two up to the largest allowed, that may lift the weight. */
+function teamPeople(weightKg: number, perPersonKg: number, settings: Settings): number | undefined {
+	for (let n = 2; n <= settings.maxTeamSize; n++) {
+		if (weightKg <= teamLimitKg(n, perPersonKg, settings) + 1e-9) return n;
+	}
+	return undefined;
 }
 
 /**
- * One person up to the NIOSH limit; a team up to the team-lift limit (each person counted at the
- * team efficiency: a two-person team manages about two-thirds of the sum of its members'
- * capacities, UK HSE L23 guidance, from memory); then a cart, a hoist, a compact loader.
- * A machine still needs the largest team's hands to guide and set the stone, so a heavier stone
- * never needs fewer people.
+ * One person up to the NIOSH limit; then the smallest team whose size-adjusted limit covers the
+ * stone (a team manages less than the sum of its members, settings.teamFactors), up to the
+ * team-lift limit; then a cart, a hoist, a compact loader. A machine still needs the largest
+ * team's hands to guide and set the stone, so a heavier stone never needs fewer people.
  */
 export function handlingPlan(weightKg: number, settings: Settings): HandlingPlan {
 	const perPerson = recommendedWeightLimitKg(settings.lift);
-	const efficiency = settings.teamLiftEfficiency;
-	const teamCapacity =
-		perPerson > 0
-			? Math.min(lb(settings.teamLiftLimitLb), settings.maxTeamSize * perPerson * efficiency)
-			: 0;
+	let bestTeam = 0;
+	for (let n = 2; n <= settings.maxTeamSize; n++) {
+		bestTeam = Math.max(bestTeam, teamLimitKg(n, perPerson, settings));
+	}
+	const teamCapacity = perPerson > 0 ? Math.min(lb(settings.teamLiftLimitLb), bestTeam) : 0;
 	if (perPerson > 0 && weightKg <= perPerson) return { method: 'one-person', people: 1 };
 	if (perPerson > 0 && weightKg <= teamCapacity) {
-		return { method: 'team-lift', people: teamPeople(weightKg, perPerson, efficiency) };
+		return { method: 'team-lift', people: teamPeople(weightKg, perPerson, settings)! };
 	}
-	const largestTeam = teamCapacity > 0 ? teamPeople(teamCapacity, perPerson, efficiency) : 2;
+	const largestTeam =
+		teamCapacity > 0 ? (teamPeople(teamCapacity, perPerson, settings) ?? settings.maxTeamSize) : 2;
 	const people = Math.max(settings.machineCrew, largestTeam);
 	const method: HandlingMethod =
 		weightKg <= lb(settings.cartLimitLb)

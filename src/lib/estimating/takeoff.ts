@@ -170,12 +170,17 @@ function wallLines({ design, walls }: TakeoffParts, add: Add) {
 		const path = `design.walls.${i}`;
 		add(`${path}.unitSku`, bucket, input.unitSku, `${w.name} units`, { count: w.units });
 		add(`${path}.capSku`, bucket, input.capSku, `${w.name} caps`, { count: w.caps });
-		add(`${path}.padSku`, bucket, input.padSku, `${w.name} levelling pad`, {
-			volumeM3: w.padVolumeM3
+		add(`${path}.padSku`, bucket, input.padSku, `${w.name} levelling pad (loose, to compact)`, {
+			volumeM3: w.padLooseVolumeM3
 		});
 		add(`${path}.drainSku`, bucket, input.drainSku, `${w.name} drainage stone`, {
 			volumeM3: w.drainVolumeM3
 		});
+		if (w.drainPipeLengthM > 0) {
+			add(`${path}.drainPipeSku`, bucket, input.drainPipeSku, `${w.name} drain pipe`, {
+				lengthM: w.drainPipeLengthM
+			});
+		}
 	});
 }
 

@@ -35,10 +35,13 @@ describe('courses and units (common practice, no source: bury 6 in or H/8, at le
 		expect(buriedCourses(12, 4)).toBe(2);
 	});
 
-	it('a seat wall buries nothing and needs no drainage stone', () => {
+	it('a seat wall buries a course too, with drainage stone beside it only, and no drain pipe', () => {
 		const r = wallTakeoff(wall({ purpose: 'seat' }), settings);
-		expect(r.buriedCourses).toBe(0);
-		expect(r.drainVolumeM3).toBe(0);
+		expect(r.buriedCourses).toBe(1);
+		expect(r.courses).toBe(4);
+		// 40 ft × 6 in × one 6 in course = 10 ft³ (common practice, no source).
+		expect(fromSI(r.drainVolumeM3, 'volume', 'ft3')).toBeCloseTo(10, 9);
+		expect(r.drainPipeLengthM).toBe(0);
 	});
 });
 
@@ -49,6 +52,24 @@ describe('base and drainage (pad 6 in deep and 12 in wider, 12 in drainage zone:
 
 	it('drainage stone: 12 in deep behind the full built height, 40 ft × 1 ft × 2 ft = 80 ft³ (common practice, no source)', () => {
 		expect(fromSI(wallTakeoff(wall(), settings).drainVolumeM3, 'volume', 'ft3')).toBeCloseTo(80, 9);
+	});
+
+	it('the pad is bought loose: 40 ft³ compacted × 1.11 / 0.95 = 46.7 ft³ (US Army FM 5-434, Earthmoving Operations, table 1-2: 100 yd³ of sand in place is 111 yd³ loose, 95 yd³ compacted)', () => {
+		const r = wallTakeoff(wall(), settings);
+		expect(fromSI(r.padLooseVolumeM3, 'volume', 'ft3')).toBeCloseTo((40 * 1.11) / 0.95, 9);
+	});
+
+	it('a retaining wall drains through a pipe its length plus 10 ft to daylight (common practice, no source)', () => {
+		expect(fromSI(wallTakeoff(wall(), settings).drainPipeLengthM, 'length', 'ft')).toBeCloseTo(
+			50,
+			9
+		);
+	});
+
+	it('the trench takes the pad and the buried course: 40 ft × 2 ft × (6 + 6 in) = 80 ft³; the face is 40 ft × 4 courses of 6 in = 80 ft²', () => {
+		const r = wallTakeoff(wall(), settings);
+		expect(fromSI(r.trenchVolumeM3, 'volume', 'ft3')).toBeCloseTo(80, 9);
+		expect(fromSI(r.faceAreaM2, 'area', 'ft2')).toBeCloseTo(80, 9);
 	});
 });
 

@@ -1,4 +1,4 @@
-import type { Role } from '$lib/server/db/schema';
+import type { Role } from '$lib/server/platform/db/schema';
 
 export interface NavItem {
 	href: string;

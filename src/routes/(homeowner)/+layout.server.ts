@@ -1,4 +1,4 @@
-import { LINK_PAGE_HEADERS } from '$lib/server/link-pages';
+import { LINK_PAGE_HEADERS } from '$lib/server/http/link-pages';
 import type { LayoutServerLoad } from './$types';
 
 export const load: LayoutServerLoad = ({ setHeaders }) => {

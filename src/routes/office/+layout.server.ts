@@ -1,6 +1,6 @@
 import { navFor } from '$lib/office/nav';
-import { requireRole } from '$lib/server/access';
-import { firmSettings } from '$lib/server/settings';
+import { requireRole } from '$lib/server/auth/access';
+import { firmSettings } from '$lib/server/platform/settings';
 import type { LayoutServerLoad } from './$types';
 
 export const load: LayoutServerLoad = async (event) => {

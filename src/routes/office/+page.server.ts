@@ -1,11 +1,11 @@
-import { requireRole } from '$lib/server/access';
-import type { SessionUser } from '$lib/server/auth';
-import { installDays } from '$lib/server/jobsite';
+import { requireRole } from '$lib/server/auth/access';
+import type { SessionUser } from '$lib/server/auth/sessions';
+import { installDays } from '$lib/server/jobs/read';
 import { crewServiceDays } from '$lib/server/care/service';
 import { addDays } from '$lib/scheduling/zone';
-import { todaySummary } from '$lib/server/leads';
-import { firmSettings } from '$lib/server/settings';
-import { listMembers, pendingInvitations } from '$lib/server/team';
+import { todaySummary } from '$lib/server/leads/leads';
+import { firmSettings } from '$lib/server/platform/settings';
+import { listMembers, pendingInvitations } from '$lib/server/auth/team';
 import type { PageServerLoad } from './$types';
 
 const CREW_DAYS_AHEAD = 14;

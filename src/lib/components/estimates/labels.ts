@@ -21,7 +21,8 @@ export const UNIT_NAMES: Record<string, string> = {
 	ton: 'ton',
 	lb: 'lb',
 	bag: 'bag',
-	load: 'load'
+	load: 'load',
+	day: 'day'
 };
 
 export const HANDLING_NAMES: Record<string, string> = {

@@ -3,7 +3,7 @@
 // a callback on the job, inside or outside the warranty period as it stood that day, assigned to
 // a crew lead and dated like a service visit, its hours logged against the job, closed with notes.
 import { asc, desc, eq, inArray } from 'drizzle-orm';
-import { db } from '../db';
+import { db } from '../platform/db';
 import {
 	callbackLinks,
 	callbackPhotos,
@@ -16,16 +16,19 @@ import {
 	users,
 	type Callback,
 	type Job
-} from '../db/schema';
-import { newId, newToken, sha256 } from '../crypto';
-import type { SessionUser } from '../auth';
-import { origin } from '../env';
-import { addActivity, JobError, jobRef, type Tx } from '../jobsite';
-import { checkPhotoSize, processPhoto, type ProcessedPhoto } from '../images';
-import { discardStored, storePhoto, type StoredPhoto } from '../intake';
-import { dispatchMail, writeMail } from '../outbox';
-import { htmlBody } from '../mail';
-import { firmSettings, firmToday } from '../settings';
+} from '../platform/db/schema';
+import { newId, newToken, sha256 } from '../platform/crypto';
+import type { SessionUser } from '../auth/sessions';
+import { origin } from '../platform/env';
+import { addActivity } from '../leads/timeline';
+import { JobError } from '../jobs/errors';
+import { jobRef } from '../jobs/labels';
+import { type Tx } from '../platform/db';
+import { checkPhotoSize, processPhoto, type ProcessedPhoto } from '../platform/images';
+import { discardStored, storePhoto, type StoredPhoto } from '../leads/intake/drafts';
+import { dispatchMail, writeMail } from '../platform/outbox';
+import { htmlBody } from '../platform/mail';
+import { firmSettings, firmToday } from '../platform/settings';
 import { calendarDate } from '$lib/scheduling/zone';
 import { insideWarranty, warrantyEndsOn } from '$lib/costing/warranty';
 import { costingConfig } from '../costing/report';
@@ -201,15 +204,16 @@ export async function sendCallbackLink(jobId: string) {
 				},
 				tx
 			);
-			if (id)
-				{await addActivity(
+			if (id) {
+				await addActivity(
 					tx,
 					row.job.leadId,
 					'callback.link',
 					`Problem-report link e-mailed for ${jobRef(row.job.number)}`,
 					null,
 					{ jobId }
-				);}
+				);
+			}
 			return id;
 		})
 		.then(async (id) => {
@@ -293,8 +297,9 @@ export async function scheduleCallback(
 		.select({ role: users.role })
 		.from(users)
 		.where(eq(users.id, input.assignedTo));
-	if (!crew || crew.role === 'sales')
-		{throw new JobError('invalid', 'Pick a crew lead or the owner.');}
+	if (!crew || crew.role === 'sales') {
+		throw new JobError('invalid', 'Pick a crew lead or the owner.');
+	}
 	const [cb] = await db.select().from(callbacks).where(eq(callbacks.id, id));
 	if (!cb) throw new JobError('not_found', 'There is no such callback.');
 	if (cb.status === 'fixed') throw new JobError('bad_stage', 'This callback is closed.');

@@ -7,7 +7,7 @@ import { and, asc, eq, gte, inArray, lte } from 'drizzle-orm';
 import ical, { ICalEventStatus } from 'ical-generator';
 import { vtimezone } from '$lib/scheduling/vtimezone';
 import { VISIT_LABELS, type VisitKind } from '$lib/care/kinds';
-import { db } from '../db';
+import { db } from '../platform/db';
 import {
 	calendarFeeds,
 	contacts,
@@ -18,10 +18,10 @@ import {
 	serviceVisits,
 	siteVisits,
 	users
-} from '../db/schema';
-import { newToken, sha256 } from '../crypto';
-import { origin } from '../env';
-import { firmSettings } from '../settings';
+} from '../platform/db/schema';
+import { newToken, sha256 } from '../platform/crypto';
+import { origin } from '../platform/env';
+import { firmSettings } from '../platform/settings';
 import { addressOf } from './features';
 import { calendarDate } from '$lib/scheduling/zone';
 

@@ -1,8 +1,6 @@
-import { db } from '../db';
 import { isDate, todayIn } from '$lib/scheduling/zone';
 
-export type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
-export type Db = Tx | typeof db;
+export type { Db, Tx } from '../platform/db';
 
 export class CareError extends Error {
 	constructor(

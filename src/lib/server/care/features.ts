@@ -4,7 +4,7 @@
 // the zipcodes package's own data file (nothing is asked of an online map or geocoder).
 import { upgradeDesign } from '$lib/estimating/upgrade';
 import { and, asc, eq, ilike, or, sql } from 'drizzle-orm';
-import { db } from '../db';
+import { db } from '../platform/db';
 import {
 	contacts,
 	properties,
@@ -12,8 +12,8 @@ import {
 	propertyLocations,
 	type Job,
 	type PropertyFeature
-} from '../db/schema';
-import { newId } from '../crypto';
+} from '../platform/db/schema';
+import { newId } from '../platform/crypto';
 import type { FeatureKind, FeatureSize } from '$lib/care/kinds';
 import { CareError, type Db, type Tx } from './db';
 

@@ -1,9 +1,9 @@
 // The homeowner's private care links: 160-bit tokens, only their SHA-256 stored. A property
 // link opens the care page (offer, sign-up, payment, cancel); a visit link opens one visit.
 import { eq } from 'drizzle-orm';
-import { db } from '../db';
-import { careLinks } from '../db/schema';
-import { newToken, sha256 } from '../crypto';
+import { db } from '../platform/db';
+import { careLinks } from '../platform/db/schema';
+import { newToken, sha256 } from '../platform/crypto';
 import type { Db } from './db';
 
 export async function newCareLink(

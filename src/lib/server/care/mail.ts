@@ -1,8 +1,8 @@
 // The e-mails of seasonal care: the plan offer, the sign-up confirmation, the renewal reminder,
 // the visit date, a request for another date (to the office), the visit report. Plain text
 // first, the same words in HTML (no remote images).
-import { htmlBody } from '../mail';
-import type { Settings } from '../db/schema';
+import { htmlBody } from '../platform/mail';
+import type { Settings } from '../platform/db/schema';
 import { formatCents } from '../payments/ledger';
 
 export interface Built {

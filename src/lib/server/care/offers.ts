@@ -1,11 +1,11 @@
 // The plan offer: an e-mail with the property's private care link, sent by staff from the
 // property page or in place of the old seasonal reminder for homeowners without a plan.
 import { and, eq } from 'drizzle-orm';
-import { db } from '../db';
-import { carePlans, serviceVisits } from '../db/schema';
-import { newId } from '../crypto';
-import { origin } from '../env';
-import { writeMail } from '../outbox';
+import { db } from '../platform/db';
+import { carePlans, serviceVisits } from '../platform/db/schema';
+import { newId } from '../platform/crypto';
+import { origin } from '../platform/env';
+import { writeMail } from '../platform/outbox';
 import { firmOn } from '../payments/mail';
 import { dispatchAll } from '../payments/ledger';
 import { FEATURE_LABELS, quotePlan, type FeatureKind, type FeatureSize } from '$lib/care/kinds';

@@ -3,12 +3,12 @@
 // sizes); the photos table holds them (context 'feature' or 'service') and a join row ties
 // each to its feature or visit.
 import { asc, eq, inArray } from 'drizzle-orm';
-import { db } from '../db';
-import { featurePhotos, photos, serviceVisitPhotos } from '../db/schema';
-import { newId } from '../crypto';
-import { processPhoto } from '../images';
-import { photoLinks } from '../photo-links';
-import { getObject, putObject, randomKey } from '../storage';
+import { db } from '../platform/db';
+import { featurePhotos, photos, serviceVisitPhotos } from '../platform/db/schema';
+import { newId } from '../platform/crypto';
+import { processPhoto } from '../platform/images';
+import { photoLinks } from '../photos/links';
+import { getObject, putObject, randomKey } from '../platform/storage';
 
 /** Processes and stores one photo; throws PhotoError or StorageUnavailableError. */
 export async function storeCarePhoto(

@@ -1,8 +1,8 @@
 // The owner's care plans and the season settings (windows, the crews' yard, travel speed).
 import { asc, eq } from 'drizzle-orm';
-import { db } from '../db';
-import { carePlans, careSeasonSettings, type CarePlan } from '../db/schema';
-import { newId } from '../crypto';
+import { db } from '../platform/db';
+import { carePlans, careSeasonSettings, type CarePlan } from '../platform/db/schema';
+import { newId } from '../platform/crypto';
 import type { PlanInput } from '$lib/schema/care';
 import { SEASON_DEFAULTS } from '$lib/care/seasons';
 import type { PriceTable } from '$lib/care/kinds';

@@ -3,7 +3,7 @@
 // proposed schedule (the pure planner in $lib/care/route), moves by the owner, and the mail
 // that tells each homeowner their date with a link to ask for another.
 import { and, asc, eq, gte, inArray, isNotNull, isNull, lte, ne, or, sql } from 'drizzle-orm';
-import { db } from '../db';
+import { db } from '../platform/db';
 import {
 	careCrewDays,
 	carePlans,
@@ -15,13 +15,13 @@ import {
 	serviceVisits,
 	users,
 	type CareCrewDay
-} from '../db/schema';
-import { newId, sha256 } from '../crypto';
-import { origin } from '../env';
-import { writeMail } from '../outbox';
+} from '../platform/db/schema';
+import { newId, sha256 } from '../platform/crypto';
+import { origin } from '../platform/env';
+import { writeMail } from '../platform/outbox';
 import { firmOn } from '../payments/mail';
 import { dispatchAll } from '../payments/ledger';
-import { firmSettings } from '../settings';
+import { firmSettings } from '../platform/settings';
 import {
 	VISIT_LABELS,
 	VISIT_SEASON,

@@ -3,7 +3,7 @@
 // a short report to the homeowner (photos attached, a pay link where the plan bills per visit),
 // the visit's invoice, and the homeowner's request for another day.
 import { and, asc, eq, gte, lte, ne, sql } from 'drizzle-orm';
-import { db } from '../db';
+import { db } from '../platform/db';
 import {
 	contacts,
 	priceListItems,
@@ -12,15 +12,15 @@ import {
 	serviceVisitParts,
 	serviceVisits,
 	type ServiceVisit
-} from '../db/schema';
-import { newId } from '../crypto';
-import { origin } from '../env';
-import { writeMail } from '../outbox';
+} from '../platform/db/schema';
+import { newId } from '../platform/crypto';
+import { origin } from '../platform/env';
+import { writeMail } from '../platform/outbox';
 import { firmOn } from '../payments/mail';
 import { CURRENCY, dispatchAll } from '../payments/ledger';
 import { createCheckout, paymentsClient } from '../payments/provider';
-import { careCheckouts } from '../db/schema';
-import type { SessionUser } from '../auth';
+import { careCheckouts } from '../platform/db/schema';
+import type { SessionUser } from '../auth/sessions';
 import { VISIT_LABELS, type VisitKind } from '$lib/care/kinds';
 import { CareError } from './db';
 import { addressOf } from './features';

@@ -4,19 +4,19 @@
 // Everything goes through the property's private link.
 import { and, desc, eq, inArray, isNull } from 'drizzle-orm';
 import type Stripe from 'stripe';
-import { db } from '../db';
+import { db } from '../platform/db';
 import {
 	careCheckouts,
 	carePlans,
 	careSubscriptions,
 	serviceVisits,
 	type CareSubscription
-} from '../db/schema';
-import { newId } from '../crypto';
-import { origin } from '../env';
-import { writeMail } from '../outbox';
-import { defineJob, enqueue } from '../queue';
-import { firmSettings } from '../settings';
+} from '../platform/db/schema';
+import { newId } from '../platform/crypto';
+import { origin } from '../platform/env';
+import { writeMail } from '../platform/outbox';
+import { defineJob, enqueue } from '../platform/queue';
+import { firmSettings } from '../platform/settings';
 import { firmOn } from '../payments/mail';
 import { CURRENCY, dispatchAll } from '../payments/ledger';
 import { createCheckout, paymentsClient } from '../payments/provider';

@@ -2,7 +2,7 @@
 // finished jobs that used it, a proposed corrected setting, and the owner's confirmation (the
 // setting changes in the estimating settings and the change is kept in labor_rate_changes).
 import { desc, eq, inArray, isNotNull, and } from 'drizzle-orm';
-import { db } from '../db';
+import { db } from '../platform/db';
 import {
 	estimatingSettings,
 	jobTasks,
@@ -10,9 +10,9 @@ import {
 	laborRateChanges,
 	timeEntries,
 	users
-} from '../db/schema';
-import { newId } from '../crypto';
-import type { SessionUser } from '../auth';
+} from '../platform/db/schema';
+import { newId } from '../platform/crypto';
+import type { SessionUser } from '../auth/sessions';
 import { settingsSchema } from '$lib/estimating/schema';
 import {
 	learnedRatios,

@@ -1,11 +1,12 @@
 // What really went into a job: material quantities picked and returned, the supplier's invoice
 // cost of a line, and costs outside labor and materials (a machine hired, a dump fee).
 import { and, eq } from 'drizzle-orm';
-import { db } from '../db';
-import { jobCosts, jobMaterials, materialUsage } from '../db/schema';
-import { newId } from '../crypto';
-import type { SessionUser } from '../auth';
-import { jobFor, JobError } from '../jobsite';
+import { db } from '../platform/db';
+import { jobCosts, jobMaterials, materialUsage } from '../platform/db/schema';
+import { newId } from '../platform/crypto';
+import type { SessionUser } from '../auth/sessions';
+import { jobFor } from '../jobs/read';
+import { JobError } from '../jobs/errors';
 
 export async function saveUsage(
 	user: SessionUser,

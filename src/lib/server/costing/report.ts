@@ -1,7 +1,7 @@
 // The job costing page's figures and the completed jobs' margins: rows gathered here, the
 // arithmetic in $lib/costing/profit (pure, tested against a hand-worked job).
 import { and, asc, eq, inArray, isNotNull } from 'drizzle-orm';
-import { db } from '../db';
+import { db } from '../platform/db';
 import {
 	contacts,
 	costingSettings,
@@ -12,8 +12,9 @@ import {
 	materialUsage,
 	timeEntries,
 	type Job
-} from '../db/schema';
-import { includedBuckets, jobBalance } from '../jobsite';
+} from '../platform/db/schema';
+import { includedBuckets } from '../jobs/materials';
+import { jobBalance } from '../payments/balance';
 import { jobCosting, type Costing } from '$lib/costing/profit';
 import { ensureJobTasks } from './tasks';
 import { receivedCosts } from '../purchasing/orders';
@@ -128,8 +129,9 @@ export async function costingOf(job: Job) {
 	// What a received purchase order cost stands in for the invoice until one is typed.
 	const receivedOf = new Map<string, number>();
 	for (const r of received) {
-		if (r.costCents !== null)
-			{receivedOf.set(r.materialId, (receivedOf.get(r.materialId) ?? 0) + r.costCents);}
+		if (r.costCents !== null) {
+			receivedOf.set(r.materialId, (receivedOf.get(r.materialId) ?? 0) + r.costCents);
+		}
 	}
 	const estCost = estimatedCosts(job, materials);
 	const usageOf = new Map(usage.map((u) => [u.materialId, u]));

@@ -1,18 +1,19 @@
 // A job's labor lines: the sold estimate's tasks for the parts the homeowner bought (merged by
-// name, each with the task-hours setting it was priced from), plus tasks the crew added on site.
+// name, each with the labor rate it was timed from), plus tasks the crew added on site.
 // Written the first time anyone asks, so jobs sold before time keeping began get theirs too.
 import { and, asc, eq, max } from 'drizzle-orm';
-import { db } from '../db';
-import { estimates, jobTasks, type Job, type JobTask } from '../db/schema';
-import { newId } from '../crypto';
-import { includedBuckets } from '../jobsite';
-import { rateKeyOf } from '$lib/costing/rates';
+import { db } from '../platform/db';
+import { estimates, jobTasks, type Job, type JobTask } from '../platform/db/schema';
+import { newId } from '../platform/crypto';
+import { includedBuckets } from '../jobs/materials';
+import { rateKeyOf, type RateKey } from '$lib/costing/rates';
 
 type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
 type Db = Tx | typeof db;
 
 interface StoredTask {
 	bucket?: string;
+	key?: string;
 	task?: string;
 	hours?: number;
 }
@@ -21,17 +22,19 @@ interface StoredTask {
 export function soldTasks(
 	result: Record<string, unknown> | null,
 	choices: Job['frozen']['choices']
-): { name: string; hours: number }[] {
+): { name: string; hours: number; rateKey: RateKey | null }[] {
 	const stored = (result ?? {}) as { engine?: { labor?: { tasks?: StoredTask[] } } };
 	const list = stored.engine?.labor?.tasks;
 	if (!Array.isArray(list)) return [];
 	const included = includedBuckets(choices);
-	const merged = new Map<string, number>();
+	const merged = new Map<string, { hours: number; rateKey: RateKey | null }>();
 	for (const t of list) {
 		if (!t.task || !(Number(t.hours) > 0) || !included.has(t.bucket ?? 'base')) continue;
-		merged.set(t.task, (merged.get(t.task) ?? 0) + Number(t.hours));
+		const acc = merged.get(t.task) ?? { hours: 0, rateKey: rateKeyOf(t) };
+		acc.hours += Number(t.hours);
+		merged.set(t.task, acc);
 	}
-	return [...merged].map(([name, hours]) => ({ name, hours }));
+	return [...merged].map(([name, v]) => ({ name, ...v }));
 }
 
 /** The job's tasks, writing the estimate's the first time (safe under concurrent first reads). */
@@ -55,7 +58,7 @@ export async function ensureJobTasks(job: Job, tx: Db = db): Promise<JobTask[]> 
 				id: newId(),
 				jobId: job.id,
 				name: t.name,
-				rateKey: rateKeyOf(t.name),
+				rateKey: t.rateKey,
 				estimatedHours: t.hours,
 				sortOrder: i
 			}))

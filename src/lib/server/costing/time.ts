@@ -1,11 +1,11 @@
 // Time on site: the entries a crew lead's phone sends, each stored once however often it is
 // sent (the entry's client key is unique; a replay finds the stored row and answers the same).
 import { and, asc, eq, inArray } from 'drizzle-orm';
-import { db } from '../db';
-import { jobTasks, timeEntries, users } from '../db/schema';
-import { newId } from '../crypto';
-import type { SessionUser } from '../auth';
-import { jobFor } from '../jobsite';
+import { db } from '../platform/db';
+import { jobTasks, timeEntries, users } from '../platform/db/schema';
+import { newId } from '../platform/crypto';
+import type { SessionUser } from '../auth/sessions';
+import { jobFor } from '../jobs/read';
 import { fieldErrors } from '$lib/schema/auth';
 import { timeEntrySchema } from '$lib/schema/costing';
 import { ensureJobTasks, taskNamed } from './tasks';

@@ -4,8 +4,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Readable } from 'node:stream';
 import type { Handle } from '@sveltejs/kit';
-import { bodyLimitFor, SPOOL_ABOVE, type BodyLimit } from '../body-limits';
-import { requestPath } from '../request-path';
+import { bodyLimitFor, SPOOL_ABOVE, type BodyLimit } from '../http/body-limits';
+import { requestPath } from '../http/request-path';
 import { refusal } from './refusal';
 
 /** How long the rest of a refused body is read and dropped, so the client can read the 413. */

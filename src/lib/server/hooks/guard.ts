@@ -1,6 +1,6 @@
 import type { Handle } from '@sveltejs/kit';
-import { isGuarded, rolesFor } from '../access';
-import { requestPath } from '../request-path';
+import { isGuarded, rolesFor } from '../auth/access';
+import { requestPath } from '../http/request-path';
 import { refusal } from './refusal';
 
 const HINT =

@@ -1,7 +1,7 @@
 import type { Handle } from '@sveltejs/kit';
 import { building } from '$app/environment';
 import { refusal } from './refusal';
-import { ENCODED_SEPARATOR, requestPath } from '../request-path';
+import { ENCODED_SEPARATOR, requestPath } from '../http/request-path';
 
 // C0 control characters (NUL, tab, CR, LF, …) and DEL. No query parameter of this app carries
 // them legitimately, and a CR/LF in one could end up in a header, a log line or a CSV cell.

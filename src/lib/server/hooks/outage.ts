@@ -1,5 +1,5 @@
 import type { Handle, HandleServerError } from '@sveltejs/kit';
-import { isDatabaseUnavailable, outagePage } from '../outage';
+import { isDatabaseUnavailable, outagePage } from '../platform/outage';
 
 const OUTAGE = Symbol('database unavailable');
 type Flagged = { [OUTAGE]?: boolean };

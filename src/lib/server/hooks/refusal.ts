@@ -1,4 +1,4 @@
-import { escapeHtml } from '../mail';
+import { escapeHtml } from '../platform/mail';
 
 /**
  * A plain refusal from a hook: JSON for the API, a small page otherwise. Hooks answer with

@@ -1,6 +1,6 @@
 import type { Handle } from '@sveltejs/kit';
-import { blankSessionCookie, sessionCookieName, validateSessionToken } from '../auth';
-import { isDatabaseUnavailable, outagePage } from '../outage';
+import { blankSessionCookie, sessionCookieName, validateSessionToken } from '../auth/sessions';
+import { isDatabaseUnavailable, outagePage } from '../platform/outage';
 
 /** Looks the session up once per request and puts the user in locals. */
 export const handleSession: Handle = async ({ event, resolve }) => {

@@ -1,10 +1,10 @@
 // The office's list of open balances: every job that owes something now (a deposit not yet
 // received, or the balance of a complete job), overdue first, most overdue at the top.
 import { and, desc, eq, inArray } from 'drizzle-orm';
-import { db } from '../db';
-import { contacts, invoices, jobs, type Job } from '../db/schema';
+import { db } from '../platform/db';
+import { contacts, invoices, jobs, type Job } from '../platform/db/schema';
 import { addDays, calendarDate, todayIn } from '$lib/scheduling/zone';
-import { firmTimeZone } from '../settings';
+import { firmTimeZone } from '../platform/settings';
 import { DEPOSIT_TERMS_DAYS, FINAL_TERMS_DAYS, jobMoney, type JobMoney } from './ledger';
 
 const DAY = 86_400_000;

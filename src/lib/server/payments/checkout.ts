@@ -3,12 +3,19 @@
 // that turns a paid checkout into a payment, used by the webhook and by the return page.
 import { and, desc, eq } from 'drizzle-orm';
 import type Stripe from 'stripe';
-import { db } from '../db';
-import { checkoutRequests, contacts, estimates, jobs, payLinks, type Job } from '../db/schema';
-import { newId, newToken, sha256 } from '../crypto';
-import { origin } from '../env';
-import { jobRef, type Tx } from '../jobsite';
-import { writeMail } from '../outbox';
+import { db, type Tx } from '../platform/db';
+import {
+	checkoutRequests,
+	contacts,
+	estimates,
+	jobs,
+	payLinks,
+	type Job
+} from '../platform/db/schema';
+import { newId, newToken, sha256 } from '../platform/crypto';
+import { origin } from '../platform/env';
+import { jobRef } from '../jobs/labels';
+import { writeMail } from '../platform/outbox';
 import { createCheckout, paymentsClient } from './provider';
 import {
 	CURRENCY,

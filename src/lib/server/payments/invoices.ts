@@ -3,7 +3,7 @@
 // numbers have no gaps (a Postgres sequence would keep the number it handed out). The counter
 // row's lock also orders concurrent issues.
 import { and, asc, eq, sql } from 'drizzle-orm';
-import { db } from '../db';
+import { db, type Tx } from '../platform/db';
 import {
 	changeOrders,
 	contacts,
@@ -13,12 +13,12 @@ import {
 	type Invoice,
 	type InvoiceKind,
 	type InvoiceSnapshot
-} from '../db/schema';
-import { newId } from '../crypto';
+} from '../platform/db/schema';
+import { newId } from '../platform/crypto';
 import { addDays } from '$lib/scheduling/zone';
-import { firmToday } from '../settings';
+import { firmToday } from '../platform/settings';
 import { firmOn } from './mail';
-import { jobRef, type Tx } from '../jobsite';
+import { jobRef } from '../jobs/labels';
 import { DEPOSIT_TERMS_DAYS, FINAL_TERMS_DAYS, jobMoney, lockJob, paymentsOf } from './ledger';
 
 async function nextNumber(tx: Tx): Promise<number> {

@@ -2,8 +2,8 @@
 // what is due now, and what a payment changes (the deposit makes the job ready to schedule;
 // the balance paid on a complete job moves it to paid). Every write locks the job row first,
 // so two payments recorded at once cannot both pass the balance check.
-import { asc, desc, eq, sql } from 'drizzle-orm';
-import { db } from '../db';
+import { asc, desc, eq } from 'drizzle-orm';
+import { db, type Db, type Tx } from '../platform/db';
 import {
 	contacts,
 	jobs,
@@ -11,15 +11,15 @@ import {
 	type Job,
 	type PaymentKind,
 	type PaymentMethod
-} from '../db/schema';
-import { newId } from '../crypto';
-import { firmToday } from '../settings';
-import { addActivity, jobBalance, jobRef, type Tx } from '../jobsite';
-import { writeMail, dispatchMail } from '../outbox';
+} from '../platform/db/schema';
+import { newId } from '../platform/crypto';
+import { firmToday } from '../platform/settings';
+import { addActivity } from '../leads/timeline';
+import { jobBalance, paymentsReceivedCents } from './balance';
+import { jobRef } from '../jobs/labels';
+import { writeMail, dispatchMail } from '../platform/outbox';
 import { receiptMail } from './mail';
-import type { SessionUser } from '../auth';
-
-type Db = Tx | typeof db;
+import type { SessionUser } from '../auth/sessions';
 
 export const CURRENCY = (process.env.PAYMENTS_CURRENCY ?? 'usd').toLowerCase();
 /** Days after acceptance (deposit) or completion (balance) before a payment counts as overdue. */
@@ -40,14 +40,6 @@ export class PaymentError extends Error {
 		super(message);
 		this.name = 'PaymentError';
 	}
-}
-
-export async function paymentsReceivedCents(jobId: string, tx: Db = db): Promise<number> {
-	const [row] = await tx
-		.select({ sum: sql<number>`coalesce(sum(${payments.amountCents}), 0)::int` })
-		.from(payments)
-		.where(eq(payments.jobId, jobId));
-	return row.sum;
 }
 
 export type Due = { kind: 'deposit' | 'final'; amountCents: number } | null;

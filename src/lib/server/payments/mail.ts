@@ -1,13 +1,13 @@
 // The e-mails payments send: the homeowner's receipt (or refund note), the pay link, and a
 // notice to the office when a provider event needs a person (amount mismatch, unknown checkout,
 // a payment larger than what was owed).
-import { escapeHtml, htmlBody } from '../mail';
+import { escapeHtml, htmlBody } from '../platform/mail';
 import { eq } from 'drizzle-orm';
-import { db } from '../db';
-import { settings } from '../db/schema';
-import { origin } from '../env';
-import { jobRef } from '../jobsite';
-import type { Job, PaymentMethod, Settings } from '../db/schema';
+import { db } from '../platform/db';
+import { settings } from '../platform/db/schema';
+import { origin } from '../platform/env';
+import { jobRef } from '../jobs/labels';
+import type { Job, PaymentMethod, Settings } from '../platform/db/schema';
 
 type Db = Pick<typeof db, 'select'>;
 

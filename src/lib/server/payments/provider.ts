@@ -2,7 +2,7 @@
 // stand-in (host, port, protocol from the environment); with real keys and no overrides it
 // talks to the provider itself, with no code change.
 import Stripe from 'stripe';
-import { env, requireSecret } from '../env';
+import { env, requireSecret } from '../platform/env';
 
 let client: Stripe | null = null;
 

@@ -1,9 +1,9 @@
 // What the homeowner's pages show: the job, what is due now, payments received, invoices.
 import { eq } from 'drizzle-orm';
-import { db } from '../db';
-import { contacts, type Job } from '../db/schema';
-import { firmSettings } from '../settings';
-import { jobRef } from '../jobsite';
+import { db } from '../platform/db';
+import { contacts, type Job } from '../platform/db/schema';
+import { firmSettings } from '../platform/settings';
+import { jobRef } from '../jobs/labels';
 import { jobMoney, paymentsOf } from './ledger';
 import { ensureInvoice, invoicesOf } from './invoices';
 

@@ -4,8 +4,8 @@
 // the whole event back and answers 500, so the provider sends it again.
 import { eq } from 'drizzle-orm';
 import type Stripe from 'stripe';
-import { db } from '../db';
-import { paymentEvents } from '../db/schema';
+import { db } from '../platform/db';
+import { paymentEvents } from '../platform/db/schema';
 import { verifyWebhook } from './provider';
 import { expireInTx, fulfilInTx } from './checkout';
 import { dispatchAll } from './ledger';

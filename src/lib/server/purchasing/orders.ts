@@ -3,7 +3,7 @@
 // is pressed), and received with the quantities and cost that came. A job whose orders will not
 // arrive before its first install day is flagged on the jobs calendar.
 import { and, asc, eq, inArray, isNull, notInArray, sql } from 'drizzle-orm';
-import { db } from '../db';
+import { db } from '../platform/db';
 import {
 	itemSuppliers,
 	jobDays,
@@ -15,14 +15,16 @@ import {
 	purchaseOrderLines,
 	purchaseOrders,
 	suppliers
-} from '../db/schema';
-import { newId } from '../crypto';
-import type { SessionUser } from '../auth';
-import { jobFor, JobError, jobRef } from '../jobsite';
-import { firmSettings } from '../settings';
-import { dispatchMail, writeMail } from '../outbox';
-import { htmlBody } from '../mail';
-import { money } from '../job-mail';
+} from '../platform/db/schema';
+import { newId } from '../platform/crypto';
+import type { SessionUser } from '../auth/sessions';
+import { jobFor } from '../jobs/read';
+import { JobError } from '../jobs/errors';
+import { jobRef } from '../jobs/labels';
+import { firmSettings } from '../platform/settings';
+import { dispatchMail, writeMail } from '../platform/outbox';
+import { htmlBody } from '../platform/mail';
+import { money } from '../jobs/mail';
 import { arrivesLate, draftOrders, orderTotal } from '$lib/purchasing/orders';
 import { purchaseOrderPdf } from './pdf';
 

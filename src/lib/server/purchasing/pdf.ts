@@ -2,7 +2,7 @@
 // firm, the order number, the job and where to deliver, the expected date and the delivery
 // note, each line with its quantity, cost and extension, and the total.
 import { PDFDocument, StandardFonts, rgb, type PDFFont, type PDFPage } from 'pdf-lib';
-import { money } from '../job-mail';
+import { money } from '../jobs/mail';
 
 export interface OrderDocument {
 	firm: { name: string; phone: string; email: string };

@@ -1,6 +1,6 @@
 import { fail } from '@sveltejs/kit';
 import { fieldErrors, forgotSchema, formValues, type FormErrors } from '$lib/schema/auth';
-import { requestPasswordReset } from '$lib/server/team';
+import { requestPasswordReset } from '$lib/server/auth/team';
 import type { Actions } from './$types';
 
 export const actions: Actions = {

@@ -1,8 +1,8 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { fieldErrors, formValues, signInSchema, type FormErrors } from '$lib/schema/auth';
-import { safeNext } from '$lib/server/redirects';
-import { DEVICE_COOKIE, setDeviceCookie } from '$lib/server/device';
-import { attemptSignIn, startSession } from '$lib/server/signin';
+import { safeNext } from '$lib/server/http/redirects';
+import { DEVICE_COOKIE, setDeviceCookie } from '$lib/server/auth/device';
+import { attemptSignIn, startSession } from '$lib/server/auth/signin';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = ({ locals, url }) => {

@@ -1,5 +1,5 @@
 import { redirect } from '@sveltejs/kit';
-import { blankSessionCookie, endSession } from '$lib/server/auth';
+import { blankSessionCookie, endSession } from '$lib/server/auth/sessions';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = () => redirect(303, '/office');

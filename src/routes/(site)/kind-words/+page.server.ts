@@ -1,4 +1,4 @@
-import { approvedTestimonials } from '$lib/server/testimonials';
+import { approvedTestimonials } from '$lib/server/jobs/testimonials';
 import type { PageServerLoad } from './$types';
 
 // Server-rendered (the words change when the owner approves one), cached briefly at the edge.

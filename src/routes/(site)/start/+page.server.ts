@@ -1,7 +1,9 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { projectBySlug } from '$lib/content';
 import { inquiryValues } from '$lib/schema/intake';
-import { formStamp, inquiryLimiter, receiveInquiry, thanksPath } from '$lib/server/intake';
+import { formStamp, thanksPath } from '$lib/server/leads/intake/stamp';
+import { inquiryLimiter } from '$lib/server/leads/intake/limits';
+import { receiveInquiry } from '$lib/server/leads/intake/form';
 import type { Actions, PageServerLoad } from './$types';
 
 export const prerender = false;

@@ -1,5 +1,5 @@
 import { json } from '@sveltejs/kit';
-import { client } from '$lib/server/db';
+import { client } from '$lib/server/platform/db';
 import type { RequestHandler } from './$types';
 
 /** For a load balancer or a person: is this process able to reach its database? (public) */

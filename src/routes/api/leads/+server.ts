@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { parseLeadQuery } from '$lib/schema/leads';
-import { requireRole } from '$lib/server/access';
-import { listLeads } from '$lib/server/leads';
+import { requireRole } from '$lib/server/auth/access';
+import { listLeads } from '$lib/server/leads/leads';
 import type { RequestHandler } from './$types';
 
 /** The office leads table: one page of rows, the total and the count per stage. */

@@ -3,8 +3,9 @@
 // The role table lists this path as public; abuse is held back by a per-address rate limit.
 import { error, json } from '@sveltejs/kit';
 import { PHOTO_LIMITS } from '$lib/schema/intake';
-import { bodyLimitFor } from '$lib/server/body-limits';
-import { deleteDraft, uploadDraft, uploadLimiter } from '$lib/server/intake';
+import { bodyLimitFor } from '$lib/server/http/body-limits';
+import { deleteDraft, uploadDraft } from '$lib/server/leads/intake/drafts';
+import { uploadLimiter } from '$lib/server/leads/intake/limits';
 import type { RequestHandler } from './$types';
 
 /** What the upload accepts, for clients that want to check before sending. */

@@ -1,8 +1,8 @@
 import { error, fail } from '@sveltejs/kit';
 import { fieldErrors, formValues } from '$lib/schema/auth';
 import { availabilitySchema, timeOffSchema } from '$lib/schema/visits';
-import { requireRole } from '$lib/server/access';
-import type { SessionUser } from '$lib/server/auth';
+import { requireRole } from '$lib/server/auth/access';
+import type { SessionUser } from '$lib/server/auth/sessions';
 import {
 	addTimeOff,
 	listTimeOff,
@@ -10,7 +10,7 @@ import {
 	rulesFor,
 	salespeople,
 	saveAvailability
-} from '$lib/server/visits';
+} from '$lib/server/visits/availability';
 import { hoursFromForm, overlapErrors } from './hours';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 

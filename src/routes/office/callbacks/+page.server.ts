@@ -1,7 +1,7 @@
 import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
-import { requireRole } from '$lib/server/access';
-import { jobAction } from '$lib/server/job-http';
+import { requireRole } from '$lib/server/auth/access';
+import { jobAction } from '$lib/server/jobs/http';
 import { finishedJobs, listCallbacks, sendCallbackLink } from '$lib/server/callbacks/callbacks';
 import type { Actions, PageServerLoad } from './$types';
 

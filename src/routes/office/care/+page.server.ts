@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { requireRole } from '$lib/server/access';
+import { requireRole } from '$lib/server/auth/access';
 import { findProperties } from '$lib/server/care/features';
 import { listPlans } from '$lib/server/care/plans';
 import type { PageServerLoad } from './$types';

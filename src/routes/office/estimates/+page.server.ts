@@ -1,7 +1,7 @@
 import { z } from 'zod';
-import { requireRole } from '$lib/server/access';
-import { estimateStatusEnum } from '$lib/server/db/schema';
-import { listEstimates } from '$lib/server/estimates';
+import { requireRole } from '$lib/server/auth/access';
+import { estimateStatusEnum } from '$lib/server/platform/db/schema';
+import { listEstimates } from '$lib/server/estimates/records';
 import type { PageServerLoad } from './$types';
 
 // An unknown status in the address lists every estimate rather than none.

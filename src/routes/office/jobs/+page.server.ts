@@ -1,8 +1,8 @@
 import { addDays, todayIn } from '$lib/scheduling/zone';
 import { dateSchema } from '$lib/schema/visits';
-import { requireRole } from '$lib/server/access';
-import { installDays, listJobs } from '$lib/server/jobsite';
-import { firmSettings } from '$lib/server/settings';
+import { requireRole } from '$lib/server/auth/access';
+import { installDays, listJobs } from '$lib/server/jobs/read';
+import { firmSettings } from '$lib/server/platform/settings';
 import { lateMaterials } from '$lib/server/purchasing/orders';
 import type { PageServerLoad } from './$types';
 

@@ -1,6 +1,6 @@
-import { requireRole } from '$lib/server/access';
-import { assignableStaff } from '$lib/server/leads';
-import { firmSettings } from '$lib/server/settings';
+import { requireRole } from '$lib/server/auth/access';
+import { assignableStaff } from '$lib/server/leads/leads';
+import { firmSettings } from '$lib/server/platform/settings';
 import type { PageServerLoad } from './$types';
 
 // The rows themselves are fetched by the page from /api/leads, driven by the URL.

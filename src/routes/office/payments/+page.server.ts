@@ -1,4 +1,4 @@
-import { requireRole } from '$lib/server/access';
+import { requireRole } from '$lib/server/auth/access';
 import { openBalances } from '$lib/server/payments/balances';
 import { recentPayments } from '$lib/server/payments/ledger';
 import type { PageServerLoad } from './$types';

@@ -1,9 +1,9 @@
 import { fail } from '@sveltejs/kit';
 import { asc } from 'drizzle-orm';
 import { fieldErrors, formValues } from '$lib/schema/auth';
-import { requireRole } from '$lib/server/access';
-import { db } from '$lib/server/db';
-import { laborRates, pumpModels } from '$lib/server/db/schema';
+import { requireRole } from '$lib/server/auth/access';
+import { db } from '$lib/server/platform/db';
+import { laborRates, pumpModels } from '$lib/server/platform/db/schema';
 import {
 	estimatingConfig,
 	laborFormSchema,
@@ -14,9 +14,9 @@ import {
 	saveLaborRate,
 	savePump,
 	settingsFormSchema
-} from '$lib/server/pricelist';
-import { taskHours } from '$lib/server/pricelist-csv';
-import { itemFormSchema, saveItem } from '$lib/server/pricelist-item-form';
+} from '$lib/server/pricelist/catalog';
+import { taskHours } from '$lib/server/pricelist/csv';
+import { itemFormSchema, saveItem } from '$lib/server/pricelist/item-form';
 import { confirmRateSchema } from '$lib/schema/costing';
 import {
 	confirmRate,

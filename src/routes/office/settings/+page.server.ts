@@ -1,7 +1,7 @@
 import { fail } from '@sveltejs/kit';
 import { fieldErrors, formValues } from '$lib/schema/auth';
-import { requireRole } from '$lib/server/access';
-import { firmSettings, saveSettings, settingsSchema } from '$lib/server/settings';
+import { requireRole } from '$lib/server/auth/access';
+import { firmSettings, saveSettings, settingsSchema } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {

@@ -7,7 +7,7 @@ import {
 	roleSchema,
 	type FormErrors
 } from '$lib/schema/auth';
-import { requireRole } from '$lib/server/access';
+import { requireRole } from '$lib/server/auth/access';
 import {
 	changeRole,
 	invite,
@@ -15,7 +15,7 @@ import {
 	pendingInvitations,
 	setDisabled,
 	TeamError
-} from '$lib/server/team';
+} from '$lib/server/auth/team';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {

@@ -1,7 +1,8 @@
-import { requireRole } from '$lib/server/access';
+import { requireRole } from '$lib/server/auth/access';
 import { addDays, isDate, zonedInstant } from '$lib/scheduling/zone';
-import { agendaThumbs } from '$lib/server/visit-photos';
-import { agenda, localDate, salespeople } from '$lib/server/visits';
+import { agendaThumbs } from '$lib/server/photos/visit-photos';
+import { agenda, localDate } from '$lib/server/visits/agenda';
+import { salespeople } from '$lib/server/visits/availability';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {

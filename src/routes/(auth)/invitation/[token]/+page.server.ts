@@ -1,7 +1,7 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { fieldErrors, setPasswordSchema, type FormErrors } from '$lib/schema/auth';
-import { acceptInvitation, findOpenInvitation, roleLabel } from '$lib/server/team';
-import { startSession } from '$lib/server/signin';
+import { acceptInvitation, findOpenInvitation, roleLabel } from '$lib/server/auth/team';
+import { startSession } from '$lib/server/auth/signin';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {

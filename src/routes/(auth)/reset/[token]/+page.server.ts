@@ -1,6 +1,6 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { fieldErrors, setPasswordSchema, type FormErrors } from '$lib/schema/auth';
-import { completePasswordReset, findOpenReset } from '$lib/server/team';
+import { completePasswordReset, findOpenReset } from '$lib/server/auth/team';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => ({

@@ -2,8 +2,8 @@ import { error, fail } from '@sveltejs/kit';
 import { fieldErrors } from '$lib/schema/auth';
 import { reportSchema } from '$lib/schema/callbacks';
 import { PHOTO_LIMITS } from '$lib/schema/intake';
-import { PhotoError } from '$lib/server/images';
-import { StorageUnavailableError } from '$lib/server/storage';
+import { PhotoError } from '$lib/server/platform/images';
+import { StorageUnavailableError } from '$lib/server/platform/storage';
 import {
 	callbackPage,
 	CallbackInputError,

@@ -5,7 +5,7 @@ import {
 	changeOrderForHomeowner,
 	decideChangeOrder,
 	DecisionError
-} from '$lib/server/change-orders';
+} from '$lib/server/jobs/change-orders';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {

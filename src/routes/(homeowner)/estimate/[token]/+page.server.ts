@@ -2,16 +2,12 @@ import { error, fail } from '@sveltejs/kit';
 import { fieldErrors } from '$lib/schema/auth';
 import { acceptSchema, declineSchema, questionSchema } from '$lib/schema/estimates';
 import { HOMEOWNER_CAUTIONS } from '$lib/components/estimates/labels';
-import {
-	acceptEstimate,
-	homeownerMessage,
-	leadWithContact,
-	openByToken
-} from '$lib/server/estimates';
+import { acceptEstimate, homeownerMessage, openByToken } from '$lib/server/estimates/homeowner';
+import { leadWithContact } from '$lib/server/estimates/records';
 import { readDesign } from '$lib/estimating';
-import { yardPhotos } from '$lib/server/estimate-photos';
-import { estimatingConfig } from '$lib/server/pricelist';
-import { firmSettings } from '$lib/server/settings';
+import { yardPhotos } from '$lib/server/photos/estimate-photos';
+import { estimatingConfig } from '$lib/server/pricelist/catalog';
+import { firmSettings } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad } from './$types';
 
 // The homeowner's private page: no sign-in, the token is the key. Wrong, expired and superseded

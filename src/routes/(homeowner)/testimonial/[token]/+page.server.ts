@@ -1,7 +1,7 @@
 import { error, fail } from '@sveltejs/kit';
 import { fieldErrors, formValues } from '$lib/schema/auth';
 import { testimonialSchema } from '$lib/schema/jobs';
-import { submitTestimonial, testimonialForHomeowner } from '$lib/server/testimonials';
+import { submitTestimonial, testimonialForHomeowner } from '$lib/server/jobs/testimonials';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params }) => {

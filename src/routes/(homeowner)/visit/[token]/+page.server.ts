@@ -7,8 +7,8 @@ import {
 	confirmByHomeowner,
 	requestOtherTime,
 	visitByToken
-} from '$lib/server/visits';
-import { whenText } from '$lib/server/visit-mail';
+} from '$lib/server/visits/homeowner';
+import { whenText } from '$lib/server/visits/mail';
 import type { Actions, PageServerLoad } from './$types';
 
 // The homeowner's private page: no sign-in; the token in the address is the key (stored hashed).

@@ -1,4 +1,4 @@
-import { verifyThanks } from '$lib/server/intake';
+import { verifyThanks } from '$lib/server/leads/intake/stamp';
 import type { PageServerLoad } from './$types';
 
 // Server-rendered (the number comes from the signed link) and shipped with no JavaScript.

@@ -1,6 +1,7 @@
 import { error, json } from '@sveltejs/kit';
-import { requireRole } from '$lib/server/access';
-import { getEstimate, saveEstimate } from '$lib/server/estimates';
+import { requireRole } from '$lib/server/auth/access';
+import { getEstimate } from '$lib/server/estimates/records';
+import { saveEstimate } from '$lib/server/estimates/versions';
 import { saveEstimateSchema } from '$lib/schema/estimates';
 import type { RequestHandler } from './$types';
 

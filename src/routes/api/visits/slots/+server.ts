@@ -1,8 +1,8 @@
 import { error, json } from '@sveltejs/kit';
 import { fieldErrors } from '$lib/schema/auth';
 import { slotsQuerySchema } from '$lib/schema/visits';
-import { requireRole } from '$lib/server/access';
-import { slotsFor } from '$lib/server/visits';
+import { requireRole } from '$lib/server/auth/access';
+import { slotsFor } from '$lib/server/visits/slots';
 import type { RequestHandler } from './$types';
 
 /** Free start times of one salesperson between two local dates (inclusive), in the firm's zone. */

@@ -1,4 +1,4 @@
-import { requireRole } from '$lib/server/access';
+import { requireRole } from '$lib/server/auth/access';
 import { feedMadeAt, resetFeed } from '$lib/server/care/calendar';
 import type { Actions, PageServerLoad } from './$types';
 

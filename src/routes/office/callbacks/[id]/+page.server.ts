@@ -5,12 +5,12 @@ import {
 	closeCallbackSchema,
 	scheduleCallbackSchema
 } from '$lib/schema/callbacks';
-import { requireRole } from '$lib/server/access';
-import { jobAction, orHttp } from '$lib/server/job-http';
-import { crewLeads } from '$lib/server/jobsite';
-import { photoLinks } from '$lib/server/photo-links';
-import { firmToday } from '$lib/server/settings';
-import { newToken } from '$lib/server/crypto';
+import { requireRole } from '$lib/server/auth/access';
+import { jobAction, orHttp } from '$lib/server/jobs/http';
+import { crewLeads } from '$lib/server/jobs/read';
+import { photoLinks } from '$lib/server/photos/links';
+import { firmToday } from '$lib/server/platform/settings';
+import { newToken } from '$lib/server/platform/crypto';
 import {
 	callbackFor,
 	callbackView,

@@ -4,7 +4,7 @@ import { fieldErrors } from '$lib/schema/auth';
 import { seasonSettingsSchema } from '$lib/schema/care';
 import { parseSeasonKey, SEASON_DEFAULTS } from '$lib/care/seasons';
 import { isDate, parseClock } from '$lib/scheduling/zone';
-import { requireRole } from '$lib/server/access';
+import { requireRole } from '$lib/server/auth/access';
 import { dayIn } from '$lib/server/care/db';
 import { careAction } from '$lib/server/care/http';
 import { saveSeasonSettings, seasonSettings } from '$lib/server/care/plans';
@@ -17,8 +17,8 @@ import {
 	seasonBoard,
 	sendDates
 } from '$lib/server/care/season';
-import { crewLeads } from '$lib/server/jobsite';
-import { firmSettings } from '$lib/server/settings';
+import { crewLeads } from '$lib/server/jobs/read';
+import { firmSettings } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad } from './$types';
 
 /** The season in the address, else the next autumn (the one that matters most before frost). */

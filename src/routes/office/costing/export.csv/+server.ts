@@ -1,6 +1,6 @@
-import { requireRole } from '$lib/server/access';
+import { requireRole } from '$lib/server/auth/access';
 import { completedJobs } from '$lib/server/costing/report';
-import { firmSettings } from '$lib/server/settings';
+import { firmSettings } from '$lib/server/platform/settings';
 import { calendarDate, todayIn } from '$lib/scheduling/zone';
 import { marginsCsv } from '$lib/costing/csv';
 import type { RequestHandler } from './$types';

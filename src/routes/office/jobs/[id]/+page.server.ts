@@ -8,25 +8,32 @@ import {
 	scheduleSchema,
 	sendChangeOrderSchema
 } from '$lib/schema/jobs';
-import { requireRole } from '$lib/server/access';
-import { createChangeOrder, listChangeOrders, sendChangeOrder } from '$lib/server/change-orders';
-import { jobAction, orHttp } from '$lib/server/job-http';
+import { requireRole } from '$lib/server/auth/access';
 import {
-	addPunchItem,
-	attachJobPhoto,
+	createChangeOrder,
+	listChangeOrders,
+	sendChangeOrder
+} from '$lib/server/jobs/change-orders';
+import { jobAction, orHttp } from '$lib/server/jobs/http';
+import { addPunchItem, setMaterialFlag, setPunchDone } from '$lib/server/jobs/checklists';
+import { attachJobPhoto } from '$lib/server/photos/job-photos';
+import {
 	crewConflicts,
 	crewJobView,
 	crewLeads,
-	jobBalance,
 	jobFor,
-	officeJobView,
-	scheduleJob,
-	setMaterialFlag,
-	setPunchDone,
-	setStage
-} from '$lib/server/jobsite';
-import { PhotoError, processPhoto } from '$lib/server/images';
-import { putObject, randomKey, signedUrl, StorageUnavailableError } from '$lib/server/storage';
+	officeJobView
+} from '$lib/server/jobs/read';
+import { jobBalance } from '$lib/server/payments/balance';
+import { scheduleJob } from '$lib/server/jobs/schedule';
+import { setStage } from '$lib/server/jobs/stage';
+import { PhotoError, processPhoto } from '$lib/server/platform/images';
+import {
+	putObject,
+	randomKey,
+	signedUrl,
+	StorageUnavailableError
+} from '$lib/server/platform/storage';
 import type { Actions, PageServerLoad } from './$types';
 
 async function withLinks<T extends { id: string; thumbKey: string; displayKey: string }>(

@@ -2,11 +2,12 @@ import { error, fail, redirect } from '@sveltejs/kit';
 import { eq } from 'drizzle-orm';
 import { fieldErrors, formValues } from '$lib/schema/auth';
 import { saleByHandSchema } from '$lib/schema/jobs';
-import { requireRole } from '$lib/server/access';
-import { db } from '$lib/server/db';
-import { contacts, leads } from '$lib/server/db/schema';
-import { JobError, recordSaleByHand, sellableEstimates } from '$lib/server/jobsite';
-import { firmToday } from '$lib/server/settings';
+import { requireRole } from '$lib/server/auth/access';
+import { db } from '$lib/server/platform/db';
+import { contacts, leads } from '$lib/server/platform/db/schema';
+import { JobError } from '$lib/server/jobs/errors';
+import { recordSaleByHand, sellableEstimates } from '$lib/server/jobs/conversion';
+import { firmToday } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad } from './$types';
 
 // "Mark sold by hand": a yes on signed paper or by phone, recorded by staff; the same conversion.

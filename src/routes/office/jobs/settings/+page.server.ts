@@ -2,9 +2,9 @@ import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
 import { fieldErrors } from '$lib/schema/auth';
 import { careSettingsSchema } from '$lib/schema/jobs';
-import { requireRole } from '$lib/server/access';
-import { careSettings, saveCareSettings } from '$lib/server/care';
-import { setTestimonialApproved, submittedTestimonials } from '$lib/server/testimonials';
+import { requireRole } from '$lib/server/auth/access';
+import { careSettings, saveCareSettings } from '$lib/server/care/reminders';
+import { setTestimonialApproved, submittedTestimonials } from '$lib/server/jobs/testimonials';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {

@@ -10,9 +10,9 @@ import {
 	priorityFormSchema,
 	stageFormSchema
 } from '$lib/schema/leads';
-import { requireRole } from '$lib/server/access';
-import { newToken } from '$lib/server/crypto';
-import { renderTemplates, sendLeadMail, templateContext } from '$lib/server/lead-mail';
+import { requireRole } from '$lib/server/auth/access';
+import { newToken } from '$lib/server/platform/crypto';
+import { renderTemplates, sendLeadMail, templateContext } from '$lib/server/leads/mail';
 import {
 	assignableStaff,
 	assignLead,
@@ -24,16 +24,16 @@ import {
 	logActivity,
 	setPriority,
 	updateDetails
-} from '$lib/server/leads';
-import { firmSettings } from '$lib/server/settings';
+} from '$lib/server/leads/leads';
+import { firmSettings } from '$lib/server/platform/settings';
 import {
 	mergeContacts,
 	MergeError,
 	possibleDuplicates,
 	samePerson
-} from '$lib/server/contact-merge';
-import { signedUrl } from '$lib/server/storage';
-import { visitNotesOfLead } from '$lib/server/visits';
+} from '$lib/server/leads/contact-merge';
+import { signedUrl } from '$lib/server/platform/storage';
+import { visitNotesOfLead } from '$lib/server/visits/notes';
 import type { Actions, PageServerLoad } from './$types';
 
 /** Photo links live five minutes; the page asks for fresh ones when it reloads. */

@@ -1,8 +1,8 @@
 import { error } from '@sveltejs/kit';
 import { parseLeadQuery } from '$lib/schema/leads';
-import { requireRole } from '$lib/server/access';
-import { leadsCsvStream } from '$lib/server/leads-export';
-import { firmSettings } from '$lib/server/settings';
+import { requireRole } from '$lib/server/auth/access';
+import { leadsCsvStream } from '$lib/server/leads/export';
+import { firmSettings } from '$lib/server/platform/settings';
 import { todayIn } from '$lib/scheduling/zone';
 import type { RequestHandler } from './$types';
 

@@ -2,9 +2,9 @@ import { error, fail } from '@sveltejs/kit';
 import { eq } from 'drizzle-orm';
 import { fieldErrors, formValues } from '$lib/schema/auth';
 import { handPaymentSchema, invoiceSchema, refundSchema } from '$lib/schema/payments';
-import { requireRole } from '$lib/server/access';
-import { db } from '$lib/server/db';
-import { contacts, jobs } from '$lib/server/db/schema';
+import { requireRole } from '$lib/server/auth/access';
+import { db } from '$lib/server/platform/db';
+import { contacts, jobs } from '$lib/server/platform/db/schema';
 import { sendPayLink } from '$lib/server/payments/checkout';
 import { ensureInvoice, invoicesOf } from '$lib/server/payments/invoices';
 import {
@@ -14,7 +14,7 @@ import {
 	recordHandPayment,
 	recordRefund
 } from '$lib/server/payments/ledger';
-import { firmToday } from '$lib/server/settings';
+import { firmToday } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad } from './$types';
 
 async function jobOr404(id: string) {

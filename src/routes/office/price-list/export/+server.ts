@@ -1,7 +1,7 @@
 import { error } from '@sveltejs/kit';
-import { requireRole } from '$lib/server/access';
-import { exportPriceList } from '$lib/server/pricelist';
-import { PRICE_LISTS } from '$lib/server/pricelist-csv';
+import { requireRole } from '$lib/server/auth/access';
+import { exportPriceList } from '$lib/server/pricelist/catalog';
+import { PRICE_LISTS } from '$lib/server/pricelist/csv';
 import type { RequestHandler } from './$types';
 
 const FILE_NAMES = {

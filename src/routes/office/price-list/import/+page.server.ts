@@ -1,12 +1,12 @@
 import { fail } from '@sveltejs/kit';
-import { requireRole } from '$lib/server/access';
-import { importPriceList } from '$lib/server/pricelist';
+import { requireRole } from '$lib/server/auth/access';
+import { importPriceList } from '$lib/server/pricelist/catalog';
 import {
 	csvTextSchema,
 	LABOR_TASKS,
 	listChoiceSchema,
 	previewPriceList
-} from '$lib/server/pricelist-csv';
+} from '$lib/server/pricelist/csv';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {

@@ -1,12 +1,17 @@
 import { error, fail } from '@sveltejs/kit';
 import { fieldErrors, formValues } from '$lib/schema/auth';
 import { visitNotesSchema } from '$lib/schema/visits';
-import { requireRole } from '$lib/server/access';
-import type { SessionUser } from '$lib/server/auth';
-import { PhotoError } from '$lib/server/images';
-import { StorageUnavailableError } from '$lib/server/storage';
-import { deleteVisitPhoto, storeVisitPhoto, visitPhotoLinks } from '$lib/server/visit-photos';
-import { saveNotes, visitDetail } from '$lib/server/visits';
+import { requireRole } from '$lib/server/auth/access';
+import type { SessionUser } from '$lib/server/auth/sessions';
+import { PhotoError } from '$lib/server/platform/images';
+import { StorageUnavailableError } from '$lib/server/platform/storage';
+import {
+	deleteVisitPhoto,
+	storeVisitPhoto,
+	visitPhotoLinks
+} from '$lib/server/photos/visit-photos';
+import { saveNotes } from '$lib/server/visits/notes';
+import { visitDetail } from '$lib/server/visits/agenda';
 import type { Actions, PageServerLoad } from './$types';
 
 /** The visit, or a 404 for an unknown one and a 403 for another salesperson's closed visit. */

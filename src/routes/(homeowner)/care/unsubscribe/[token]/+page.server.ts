@@ -1,5 +1,5 @@
 import { error } from '@sveltejs/kit';
-import { careJobForToken, unsubscribeCare } from '$lib/server/care';
+import { careJobForToken, unsubscribeCare } from '$lib/server/care/reminders';
 import type { Actions, PageServerLoad } from './$types';
 
 // The GET only asks; the POST unsubscribes, so a mail scanner following links changes nothing.

@@ -1,6 +1,6 @@
 import { error } from '@sveltejs/kit';
 import { jobForToken } from '$lib/server/payments/checkout';
-import { firmTimeZone } from '$lib/server/settings';
+import { firmTimeZone } from '$lib/server/platform/settings';
 import { invoiceByNumber } from '$lib/server/payments/invoices';
 import type { PageServerLoad } from './$types';
 

@@ -1,6 +1,6 @@
 import { error, json } from '@sveltejs/kit';
-import { requireRole } from '$lib/server/access';
-import { orHttp } from '$lib/server/job-http';
+import { requireRole } from '$lib/server/auth/access';
+import { orHttp } from '$lib/server/jobs/http';
 import { recordTimeEntries } from '$lib/server/costing/time';
 import { timeBatchSchema } from '$lib/schema/costing';
 import type { RequestHandler } from './$types';

@@ -2,7 +2,7 @@ import { error, fail, redirect } from '@sveltejs/kit';
 import { fieldErrors } from '$lib/schema/auth';
 import { planSchema } from '$lib/schema/care';
 import { FEATURE_KINDS, FEATURE_SIZES, VISIT_KINDS } from '$lib/care/kinds';
-import { requireRole } from '$lib/server/access';
+import { requireRole } from '$lib/server/auth/access';
 import { careAction } from '$lib/server/care/http';
 import { planById, savePlan } from '$lib/server/care/plans';
 import { CareError } from '$lib/server/care/db';

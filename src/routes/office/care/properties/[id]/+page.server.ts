@@ -3,9 +3,9 @@ import { eq } from 'drizzle-orm';
 import { z } from 'zod';
 import { fieldErrors } from '$lib/schema/auth';
 import { featureSchema, pinSchema } from '$lib/schema/care';
-import { requireRole } from '$lib/server/access';
-import { db } from '$lib/server/db';
-import { serviceVisits } from '$lib/server/db/schema';
+import { requireRole } from '$lib/server/auth/access';
+import { db } from '$lib/server/platform/db';
+import { serviceVisits } from '$lib/server/platform/db/schema';
 import { CareError } from '$lib/server/care/db';
 import {
 	addFeature,
@@ -22,8 +22,8 @@ import { sendPlanOffer } from '$lib/server/care/offers';
 import { featurePhotoLinks, storeCarePhoto } from '$lib/server/care/photos';
 import { planById } from '$lib/server/care/plans';
 import { currentSubscription } from '$lib/server/care/subscriptions';
-import { PhotoError } from '$lib/server/images';
-import { StorageUnavailableError } from '$lib/server/storage';
+import { PhotoError } from '$lib/server/platform/images';
+import { StorageUnavailableError } from '$lib/server/platform/storage';
 import type { Actions, PageServerLoad } from './$types';
 
 async function record(id: string) {

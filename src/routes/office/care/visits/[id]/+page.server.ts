@@ -1,6 +1,6 @@
 import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
-import { requireRole } from '$lib/server/access';
+import { requireRole } from '$lib/server/auth/access';
 import { careAction, careHttp } from '$lib/server/care/http';
 import { serviceVisitPhotoLinks, storeCarePhoto } from '$lib/server/care/photos';
 import {
@@ -13,8 +13,8 @@ import {
 	serviceVisitFor,
 	tickChecklist
 } from '$lib/server/care/service';
-import { PhotoError } from '$lib/server/images';
-import { StorageUnavailableError } from '$lib/server/storage';
+import { PhotoError } from '$lib/server/platform/images';
+import { StorageUnavailableError } from '$lib/server/platform/storage';
 import type { Actions, PageServerLoad } from './$types';
 
 const STAFF = ['owner', 'sales', 'crew'] as const;

@@ -7,9 +7,10 @@ import {
 	receiveLineSchema,
 	supplierSchema
 } from '$lib/schema/purchasing';
-import { requireRole } from '$lib/server/access';
-import { jobAction, orHttp } from '$lib/server/job-http';
-import { jobFor, jobRef } from '$lib/server/jobsite';
+import { requireRole } from '$lib/server/auth/access';
+import { jobAction, orHttp } from '$lib/server/jobs/http';
+import { jobFor } from '$lib/server/jobs/read';
+import { jobRef } from '$lib/server/jobs/labels';
 import {
 	addSupplier,
 	listSuppliers,

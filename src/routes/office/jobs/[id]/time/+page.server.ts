@@ -1,13 +1,14 @@
 import { fail } from '@sveltejs/kit';
 import { fieldErrors, formValues } from '$lib/schema/auth';
 import { timeFormSchema } from '$lib/schema/costing';
-import { requireRole } from '$lib/server/access';
-import { orHttp } from '$lib/server/job-http';
-import { jobFor, jobRef } from '$lib/server/jobsite';
-import { firmToday } from '$lib/server/settings';
+import { requireRole } from '$lib/server/auth/access';
+import { orHttp } from '$lib/server/jobs/http';
+import { jobFor } from '$lib/server/jobs/read';
+import { jobRef } from '$lib/server/jobs/labels';
+import { firmToday } from '$lib/server/platform/settings';
 import { ensureJobTasks } from '$lib/server/costing/tasks';
 import { recordTimeEntries, timeEntriesOf } from '$lib/server/costing/time';
-import { newToken } from '$lib/server/crypto';
+import { newToken } from '$lib/server/platform/crypto';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {

@@ -1,17 +1,16 @@
 import { error, fail, redirect } from '@sveltejs/kit';
-import { requireRole } from '$lib/server/access';
+import { requireRole } from '$lib/server/auth/access';
 import {
 	acceptanceFor,
-	createEstimate,
 	estimatesForLead,
 	getEstimate,
-	leadWithContact,
-	newVersion,
-	sendEstimate
-} from '$lib/server/estimates';
-import { estimatingConfig, loadCatalog } from '$lib/server/pricelist';
+	leadWithContact
+} from '$lib/server/estimates/records';
+import { createEstimate, newVersion } from '$lib/server/estimates/versions';
+import { sendEstimate } from '$lib/server/estimates/sending';
+import { estimatingConfig, loadCatalog } from '$lib/server/pricelist/catalog';
 import { estimateActionSchema } from '$lib/schema/estimates';
-import { firmSettings } from '$lib/server/settings';
+import { firmSettings } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 
 /** The estimate a button names, only when it is one of this lead's versions. */

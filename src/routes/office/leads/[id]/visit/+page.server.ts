@@ -1,17 +1,12 @@
 import { error, fail } from '@sveltejs/kit';
 import { fieldErrors, formValues } from '$lib/schema/auth';
 import { bookSchema, cancelFormSchema, rescheduleFormSchema } from '$lib/schema/visits';
-import { requireRole } from '$lib/server/access';
-import {
-	VisitError,
-	bookVisit,
-	cancelVisit,
-	leadForVisit,
-	rescheduleVisit,
-	salespeople,
-	visitsOfLead
-} from '$lib/server/visits';
-import { firmToday } from '$lib/server/settings';
+import { requireRole } from '$lib/server/auth/access';
+import { VisitError } from '$lib/server/visits/errors';
+import { bookVisit, cancelVisit, rescheduleVisit } from '$lib/server/visits/booking';
+import { leadForVisit, visitsOfLead } from '$lib/server/visits/agenda';
+import { salespeople } from '$lib/server/visits/availability';
+import { firmToday } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {

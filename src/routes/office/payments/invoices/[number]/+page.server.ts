@@ -1,6 +1,6 @@
 import { error } from '@sveltejs/kit';
-import { requireRole } from '$lib/server/access';
-import { firmTimeZone } from '$lib/server/settings';
+import { requireRole } from '$lib/server/auth/access';
+import { firmTimeZone } from '$lib/server/platform/settings';
 import { invoiceByNumber } from '$lib/server/payments/invoices';
 import type { PageServerLoad } from './$types';
 

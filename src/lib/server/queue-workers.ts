@@ -1,0 +1,6 @@
+// Every module that defines queued jobs is imported here, so that the workers know them all.
+import './platform/outbox';
+import './visits/reminders';
+import './care/reminders';
+import './leads/intake/drafts';
+export { startWorkers, stopQueue } from './platform/queue';
