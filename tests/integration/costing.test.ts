@@ -260,7 +260,7 @@ describe('job costing', () => {
 describe('estimates that learn', () => {
 	async function finished(
 		completedAt: string | null,
-		tasks: { task: string; hours: number }[],
+		tasks: { task: string; hours: number; key: string }[],
 		logged: Record<string, number[]>
 	) {
 		const { job } = await makeHandJob({
