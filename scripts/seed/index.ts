@@ -11,6 +11,8 @@ import { seedJobs } from './jobs';
 import { seedSentEstimates } from './estimates';
 import { seedVisits } from './visits';
 import { seedCare } from './care';
+import { seedCosting } from './costing';
+import { seedSuppliers } from './purchasing';
 
 export async function databaseIsEmpty(url: string): Promise<boolean> {
 	const { db, close } = scriptDb(url);
@@ -64,6 +66,9 @@ export async function seedDemo(url: string): Promise<void> {
 		await seedJobs(jobsDb.db);
 		// A pond lead and a stream lead with estimates sent (the firm's pond and stream work).
 		await seedSentEstimates(jobsDb.db);
+		// A finished job with the crew's hours, for the costing page.
+		await seedCosting(jobsDb.db);
+		await seedSuppliers(jobsDb.db);
 	} finally {
 		await jobsDb.close();
 	}

@@ -49,7 +49,7 @@ function firmDay(timeZone: string, offset: number): string {
  * outside SvelteKit (a seed script) that module is answered here, as it is at run time.
  */
 let hooked = false;
-async function jobsDomain() {
+export async function jobsDomain() {
 	if (!hooked) {
 		hooked = true;
 		const environment =

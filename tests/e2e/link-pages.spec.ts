@@ -27,7 +27,8 @@ test('the group holds every kind of homeowner link', () => {
 		'pay',
 		'invoice',
 		'testimonial',
-		'care'
+		'care',
+		'callback'
 	]) {
 		expect(linkPages.some((p) => p.startsWith(`/${kind}/`))).toBe(true);
 	}

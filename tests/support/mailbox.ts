@@ -7,7 +7,7 @@ export interface CaughtMail {
 	text: string;
 	html: string;
 	to: { address: string }[];
-	attachments?: { fileName: string; contentType: string }[];
+	attachments?: { fileName?: string; filename?: string; contentType: string; size?: number }[];
 }
 
 export async function allMail(): Promise<CaughtMail[]> {

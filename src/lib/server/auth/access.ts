@@ -24,6 +24,10 @@ export const ROUTE_ROLES: ReadonlyArray<{ prefix: string; roles: readonly Role[]
 	{ prefix: '/office/care/visits', roles: ALL_STAFF },
 	{ prefix: '/office/care', roles: ['owner', 'sales'] },
 	{ prefix: '/office/jobs/settings', roles: ['owner'] },
+	// Job costing: margins, costs and learned labor rates are the owner's.
+	{ prefix: '/office/costing', roles: ['owner'] },
+	// Warranty callbacks: crew open the ones assigned to them (each callback checks it).
+	{ prefix: '/office/callbacks', roles: ALL_STAFF },
 	{ prefix: '/office/jobs/new', roles: ['owner', 'sales'] },
 	// Crew may open jobs; each job checks that it is theirs (jobFor in $lib/server/jobs).
 	{ prefix: '/office/jobs', roles: ALL_STAFF },

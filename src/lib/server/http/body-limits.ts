@@ -30,6 +30,12 @@ export const BODY_LIMITS: readonly BodyLimit[] = [
 		message: `The photos of one inquiry can be at most ${PHOTO_LIMITS.maxTotalBytes / MB} MB in all. Send fewer or smaller photos.`
 	},
 	{
+		name: 'a problem report with its photos (warranty callbacks)',
+		matches: (p) => /^\/callback\/[^/]+$/.test(p),
+		bytes: 4 * PHOTO_LIMITS.maxBytes + FORM_OVERHEAD,
+		message: `The photos of one report can be at most ${(4 * PHOTO_LIMITS.maxBytes) / MB} MB in all.`
+	},
+	{
 		name: 'a visit or job photo',
 		matches: (p) => /^\/office\/(visits|jobs)\/[^/]+$/.test(p),
 		bytes: PHOTO_LIMITS.maxBytes + FORM_OVERHEAD,

@@ -96,6 +96,7 @@ export function testimonialRequestMail(input: {
 	url: string;
 	/** The care plan offer with the property's private link, when a plan covers the feature. */
 	care?: { paragraph: string; action: { label: string; url: string } };
+	problemUrl?: string;
 }): Built {
 	return build(
 		`How is your new water feature? A few words for ${input.firm.firmName}`,
@@ -105,6 +106,9 @@ export function testimonialRequestMail(input: {
 			'With your permission we show kind words on our website, with your first name and town only. Nothing appears until we have read it.',
 			...(input.care
 				? [input.care.paragraph, `${input.care.action.label}: ${input.care.action.url}`]
+				: []),
+			...(input.problemUrl
+				? [`If anything is ever not right with it, tell us here, with a photo: ${input.problemUrl}`]
 				: [])
 		],
 		input.firm,

@@ -13,6 +13,7 @@ import { completionCareOffer } from '../care/offers';
 import { addActivity } from '../leads/timeline';
 import { jobRef } from './labels';
 import type { SessionUser } from '../auth/sessions';
+import { newCallbackLink } from '../callbacks/callbacks';
 
 const LINK_DAYS = 60;
 
@@ -44,7 +45,9 @@ export async function requestTestimonial(job: Job, tx: Tx): Promise<() => Promis
 		url: `${origin()}/testimonial/${token}`,
 		care: job.propertyId
 			? ((await completionCareOffer(tx, job.propertyId)) ?? undefined)
-			: undefined
+			: undefined,
+		// The homeowner's way in when something goes wrong later (warranty callbacks).
+		problemUrl: await newCallbackLink(job.id, tx)
 	});
 	const outboxId = await writeMail(
 		{ dedupeKey: `testimonial:${job.id}`, to: contact.email, ...mail, leadId: job.leadId },

@@ -3,6 +3,7 @@ import { dateSchema } from '$lib/schema/visits';
 import { requireRole } from '$lib/server/auth/access';
 import { installDays, listJobs } from '$lib/server/jobs/read';
 import { firmSettings } from '$lib/server/platform/settings';
+import { lateMaterials } from '$lib/server/purchasing/orders';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -17,9 +18,18 @@ export const load: PageServerLoad = async (event) => {
 	const start = addDays(from, -weekday);
 	const end = addDays(start, 20);
 	const [jobs, days] = await Promise.all([listJobs(user), installDays(user, start, end)]);
+	// Jobs whose ordered materials will not be on site before the first install day.
+	const late = await lateMaterials([...new Set(days.map((d) => d.jobId))]);
 	return {
 		jobs,
-		calendar: { start, end, days, prev: addDays(start, -21), next: addDays(start, 21) },
+		calendar: {
+			start,
+			end,
+			days,
+			late: Object.fromEntries(late),
+			prev: addDays(start, -21),
+			next: addDays(start, 21)
+		},
 		today,
 		todays: jobs.filter((j) => j.days.includes(today)),
 		canSell: user.role !== 'crew',

@@ -20,6 +20,13 @@ import { settingsSchema } from '$lib/estimating/schema';
 import { itemFormSchema, saveItem } from '$lib/server/pricelist/item-form';
 import { saveYardSettings } from '$lib/server/pricelist/yard';
 import { yardValues } from '$lib/estimating/yard-fields';
+import { confirmRateSchema } from '$lib/schema/costing';
+import {
+	confirmRate,
+	learnedRates,
+	rateChanges,
+	RateChangeError
+} from '$lib/server/costing/learning';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async (event) => {
@@ -43,6 +50,8 @@ export const load: PageServerLoad = async (event) => {
 		machineDigAboveYd3: engine.labor.machineDigAboveYd3,
 		truckCapacityTons: engine.equipment.truckCapacityTons
 	};
+	// What finished jobs say about each task-hours setting (the owner may take the proposal).
+	const [learned, changes] = await Promise.all([learnedRates(), rateChanges()]);
 	return {
 		items,
 		pumps,
@@ -51,11 +60,27 @@ export const load: PageServerLoad = async (event) => {
 		taskHours: hours,
 		crew,
 		yard: yardValues(config.engine),
+		learned,
+		changes,
 		canEdit: user.role === 'owner'
 	};
 };
 
 export const actions: Actions = {
+	confirmRate: async (event) => {
+		const user = requireRole(event, 'owner');
+		const parsed = confirmRateSchema.safeParse(Object.fromEntries(await event.request.formData()));
+		if (!parsed.success) return fail(400, { form: 'rate', message: 'Pick a proposal' });
+		try {
+			const done = await confirmRate(user, parsed.data.rateKey, parsed.data.proposedHours);
+			return { form: 'rate', rateKey: parsed.data.rateKey, changed: done };
+		} catch (e) {
+			if (e instanceof RateChangeError) {
+				return fail(400, { form: 'rate', rateKey: parsed.data.rateKey, message: e.message });
+			}
+			throw e;
+		}
+	},
 	item: async (event) => {
 		requireRole(event, 'owner');
 		const data = await event.request.formData();

@@ -11,3 +11,6 @@ export * from './outbox';
 export * from './care-reminders';
 export * from './payments';
 export * from './care';
+export * from './costing';
+export * from './purchasing';
+export * from './callbacks';
