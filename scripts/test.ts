@@ -19,7 +19,11 @@ process.env.PG_FSYNC = 'off'; // throwaway test cluster: durability is not neede
 // `npm test -- e2e tests/e2e/x.spec.ts --no-deps`: step names select steps, the rest go to Playwright.
 const STEPS = ['unit', 'integration', 'e2e'];
 const only = process.argv.slice(2).filter((a) => STEPS.includes(a));
-const playwrightArgs = process.argv.slice(2).filter((a) => !STEPS.includes(a));
+// Vitest files (`npm test -- integration tests/integration/x.test.ts`) narrow the vitest steps;
+// everything else goes to Playwright.
+const isVitestFile = (a: string) => /\.test\.ts$/.test(a);
+const vitestFiles = process.argv.slice(2).filter(isVitestFile);
+const playwrightArgs = process.argv.slice(2).filter((a) => !STEPS.includes(a) && !isVitestFile(a));
 const want = (step: string) => only.length === 0 || only.includes(step);
 
 // The step running now (a test runner or the build): a signal stops it, then the services.
@@ -85,7 +89,7 @@ if (want('unit')) {
 	results.unit = await run(
 		'unit tests (vitest)',
 		process.execPath,
-		[VITEST, 'run', '--project', 'unit'],
+		[VITEST, 'run', '--project', 'unit', ...vitestFiles],
 		shared
 	);
 }
@@ -93,7 +97,7 @@ if (want('integration')) {
 	results.integration = await run(
 		'integration tests (vitest, real PostgreSQL and stand-ins)',
 		process.execPath,
-		[VITEST, 'run', '--project', 'integration'],
+		[VITEST, 'run', '--project', 'integration', ...vitestFiles],
 		shared
 	);
 }

@@ -47,6 +47,12 @@ const PAGES: Record<string, Expect> = {
 	// the phone posts them to the API (POST only). Costing and margins are the owner's.
 	'/office/jobs/[id]/time': { anonymous: 303, owner: 404, sales: 404, crew: 404 },
 	'/office/jobs/[id]/purchasing': { anonymous: 303, owner: 404, sales: 404, crew: 403 },
+	'/office/jobs/[id]/purchasing/[orderId]/pdf': {
+		anonymous: 303,
+		owner: 404,
+		sales: 404,
+		crew: 403
+	},
 	'/api/jobs/[id]/time': { anonymous: 401, owner: 405, sales: 405, crew: 405 },
 	'/office/costing': OWNER_ONLY,
 	'/office/costing/export.csv': OWNER_ONLY,

@@ -20,6 +20,20 @@ import { newToken } from '$lib/server/platform/crypto';
 import { resetDatabase } from '../support/database';
 import { yardJpeg } from '../fixtures/images/make';
 import { makeEstimate, makeUser, seedFirm } from './fixtures';
+import { firmToday } from '$lib/server/platform/settings';
+import { load as todayLoad } from '../../src/routes/office/+page.server';
+
+type TodayData = {
+	crew: {
+		callbacks: { id: string; job: string; address: string; description: string }[];
+	} | null;
+};
+
+/** The Today page's data as the given staff member sees it. */
+async function todayOf(user: SessionUser) {
+	const event = { locals: { user }, url: new URL('http://localhost/office') };
+	return (await todayLoad(event as never)) as unknown as TodayData;
+}
 
 let owner: SessionUser;
 let rosa: SessionUser;
@@ -140,5 +154,20 @@ describe('warranty callbacks', () => {
 			closingNotes: 'Reset the autofill float; no leak found.'
 		});
 		await expect(closeCallback(owner, id, 'again')).rejects.toThrow('already closed');
+	});
+
+	it("shows a callback dated today on its crew lead's Today page, and on no other crew lead's", async () => {
+		const { token } = await completedJob();
+		const description = 'The pump hums but no water comes over the spillway.';
+		const { id } = (await reportProblem(token, description, []))!;
+		expect((await todayOf(rosa)).crew!.callbacks).toEqual([]);
+		await scheduleCallback(id, { assignedTo: rosa.id, scheduledOn: await firmToday() });
+		const [shown] = (await todayOf(rosa)).crew!.callbacks;
+		expect(shown).toMatchObject({ id, description });
+		expect(shown.job).toMatch(/^J-\d+ /);
+		expect(shown.address).not.toBe('');
+		// The link on the Today page opens for the crew lead it is assigned to.
+		expect((await callbackFor(rosa, id)).id).toBe(id);
+		expect((await todayOf(other)).crew!.callbacks).toEqual([]);
 	});
 });

@@ -29,6 +29,14 @@ import { clearMail, waitForMail } from '../support/mailbox';
 import { makeUser, seedFirm } from './fixtures';
 import { makeHandJob } from './costing-fixtures';
 import { costingOf } from '$lib/server/costing/report';
+import { GET as orderPdfGet } from '../../src/routes/office/jobs/[id]/purchasing/[orderId]/pdf/+server';
+
+/** The office's download of an order's PDF, as the given staff member. */
+async function downloadPdf(user: SessionUser, jobId: string, orderId: string) {
+	const url = new URL(`http://localhost/office/jobs/${jobId}/purchasing/${orderId}/pdf`);
+	const event = { locals: { user }, url, params: { id: jobId, orderId } };
+	return orderPdfGet(event as never);
+}
 
 let owner: SessionUser;
 
@@ -165,5 +173,39 @@ describe('purchase orders', () => {
 		expect((await lateMaterials([job.id])).get(job.id)).toBe(`PO-${other.number} has no date`);
 		await updateOrder(owner, job.id, other.id, { expectedOn: '2027-06-09', deliveryNote: '' });
 		expect((await lateMaterials([job.id])).has(job.id)).toBe(false);
+	});
+
+	it('lets the office download an order as a PDF named by its number', async () => {
+		const { job } = await makeHandJob();
+		const quarry = await addSupplier({
+			name: 'Granite Hollow Quarry',
+			email: 'orders@granitehollow.example',
+			phone: ''
+		});
+		await setItemSupplier('STONE-BASALT-COL', quarry.id);
+		await setItemSupplier('AGG-PEBBLE-RIVER', quarry.id);
+		await setItemSupplier('pump:pump-s2600', quarry.id);
+		await makeOrders(owner, job.id);
+		const [po] = (await ordersOfJob(job.id)).orders;
+		const sales = await makeUser('sales', 'sales@test.example', 'Sam');
+		const res = await downloadPdf(sales, job.id, po.id);
+		expect(res.status).toBe(200);
+		expect(res.headers.get('content-type')).toBe('application/pdf');
+		const disposition = res.headers.get('content-disposition') ?? '';
+		expect(disposition).toMatch(/^attachment;/);
+		expect(disposition).toContain(`PO-${po.number}.pdf`);
+		const bytes = new Uint8Array(await res.arrayBuffer());
+		expect(new TextDecoder().decode(bytes.slice(0, 5))).toBe('%PDF-');
+		const doc = await PDFDocument.load(bytes);
+		expect(doc.getTitle()).toBe(`Purchase order PO-${po.number}`);
+		// Downloading does not send it: the order stays a draft, no mail is written.
+		expect((await ordersOfJob(job.id)).orders[0].status).toBe('draft');
+		expect(await db.select().from(outbox).where(eq(outbox.to, quarry.email))).toEqual([]);
+		// An order of another job (or none) is not found; crew may not download orders.
+		await expect(downloadPdf(owner, job.id, 'no-such-order')).rejects.toMatchObject({
+			status: 404
+		});
+		const crew = await makeUser('crew', 'crew@test.example', 'Rosa');
+		await expect(downloadPdf(crew, job.id, po.id)).rejects.toMatchObject({ status: 403 });
 	});
 });

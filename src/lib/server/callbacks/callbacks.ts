@@ -2,7 +2,7 @@
 // of their completion mail (words and photos, stored by the inquiry's photo pipeline); it becomes
 // a callback on the job, inside or outside the warranty period as it stood that day, assigned to
 // a crew lead and dated like a service visit, its hours logged against the job, closed with notes.
-import { asc, desc, eq, inArray } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, inArray, lte } from 'drizzle-orm';
 import { db } from '../platform/db';
 import {
 	callbackLinks,
@@ -251,6 +251,44 @@ export async function listCallbacks(user: SessionUser) {
 		.leftJoin(users, eq(users.id, callbacks.assignedTo))
 		.where(user.role === 'crew' ? eq(callbacks.assignedTo, user.id) : undefined)
 		.orderBy(asc(callbacks.status), desc(callbacks.reportedOn));
+}
+
+/**
+ * A crew lead's dated callbacks between two calendar days, for their Today page beside install
+ * days and service visits: the job, where it is and the homeowner's own words.
+ */
+export async function crewCallbackDays(user: SessionUser, from: string, to: string) {
+	const rows = await db
+		.select({
+			id: callbacks.id,
+			day: callbacks.scheduledOn,
+			status: callbacks.status,
+			description: callbacks.description,
+			inWarranty: callbacks.inWarranty,
+			jobNumber: jobs.number,
+			jobTitle: jobs.title,
+			homeowner: contacts.name,
+			street: properties.street,
+			town: properties.town
+		})
+		.from(callbacks)
+		.innerJoin(jobs, eq(jobs.id, callbacks.jobId))
+		.innerJoin(contacts, eq(contacts.id, jobs.contactId))
+		.leftJoin(properties, eq(properties.id, jobs.propertyId))
+		.where(
+			and(
+				eq(callbacks.assignedTo, user.id),
+				gte(callbacks.scheduledOn, from),
+				lte(callbacks.scheduledOn, to)
+			)
+		)
+		.orderBy(asc(callbacks.scheduledOn), asc(jobs.number));
+	return rows.map(({ jobNumber, street, town, day, ...row }) => ({
+		...row,
+		day: day!,
+		job: `${jobRef(jobNumber)} ${row.jobTitle}`,
+		address: [street, town].filter(Boolean).join(', ')
+	}));
 }
 
 /** A callback this user may open: 404 when missing, 403 for a crew lead it is not assigned to. */

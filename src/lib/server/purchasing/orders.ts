@@ -14,7 +14,9 @@ import {
 	pumpModels,
 	purchaseOrderLines,
 	purchaseOrders,
-	suppliers
+	suppliers,
+	type Job,
+	type PurchaseOrder
 } from '../platform/db/schema';
 import { newId } from '../platform/crypto';
 import type { SessionUser } from '../auth/sessions';
@@ -139,12 +141,8 @@ export async function updateOrder(
 }
 
 /** Sends the order to its supplier with the PDF attached; a second press sends nothing more. */
-export async function sendOrder(user: SessionUser, jobId: string, orderId: string) {
-	const job = await jobFor(user, jobId);
-	const order = await orderOf(job.id, orderId);
-	if (order.status !== 'draft') {
-		throw new JobError('bad_stage', `PO-${order.number} has already been sent.`);
-	}
+/** The order as the supplier receives it: its lines, where it goes, its total and its PDF. */
+async function renderOrder(job: Job, order: PurchaseOrder) {
 	const [supplier] = await db.select().from(suppliers).where(eq(suppliers.id, order.supplierId));
 	const lines = await db
 		.select()
@@ -170,6 +168,24 @@ export async function sendOrder(user: SessionUser, jobId: string, orderId: strin
 		lines,
 		totalCents
 	});
+	return { supplier, lines, deliverTo, totalCents, firm, pdf };
+}
+
+/** The order's PDF for the office to download: the same document the supplier is mailed. */
+export async function orderPdf(user: SessionUser, jobId: string, orderId: string) {
+	const job = await jobFor(user, jobId);
+	const order = await orderOf(job.id, orderId);
+	const { pdf } = await renderOrder(job, order);
+	return { filename: `PO-${order.number}.pdf`, pdf };
+}
+
+export async function sendOrder(user: SessionUser, jobId: string, orderId: string) {
+	const job = await jobFor(user, jobId);
+	const order = await orderOf(job.id, orderId);
+	if (order.status !== 'draft') {
+		throw new JobError('bad_stage', `PO-${order.number} has already been sent.`);
+	}
+	const { supplier, lines, deliverTo, totalCents, firm, pdf } = await renderOrder(job, order);
 	const paragraphs = [
 		`Hello ${supplier.name},`,
 		`Please find our purchase order PO-${order.number} attached: ${lines.length} line${lines.length === 1 ? '' : 's'}, ${money(totalCents)} at our listed costs.`,
