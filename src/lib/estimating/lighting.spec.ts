@@ -207,10 +207,14 @@ describe('transformer load', () => {
 						lighting([...fixtures.map((f) => f[0]), va], [...fixtures.map((f) => f[1]), distance]),
 						settings
 					);
+					// A run with no steady voltage is refused and reported at nominal figures, so the
+					// property is about runs that settle (the refusal has its own test above).
+					fc.pre(before.runs[0].settled && after.runs[0].settled);
 					expect(after.totalLoadVA).toBeGreaterThanOrEqual(before.totalLoadVA);
 					expect(after.runs[0].lowestVolts).toBeLessThanOrEqual(before.runs[0].lowestVolts + 1e-12);
 				}
-			)
+			),
+			{ numRuns: 300 }
 		);
 	});
 });
