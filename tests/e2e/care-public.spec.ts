@@ -156,6 +156,8 @@ test('a homeowner signs up on the public page on a phone and chooses to be invoi
 	await edit.getByRole('button', { name: 'Save the feature' }).click();
 	await expect(owner.getByText('Fountain or bubbling stone, large')).toBeVisible();
 	await owner.reload();
-	await expect(owner.getByText('Four outlets, seen on the first visit.')).toBeVisible();
+	await expect(
+		owner.getByRole('paragraph').filter({ hasText: 'Four outlets, seen on the first visit.' })
+	).toBeVisible();
 	await owner.close();
 });
