@@ -7,9 +7,9 @@
 // An e-mail address already on file is not signed up from the public page: anyone can type an
 // address, and the private page shows the name and the features on record. That homeowner gets
 // the property's private link by e-mail instead (the plan offer), and signs up from there.
-import { and, eq, sql } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import { db } from '../platform/db';
-import { contacts, properties, propertyFeatures } from '../platform/db/schema';
+import { contacts, propertyFeatures } from '../platform/db/schema';
 import { newId } from '../platform/crypto';
 import { dispatchAll } from '../payments/ledger';
 import { quotePlan, type FeatureKind, type FeatureSize } from '$lib/care/kinds';
@@ -20,6 +20,7 @@ import { newCareLink } from './links';
 import { writePlanOffer } from './offers';
 import { listPlans, planById } from './plans';
 import { signUp } from './subscriptions';
+import { findOrCreateProperty } from '../leads/intake/records';
 
 export interface PublicSignUp {
 	name: string;
@@ -102,30 +103,6 @@ async function contactFor(tx: Tx, input: PublicSignUp): Promise<{ id: string; kn
 	return { id: again.id, known: true };
 }
 
-async function propertyFor(tx: Tx, contactId: string, input: PublicSignUp): Promise<string> {
-	const [existing] = await tx
-		.select({ id: properties.id })
-		.from(properties)
-		.where(
-			and(
-				eq(properties.contactId, contactId),
-				sql`lower(${properties.street}) = lower(${input.street})`,
-				sql`lower(${properties.town}) = lower(${input.town})`
-			)
-		)
-		.limit(1);
-	if (existing) return existing.id;
-	const id = newId();
-	await tx.insert(properties).values({
-		id,
-		contactId,
-		street: input.street,
-		town: input.town,
-		postalCode: input.postalCode
-	});
-	return id;
-}
-
 export type PublicOutcome =
 	| { kind: 'signed'; propertyId: string; token: string; billing: 'year' | 'visit' }
 	| { kind: 'mailed' };
@@ -141,7 +118,7 @@ export async function publicSignUp(
 	const plan = await offeredPlan(input);
 	const written = await db.transaction(async (tx) => {
 		const contact = await contactFor(tx, input);
-		const propertyId = await propertyFor(tx, contact.id, input);
+		const propertyId = await findOrCreateProperty(tx, contact.id, input);
 		// Features already on record (staff saw them) stand; a new address takes what was listed.
 		if ((await featuresOf(propertyId, tx)).length === 0) {
 			await tx.insert(propertyFeatures).values(

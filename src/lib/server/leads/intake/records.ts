@@ -46,7 +46,12 @@ async function findOrCreateContact(tx: Tx, input: InquiryInput): Promise<string>
 	return again.id;
 }
 
-async function findOrCreateProperty(tx: Tx, contactId: string, input: InquiryInput) {
+/** The contact's property at this street and town (case aside), made when it is new. */
+export async function findOrCreateProperty(
+	tx: Tx,
+	contactId: string,
+	input: Pick<InquiryInput, 'street' | 'town' | 'postalCode'>
+): Promise<string> {
 	const [existing] = await tx
 		.select({ id: properties.id })
 		.from(properties)
