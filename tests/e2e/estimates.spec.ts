@@ -6,7 +6,7 @@ import { expect, test, type Locator, type Page } from '@playwright/test';
 import postgres from 'postgres';
 import sharp from 'sharp';
 import { randomBytes } from 'node:crypto';
-import { formatCents } from '../../src/lib/components/estimates/money';
+import { formatCents } from '../../src/lib/money';
 import { putObject, randomKey } from '../../src/lib/server/platform/storage';
 import { linkIn, waitForMail } from '../support/mailbox';
 import { demoUser, signIn } from './pages/staff';

@@ -4,7 +4,7 @@
 import { expect, test, type Page } from '@playwright/test';
 import postgres from 'postgres';
 import { randomBytes } from 'node:crypto';
-import { formatCents } from '../../src/lib/components/estimates/money';
+import { formatCents } from '../../src/lib/money';
 import { linkIn, waitForMail } from '../support/mailbox';
 import { demoUser, signIn } from './pages/staff';
 

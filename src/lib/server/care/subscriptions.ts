@@ -25,8 +25,9 @@ import { CareError, dayIn, plusYear, type Tx } from './db';
 import { addressOf, featuresOf, propertyRecord } from './features';
 import { listPlans, planById } from './plans';
 import { careLink, newCareLink } from './links';
-import { build, dayText, money } from './mail';
+import { build, dayText } from './mail';
 import { addDays } from '$lib/scheduling/zone';
+import { formatCents } from '$lib/money';
 
 const RENEWAL_JOB = 'care.renewal';
 const RENEWAL_NOTICE_DAYS = 30;
@@ -160,8 +161,8 @@ async function welcomeMail(tx: Tx, s: CareSubscription): Promise<string[]> {
 			`Hello ${record.contact.name},`,
 			`Thank you: “${plan.name}” is in place for ${addressOf(record.property)} from ${dayText(s.startsOn)} to ${dayText(s.renewsOn)}. It includes: ${visits}.`,
 			s.billing === 'year'
-				? `The year is paid (${money(s.yearCents)}). Parts we use are invoiced after the visit.`
-				: `We invoice each visit after it is done (about ${money(s.yearCents)} for the year), with any parts used.`,
+				? `The year is paid (${formatCents(s.yearCents)}). Parts we use are invoiced after the visit.`
+				: `We invoice each visit after it is done (about ${formatCents(s.yearCents)} for the year), with any parts used.`,
 			`We will e-mail you the date of each visit, with a link to ask for another. Your plan, its visits and cancelling are at the link below.`
 		],
 		{ label: 'Your care plan', url: `${origin()}/care/${token}` }
@@ -384,7 +385,7 @@ export async function sendRenewalReminder(
 				`Hello ${record.contact.name},`,
 				`“${plan.name}” for ${addressOf(record.property)} renews on ${dayText(renewsOn)} for another year.`,
 				s.billing === 'year'
-					? `You can pay the next year (${money(s.yearCents)}) from the link below. Until it is paid, visits of the new year are invoiced one by one.`
+					? `You can pay the next year (${formatCents(s.yearCents)}) from the link below. Until it is paid, visits of the new year are invoiced one by one.`
 					: `Nothing to do: we keep invoicing each visit after it is done.`,
 				`To stop the plan, open the same link and cancel.`
 			],

@@ -3,11 +3,12 @@ import { z } from 'zod';
 import { fieldErrors } from '$lib/schema/auth';
 import {
 	changeOrderSchema,
-	dollarsToCents,
 	punchSchema,
 	scheduleSchema,
 	sendChangeOrderSchema
 } from '$lib/schema/jobs';
+import { parseCents } from '$lib/money';
+import { JOB_STAGES_BY_HAND } from '$lib/stages';
 import { requireRole } from '$lib/server/auth/access';
 import {
 	createChangeOrder,
@@ -74,7 +75,7 @@ export const load: PageServerLoad = async (event) => {
 };
 
 const idSchema = z.object({ itemId: z.string().min(1), on: z.enum(['1', '0']) });
-const stageSchema = z.object({ to: z.enum(['scheduled', 'underway', 'punch_list', 'complete']) });
+const stageSchema = z.object({ to: z.enum(JOB_STAGES_BY_HAND) });
 
 /** Every line row of the draft form as typed, in form order (the form refills from these). */
 function typedLines(data: FormData) {
@@ -120,7 +121,9 @@ function lineInput(l: TypedLine) {
 		category: l.category,
 		unit: l.unit,
 		quantity: l.quantity,
-		unitPriceCents: l.unitPrice.trim() === '' ? 0 : dollarsToCents(l.unitPrice)
+		// Not an amount (letters, a minus, three decimals) reaches the schema as NaN, which it refuses.
+		unitPriceCents:
+			l.unitPrice.trim() === '' ? 0 : (parseCents(l.unitPrice, { wholeDigits: 9 }) ?? Number.NaN)
 	};
 }
 

@@ -14,18 +14,13 @@ import {
 	timestamp,
 	uniqueIndex
 } from 'drizzle-orm/pg-core';
+import { JOB_STAGES } from '../../../../stages';
 import { createdAt, updatedAt } from './columns';
 import { users } from './auth';
 import { contacts, leads, properties } from './leads';
 import { estimates } from './estimates';
 
-export const jobStageEnum = pgEnum('job_stage', [
-	'scheduled',
-	'underway',
-	'punch_list',
-	'complete',
-	'paid'
-]);
+export const jobStageEnum = pgEnum('job_stage', JOB_STAGES);
 export type JobStage = (typeof jobStageEnum.enumValues)[number];
 
 /** What the job was sold as, frozen at conversion: the estimate, the choices and the acceptance. */
