@@ -73,6 +73,21 @@ test('build, send, accept on a phone, sold in the office', async ({ page, browse
 	await saved1;
 	await expect(page.getByTestId('save-status')).toHaveText(/All changes saved/);
 
+	// Stone handling: the weight (right-aligned) and the method beside it read apart, never as
+	// one run of text such as "314 lbStone cart".
+	const stoneRow = page.getByTestId('stones').locator('tbody tr').first();
+	await expect(stoneRow).toBeVisible();
+	const gap = await stoneRow.evaluate((tr) => {
+		const [, weight, method] = tr.querySelectorAll('td');
+		const box = (cell: Element) => {
+			const range = document.createRange();
+			range.selectNodeContents(cell);
+			return range.getBoundingClientRect();
+		};
+		return box(method).left - box(weight).right;
+	});
+	expect(gap).toBeGreaterThanOrEqual(8);
+
 	// The builder, the print document and the stored totals agree to the cent.
 	const [saved] =
 		await sql`select e.id, total_cents, deposit_cents, design from estimates e where lead_id = ${lead.id}`;

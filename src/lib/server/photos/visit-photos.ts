@@ -6,12 +6,11 @@ import { db } from '../platform/db';
 import { photos, siteVisits } from '../platform/db/schema';
 import { newId } from '../platform/crypto';
 import { processPhoto } from '../platform/images';
-import { photoLinks } from './links';
+import { photoLinks, signPhotos } from './links';
 import {
 	deleteObjects,
 	putObject,
 	randomKey,
-	signedUrl,
 	StorageUnavailableError
 } from '../platform/storage';
 
@@ -137,14 +136,15 @@ export async function agendaThumbs(
 		if (mine.length === 0) continue;
 		byVisit.set(
 			visit.id,
-			await Promise.all(
-				mine.map(async (p) => ({
+			await signPhotos(
+				mine.map((p) => ({
 					id: p.id,
 					kind: p.context === 'visit' ? ('visit' as const) : ('intake' as const),
 					name: p.originalName,
-					thumbUrl: await signedUrl(p.thumbKey, AGENDA_LINK_SECONDS),
-					displayUrl: await signedUrl(p.displayKey, AGENDA_LINK_SECONDS)
-				}))
+					thumbKey: p.thumbKey,
+					displayKey: p.displayKey
+				})),
+				AGENDA_LINK_SECONDS
 			)
 		);
 	}

@@ -21,8 +21,8 @@ export interface VisitParty {
 	firm: Settings;
 }
 
-export { DIG_CAUTION, VISIT_HELPS } from '$lib/components/visits/advice-text';
-import { DIG_CAUTION, VISIT_HELPS } from '$lib/components/visits/advice-text';
+export { DIG_CAUTION, VISIT_HELPS } from '$lib/cautions/advice-text';
+import { DIG_CAUTION, VISIT_HELPS } from '$lib/cautions/advice-text';
 import { inZone } from '$lib/firm-time';
 
 /** The invitation's UID: the same for the life of the visit, so calendars update one event. */

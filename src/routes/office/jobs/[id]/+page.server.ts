@@ -18,6 +18,7 @@ import {
 import { domainAction, orHttp } from '$lib/server/http/domain';
 import { addPunchItem, setMaterialFlag, setPunchDone } from '$lib/server/jobs/checklists';
 import { attachJobPhoto } from '$lib/server/photos/job-photos';
+import { signPhotos } from '$lib/server/photos/links';
 import {
 	crewConflicts,
 	crewJobView,
@@ -32,22 +33,9 @@ import { PhotoError, processPhoto } from '$lib/server/platform/images';
 import {
 	putObject,
 	randomKey,
-	signedUrl,
 	StorageUnavailableError
 } from '$lib/server/platform/storage';
 import type { Actions, PageServerLoad } from './$types';
-
-async function withLinks<T extends { id: string; thumbKey: string; displayKey: string }>(
-	list: T[]
-) {
-	return Promise.all(
-		list.map(async ({ thumbKey, displayKey, ...p }) => ({
-			...p,
-			thumbUrl: await signedUrl(thumbKey),
-			displayUrl: await signedUrl(displayKey)
-		}))
-	);
-}
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'owner', 'sales', 'crew');
@@ -55,7 +43,7 @@ export const load: PageServerLoad = async (event) => {
 	if (user.role === 'crew') {
 		// Built from quantities and site facts only: no price, cost or margin reaches a crew phone.
 		const view = await crewJobView(job);
-		return { role: 'crew' as const, job: { ...view, photos: await withLinks(view.photos) } };
+		return { role: 'crew' as const, job: { ...view, photos: await signPhotos(view.photos) } };
 	}
 	const [view, balance, changeOrders, leads, conflicts] = await Promise.all([
 		officeJobView(job),
@@ -66,7 +54,7 @@ export const load: PageServerLoad = async (event) => {
 	]);
 	return {
 		role: 'office' as const,
-		job: { ...view, photos: await withLinks(view.photos) },
+		job: { ...view, photos: await signPhotos(view.photos) },
 		balance,
 		changeOrders: changeOrders.map(({ tokenHash: _t, ...co }) => co),
 		crewLeads: leads,

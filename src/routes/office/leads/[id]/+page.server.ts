@@ -32,7 +32,7 @@ import {
 	possibleDuplicates,
 	samePerson
 } from '$lib/server/leads/contact-merge';
-import { signedUrl } from '$lib/server/platform/storage';
+import { galleryLinks } from '$lib/server/photos/links';
 import { visitNotesOfLead } from '$lib/server/visits/notes';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -49,15 +49,16 @@ export const load: PageServerLoad = async (event) => {
 		assignableStaff(),
 		firmSettings(),
 		visitNotesOfLead(found.lead.id),
-		Promise.all(
-			inquiryPhotos.map(async (p) => ({
+		galleryLinks(
+			inquiryPhotos.map((p) => ({
 				id: p.id,
 				width: p.width,
 				height: p.height,
 				name: p.originalName,
-				thumbUrl: await signedUrl(p.thumbKey, PHOTO_LINK_SECONDS),
-				fullUrl: await signedUrl(p.displayKey, PHOTO_LINK_SECONDS)
-			}))
+				thumbKey: p.thumbKey,
+				displayKey: p.displayKey
+			})),
+			PHOTO_LINK_SECONDS
 		),
 		possibleDuplicates(found.contact.id),
 		samePerson(found.contact.id)
