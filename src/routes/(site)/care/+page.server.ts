@@ -8,6 +8,7 @@ import { publicPlans, publicSignUp, SignUpFieldError } from '$lib/server/care/pu
 import { startPlanCheckout } from '$lib/server/care/subscriptions';
 import { minutes, SharedRateLimiter } from '$lib/server/platform/rate-limit';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 export const prerender = false;
 
@@ -33,10 +34,9 @@ export const actions: Actions = {
 	signUp: async (event) => {
 		const data = await event.request.formData();
 		const values = typed(data);
-		const parsed = publicSignUpSchema.safeParse(Object.fromEntries(data));
-		if (!parsed.success) {
-			return fail(400, { form: 'signUp', errors: fieldErrors(parsed.error), values });
-		}
+		const parsed = await parseForm(data, publicSignUpSchema, { extra: { form: 'signUp' } });
+		// The refill is the typed fields cut to length, as the price step sends them back.
+		if (!parsed.ok) return fail(400, { ...parsed.failure.data, values });
 		if (await signUpLimiter.isLimited(event)) {
 			return fail(429, {
 				form: 'signUp',

@@ -12,6 +12,7 @@ import {
 } from '$lib/server/care/subscriptions';
 import { CareError } from '$lib/server/care/db';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 const NOT_FOUND = 'This link does not open a care plan. Ask us for a new one.';
 
@@ -49,11 +50,8 @@ async function checkout(propertyId: string, token: string) {
 export const actions: Actions = {
 	signUp: async (event) => {
 		const propertyId = await propertyOf(event.params.token);
-		const values = Object.fromEntries(await event.request.formData());
-		const parsed = signUpSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'signUp', errors: fieldErrors(parsed.error), values });
-		}
+		const parsed = await parseForm(event.request, signUpSchema, { extra: { form: 'signUp' } });
+		if (!parsed.ok) return parsed.failure;
 		const done = await domainAction(
 			() =>
 				signUp(propertyId, {

@@ -20,6 +20,7 @@ import {
 import { crewLeads } from '$lib/server/jobs/read';
 import { firmSettings } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 /** The season in the address, else the next autumn (the one that matters most before frost). */
 async function seasonOf(url: URL): Promise<string> {
@@ -74,11 +75,8 @@ const crewDaysSchema = z
 export const actions: Actions = {
 	settings: async (event) => {
 		requireRole(event, 'owner');
-		const values = Object.fromEntries(await event.request.formData());
-		const parsed = seasonSettingsSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'settings', errors: fieldErrors(parsed.error), values });
-		}
+		const parsed = await parseForm(event.request, seasonSettingsSchema, { extra: { form: 'settings' } });
+		if (!parsed.ok) return parsed.failure;
 		await saveSeasonSettings(parsed.data);
 		return { form: 'settings', message: 'Saved.' };
 	},
@@ -91,11 +89,8 @@ export const actions: Actions = {
 	},
 	crewDays: async (event) => {
 		requireRole(event, 'owner');
-		const values = Object.fromEntries(await event.request.formData());
-		const parsed = crewDaysSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'crewDays', errors: fieldErrors(parsed.error), values });
-		}
+		const parsed = await parseForm(event.request, crewDaysSchema, { extra: { form: 'crewDays' } });
+		if (!parsed.ok) return parsed.failure;
 		const d = parsed.data;
 		const added = await domainAction(
 			() =>
@@ -132,12 +127,12 @@ export const actions: Actions = {
 	},
 	move: async (event) => {
 		requireRole(event, 'owner');
-		const parsed = z
-			.object({ visitId: z.string().min(1), crewDayId: z.string().min(1, 'Pick a day') })
-			.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) {
-			return fail(400, { form: 'move', message: 'Pick a day to move the visit to' });
-		}
+		const parsed = await parseForm(event.request, z
+			.object({ visitId: z.string().min(1), crewDayId: z.string().min(1, 'Pick a day') }), {
+			extra: { form: 'move' },
+			message: 'Pick a day to move the visit to'
+		});
+		if (!parsed.ok) return parsed.failure;
 		const r = await domainAction(
 			() => moveVisit(parsed.data.visitId, parsed.data.crewDayId),
 			'move'

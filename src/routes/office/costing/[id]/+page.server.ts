@@ -10,6 +10,7 @@ import { firmToday } from '$lib/server/platform/settings';
 import { costingOf } from '$lib/server/costing/report';
 import { addJobCost, removeJobCost, saveUsage } from '$lib/server/costing/materials';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'owner');
@@ -56,10 +57,12 @@ export const actions: Actions = {
 	},
 	removeCost: async (event) => {
 		const user = requireRole(event, 'owner');
-		const parsed = z
-			.object({ costId: z.string().min(1) })
-			.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) return fail(400, { form: 'cost', message: 'Pick a cost' });
+		const parsed = await parseForm(event.request, z
+			.object({ costId: z.string().min(1) }), {
+			extra: { form: 'cost' },
+			message: 'Pick a cost'
+		});
+		if (!parsed.ok) return parsed.failure;
 		return jobAction(() => removeJobCost(user, event.params.id, parsed.data.costId), 'cost');
 	}
 };

@@ -36,6 +36,7 @@ import {
 	StorageUnavailableError
 } from '$lib/server/platform/storage';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'owner', 'sales', 'crew');
@@ -118,18 +119,18 @@ function lineInput(l: TypedLine) {
 export const actions: Actions = {
 	schedule: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
-		const data = await event.request.formData();
-		const parsed = scheduleSchema.safeParse({
-			days: data
-				.getAll('day')
-				.map(String)
-				.filter((d) => d !== ''),
-			crewLeadId: String(data.get('crewLeadId') ?? ''),
-			crewSize: String(data.get('crewSize') ?? '')
+		const parsed = await parseForm(event.request, scheduleSchema, {
+			extra: { form: 'schedule' },
+			read: (data) => ({
+				days: data
+					.getAll('day')
+					.map(String)
+					.filter((d) => d !== ''),
+				crewLeadId: String(data.get('crewLeadId') ?? ''),
+				crewSize: String(data.get('crewSize') ?? '')
+			})
 		});
-		if (!parsed.success) {
-			return fail(400, { form: 'schedule', errors: fieldErrors(parsed.error) });
-		}
+		if (!parsed.ok) return parsed.failure;
 		return domainAction(async () => {
 			const conflicts = await scheduleJob(event.params.id, parsed.data, user);
 			return { form: 'schedule', saved: true, conflicts: conflicts.length };
@@ -137,8 +138,11 @@ export const actions: Actions = {
 	},
 	ordered: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
-		const parsed = idSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) return fail(400, { form: 'materials', message: 'Pick a material' });
+		const parsed = await parseForm(event.request, idSchema, {
+			extra: { form: 'materials' },
+			message: 'Pick a material'
+		});
+		if (!parsed.ok) return parsed.failure;
 		return domainAction(async () => {
 			await setMaterialFlag(
 				user,
@@ -151,8 +155,11 @@ export const actions: Actions = {
 	},
 	picked: async (event) => {
 		const user = requireRole(event, 'owner', 'sales', 'crew');
-		const parsed = idSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) return fail(400, { form: 'materials', message: 'Pick a material' });
+		const parsed = await parseForm(event.request, idSchema, {
+			extra: { form: 'materials' },
+			message: 'Pick a material'
+		});
+		if (!parsed.ok) return parsed.failure;
 		return domainAction(async () => {
 			await setMaterialFlag(
 				user,
@@ -165,16 +172,20 @@ export const actions: Actions = {
 	},
 	punch: async (event) => {
 		const user = requireRole(event, 'owner', 'sales', 'crew');
-		const parsed = punchSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) {
-			return fail(400, { form: 'punch', message: fieldErrors(parsed.error).body });
-		}
+		const parsed = await parseForm(event.request, punchSchema, {
+			extra: { form: 'punch' },
+			message: true
+		});
+		if (!parsed.ok) return parsed.failure;
 		return domainAction(() => addPunchItem(user, event.params.id, parsed.data.body), 'punch');
 	},
 	punchDone: async (event) => {
 		const user = requireRole(event, 'owner', 'sales', 'crew');
-		const parsed = idSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) return fail(400, { form: 'punch', message: 'Pick an item' });
+		const parsed = await parseForm(event.request, idSchema, {
+			extra: { form: 'punch' },
+			message: 'Pick an item'
+		});
+		if (!parsed.ok) return parsed.failure;
 		return domainAction(
 			() => setPunchDone(user, event.params.id, parsed.data.itemId, parsed.data.on === '1'),
 			'punch'
@@ -182,8 +193,11 @@ export const actions: Actions = {
 	},
 	stage: async (event) => {
 		const user = requireRole(event, 'owner', 'sales', 'crew');
-		const parsed = stageSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) return fail(400, { form: 'stage', message: 'Pick a stage' });
+		const parsed = await parseForm(event.request, stageSchema, {
+			extra: { form: 'stage' },
+			message: 'Pick a stage'
+		});
+		if (!parsed.ok) return parsed.failure;
 		return domainAction(() => setStage(user, event.params.id, parsed.data.to), 'stage');
 	},
 	photo: async (event) => {
@@ -235,12 +249,11 @@ export const actions: Actions = {
 	},
 	sendChangeOrder: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
-		const parsed = sendChangeOrderSchema.safeParse(
-			Object.fromEntries(await event.request.formData())
-		);
-		if (!parsed.success) {
-			return fail(400, { form: 'changeOrder', message: fieldErrors(parsed.error).changeOrderId });
-		}
+		const parsed = await parseForm(event.request, sendChangeOrderSchema, {
+			extra: { form: 'changeOrder' },
+			message: true
+		});
+		if (!parsed.ok) return parsed.failure;
 		return domainAction(async () => {
 			// Refuses (404) a change order of another job: it is looked up by both ids.
 			await sendChangeOrder(event.params.id, parsed.data.changeOrderId, user);

@@ -14,6 +14,7 @@ import {
 import { jobWithContact } from '$lib/server/payments/views';
 import { firmToday } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 async function jobOr404(id: string) {
 	const row = await jobWithContact(id);
@@ -95,10 +96,8 @@ export const actions: Actions = {
 	},
 	invoice: async (event) => {
 		requireRole(event, 'owner');
-		const parsed = invoiceSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) {
-			return fail(400, { form: 'invoice', values: {}, errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(event.request, invoiceSchema, { extra: { form: 'invoice' } });
+		if (!parsed.ok) return parsed.failure;
 		await jobOr404(event.params.jobId);
 		const invoice = await ensureInvoice(event.params.jobId, parsed.data.kind);
 		return { form: 'invoice', saved: `Invoice ${invoice.number} issued.` };

@@ -22,6 +22,7 @@ import {
 	updateOrder
 } from '$lib/server/purchasing/orders';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'owner', 'sales');
@@ -51,13 +52,11 @@ export const actions: Actions = {
 	itemSupplier: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
 		await orHttp(() => jobFor(user, event.params.id));
-		const parsed = itemSupplierSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) {
-			return fail(400, {
-				form: 'itemSupplier',
-				message: Object.values(fieldErrors(parsed.error))[0]
-			});
-		}
+		const parsed = await parseForm(event.request, itemSupplierSchema, {
+			extra: { form: 'itemSupplier' },
+			message: true
+		});
+		if (!parsed.ok) return parsed.failure;
 		return jobAction(
 			() => setItemSupplier(parsed.data.sku, parsed.data.supplierId),
 			'itemSupplier'
@@ -91,8 +90,11 @@ export const actions: Actions = {
 	},
 	send: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
-		const parsed = orderIdSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) return fail(400, { form: 'send', message: 'Pick an order' });
+		const parsed = await parseForm(event.request, orderIdSchema, {
+			extra: { form: 'send' },
+			message: 'Pick an order'
+		});
+		if (!parsed.ok) return parsed.failure;
 		return jobAction(async () => {
 			await sendOrder(user, event.params.id, parsed.data.orderId);
 			return { form: 'send', orderId: parsed.data.orderId, sent: true };
