@@ -5,7 +5,7 @@ import { listedFeatures, publicSignUpSchema } from '$lib/schema/care';
 import { CareError } from '$lib/server/care/db';
 import { clientAddress } from '$lib/server/care/http';
 import { publicPlans, publicSignUp, SignUpFieldError } from '$lib/server/care/public';
-import { startPlanCheckout } from '$lib/server/care/subscriptions';
+import { startPlanCheckout } from '$lib/server/care/plan-checkout';
 import { minutes, SharedRateLimiter } from '$lib/server/platform/rate-limit';
 import type { Actions, PageServerLoad } from './$types';
 import { parseForm } from '$lib/server/platform/forms';

@@ -4,12 +4,8 @@ import { signUpSchema } from '$lib/schema/care';
 import { careLink } from '$lib/server/care/links';
 import { domainAction } from '$lib/server/http/domain';
 import { clientAddress } from '$lib/server/care/http';
-import {
-	cancelPlan,
-	homeownerCare,
-	signUp,
-	startPlanCheckout
-} from '$lib/server/care/subscriptions';
+import { cancelPlan, homeownerCare, signUp } from '$lib/server/care/subscriptions';
+import { startPlanCheckout } from '$lib/server/care/plan-checkout';
 import { CareError } from '$lib/server/care/db';
 import type { Actions, PageServerLoad } from './$types';
 import { parseForm } from '$lib/server/platform/forms';

@@ -8,15 +8,10 @@ import { requireRole } from '$lib/server/auth/access';
 import { dayIn } from '$lib/server/care/db';
 import { domainAction } from '$lib/server/http/domain';
 import { saveSeasonSettings, seasonSettings } from '$lib/server/care/plans';
-import {
-	addCrewDays,
-	generateSeason,
-	moveVisit,
-	proposeSchedule,
-	removeCrewDay,
-	seasonBoard,
-	sendDates
-} from '$lib/server/care/season';
+import { generateSeason, seasonBoard } from '$lib/server/care/season';
+import { addCrewDays, removeCrewDay } from '$lib/server/care/crew-days';
+import { moveVisit, proposeSchedule } from '$lib/server/care/season-routes';
+import { sendDates } from '$lib/server/care/season-mail';
 import { crewLeads } from '$lib/server/jobs/read';
 import { firmSettings } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad } from './$types';
