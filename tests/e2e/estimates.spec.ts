@@ -8,6 +8,7 @@ import sharp from 'sharp';
 import { randomBytes } from 'node:crypto';
 import { formatCents } from '../../src/lib/money';
 import { putObject, randomKey } from '../../src/lib/server/platform/storage';
+import { seedLead } from '../support/lead';
 import { linkIn, waitForMail } from '../support/mailbox';
 import { demoUser, signIn } from './pages/staff';
 
@@ -17,13 +18,12 @@ test.afterAll(async () => {
 });
 
 async function makeLead() {
-	const tag = randomBytes(4).toString('hex');
-	const email = `fernhill-${tag}@homeowner.example`;
 	const [sales] = await sql`select id from users where email = ${demoUser('sales').email}`;
-	await sql`insert into contacts (id, name, email) values (${'c-' + tag}, ${'Ada Fernhill ' + tag}, ${email})`;
-	await sql`insert into leads (id, contact_id, stage, message, assignee_id)
-		values (${'l-' + tag}, ${'c-' + tag}, 'visit_booked', 'Three bubbling columns by the patio', ${sales.id})`;
-	return { id: 'l-' + tag, email, name: `Ada Fernhill ${tag}` };
+	return seedLead(sql, {
+		name: 'Ada Fernhill',
+		message: 'Three bubbling columns by the patio',
+		assigneeId: sales.id
+	});
 }
 
 /** A yard photo sent with the inquiry, stored as the intake pipeline stores it. */
