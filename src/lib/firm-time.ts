@@ -19,6 +19,10 @@ const STYLES = {
 	dayShort: { weekday: 'short', day: 'numeric', month: 'short' },
 	/** "9:30 AM MDT" */
 	time: { hour: 'numeric', minute: '2-digit', timeZoneName: 'short' },
+	/** "May 14, 9:30 AM" (the office's lists) */
+	when: { month: 'short', day: 'numeric', hour: 'numeric', minute: '2-digit' },
+	/** "May 14, 2027" (the office's lists) */
+	day: { month: 'short', day: 'numeric', year: 'numeric' },
 	/** "Fri, May 14, 9:30 AM MDT" */
 	whenShort: {
 		weekday: 'short',

@@ -105,6 +105,12 @@ export const jobDays = pgTable(
 	]
 );
 
+/** The job a row belongs to, deleted with it. */
+export const ofJob = () =>
+	text('job_id')
+		.notNull()
+		.references(() => jobs.id, { onDelete: 'cascade' });
+
 export const jobMaterials = pgTable(
 	'job_materials',
 	{
