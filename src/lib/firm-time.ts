@@ -23,6 +23,34 @@ const STYLES = {
 	when: { month: 'short', day: 'numeric', hour: 'numeric', minute: '2-digit' },
 	/** "May 14, 2027" (the office's lists) */
 	day: { month: 'short', day: 'numeric', year: 'numeric' },
+	/** "Friday, May 14, 9:30 AM MDT" */
+	whenLong: {
+		weekday: 'long',
+		month: 'long',
+		day: 'numeric',
+		hour: 'numeric',
+		minute: '2-digit',
+		timeZoneName: 'short'
+	},
+	/** "Fri, May 14, 9:30 AM" */
+	whenMedium: { weekday: 'short', month: 'short', day: 'numeric', hour: 'numeric', minute: '2-digit' },
+	/** "Fri, May 14, 2027, 9:30 AM" */
+	whenYear: {
+		weekday: 'short',
+		month: 'short',
+		day: 'numeric',
+		year: 'numeric',
+		hour: 'numeric',
+		minute: '2-digit'
+	},
+	/** "May 14, 2027, 9:30 AM" */
+	dateTimeMedium: { dateStyle: 'medium', timeStyle: 'short' },
+	/** "May 14, 2027" */
+	dateMedium: { dateStyle: 'medium' },
+	/** "Friday, May 14, 2027" */
+	dateFull: { dateStyle: 'full' },
+	/** "9:30 AM" */
+	clock: { hour: 'numeric', minute: '2-digit' },
 	/** "Fri, May 14, 9:30 AM MDT" */
 	whenShort: {
 		weekday: 'short',
