@@ -1,7 +1,7 @@
 // Ponds and streams in the builder and on the homeowner's page: a pond lead's estimate starts
 // from a pond, is sent and accepted on a 390 px phone; a stream lead's estimate gets a fountain as
 // an option, the homeowner leaves it out and the total follows.
-import { expect, test, type Page } from '@playwright/test';
+import { expect, test } from '@playwright/test';
 import postgres from 'postgres';
 import { formatCents } from '../../src/lib/money';
 import { seedLead } from '../support/lead';

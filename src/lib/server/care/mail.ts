@@ -4,7 +4,6 @@
 import { htmlBody } from '../platform/mail';
 import type { Settings } from '../platform/db/schema';
 import { calendarDay } from '$lib/firm-time';
-import { formatCents } from '$lib/money';
 
 export interface Built {
 	subject: string;

@@ -1,6 +1,5 @@
 // The public care sign-up: server-rendered (it has a form), never prerendered.
 import { fail, redirect } from '@sveltejs/kit';
-import { fieldErrors } from '$lib/schema/auth';
 import { listedFeatures, publicSignUpSchema } from '$lib/schema/care';
 import { CareError } from '$lib/server/care/db';
 import { clientAddress } from '$lib/server/care/http';

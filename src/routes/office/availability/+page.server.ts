@@ -1,5 +1,5 @@
 import { error, fail } from '@sveltejs/kit';
-import { fieldErrors, formValues } from '$lib/schema/auth';
+import { formValues } from '$lib/schema/auth';
 import { availabilitySchema, timeOffSchema } from '$lib/schema/visits';
 import { requireRole } from '$lib/server/auth/access';
 import type { SessionUser } from '$lib/server/auth/sessions';

@@ -1,4 +1,3 @@
-import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
 import { requireRole } from '$lib/server/auth/access';
 import { domainAction as jobAction } from '$lib/server/http/domain';

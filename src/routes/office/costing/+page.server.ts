@@ -1,5 +1,3 @@
-import { fail } from '@sveltejs/kit';
-import { fieldErrors, formValues } from '$lib/schema/auth';
 import { costingSettingsSchema } from '$lib/schema/costing';
 import { requireRole } from '$lib/server/auth/access';
 import { completedJobs, costingConfig, saveCostingConfig } from '$lib/server/costing/report';

@@ -1,5 +1,4 @@
 import { error, fail, redirect } from '@sveltejs/kit';
-import { fieldErrors } from '$lib/schema/auth';
 import { signUpSchema } from '$lib/schema/care';
 import { careLink } from '$lib/server/care/links';
 import { domainAction } from '$lib/server/http/domain';

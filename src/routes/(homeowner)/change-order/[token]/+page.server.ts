@@ -1,5 +1,4 @@
 import { error, fail } from '@sveltejs/kit';
-import { fieldErrors } from '$lib/schema/auth';
 import { decisionSchema } from '$lib/schema/jobs';
 import {
 	changeOrderForHomeowner,

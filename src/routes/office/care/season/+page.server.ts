@@ -1,6 +1,5 @@
 import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
-import { fieldErrors } from '$lib/schema/auth';
 import { seasonSettingsSchema } from '$lib/schema/care';
 import { parseSeasonKey, SEASON_DEFAULTS } from '$lib/care/seasons';
 import { isDate, parseClock } from '$lib/scheduling/zone';

@@ -1,6 +1,4 @@
-import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
-import { fieldErrors } from '$lib/schema/auth';
 import { careSettingsSchema } from '$lib/schema/jobs';
 import { requireRole } from '$lib/server/auth/access';
 import { careSettings, saveCareSettings } from '$lib/server/care/reminders';

@@ -1,6 +1,5 @@
 import { error, fail } from '@sveltejs/kit';
-import type { z } from 'zod';
-import { fieldErrors, formValues } from '$lib/schema/auth';
+import { formValues } from '$lib/schema/auth';
 import {
 	assignFormSchema,
 	detailsFormSchema,

@@ -1,5 +1,4 @@
-import { error, fail, redirect } from '@sveltejs/kit';
-import { fieldErrors } from '$lib/schema/auth';
+import { error, redirect } from '@sveltejs/kit';
 import { planSchema } from '$lib/schema/care';
 import { FEATURE_KINDS, FEATURE_SIZES, VISIT_KINDS } from '$lib/care/kinds';
 import { requireRole } from '$lib/server/auth/access';

@@ -1,6 +1,5 @@
 import { error, fail } from '@sveltejs/kit';
 import { z } from 'zod';
-import { fieldErrors } from '$lib/schema/auth';
 import { featureSchema, pinSchema } from '$lib/schema/care';
 import { requireRole } from '$lib/server/auth/access';
 import { CareError } from '$lib/server/care/db';
