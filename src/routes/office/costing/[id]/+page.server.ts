@@ -1,6 +1,4 @@
-import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
-import { fieldErrors, formValues } from '$lib/schema/auth';
 import { jobCostSchema, usageSchema } from '$lib/schema/costing';
 import { requireRole } from '$lib/server/auth/access';
 import { domainAction as jobAction, orHttp } from '$lib/server/http/domain';
@@ -27,16 +25,8 @@ export const actions: Actions = {
 	usage: async (event) => {
 		const user = requireRole(event, 'owner');
 		const data = await event.request.formData();
-		const values = formValues(data);
-		const parsed = usageSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, {
-				form: 'usage',
-				materialId: values.materialId,
-				values,
-				errors: fieldErrors(parsed.error)
-			});
-		}
+		const parsed = await parseForm(data, usageSchema, { extra: { form: 'usage', materialId: String(data.get('materialId') ?? '') } });
+		if (!parsed.ok) return parsed.failure;
 		return jobAction(async () => {
 			await saveUsage(user, event.params.id, parsed.data);
 			return { form: 'usage', materialId: parsed.data.materialId, saved: true };
@@ -45,11 +35,8 @@ export const actions: Actions = {
 	cost: async (event) => {
 		const user = requireRole(event, 'owner');
 		const data = await event.request.formData();
-		const values = formValues(data);
-		const parsed = jobCostSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'cost', values, errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(data, jobCostSchema, { extra: { form: 'cost' } });
+		if (!parsed.ok) return parsed.failure;
 		return jobAction(async () => {
 			await addJobCost(user, event.params.id, parsed.data);
 			return { form: 'cost', saved: true };

@@ -1,5 +1,4 @@
 import { error, fail } from '@sveltejs/kit';
-import { fieldErrors, formValues } from '$lib/schema/auth';
 import { handPaymentSchema, invoiceSchema, refundSchema } from '$lib/schema/payments';
 import { requireRole } from '$lib/server/auth/access';
 import { sendPayLink } from '$lib/server/payments/checkout';
@@ -57,11 +56,9 @@ export const actions: Actions = {
 	record: async (event) => {
 		const user = requireRole(event, 'owner');
 		const data = await event.request.formData();
-		const values = formValues(data);
-		const parsed = handPaymentSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'record', values, errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(data, handPaymentSchema, { extra: { form: 'record' } });
+		if (!parsed.ok) return parsed.failure;
+		const { values } = parsed;
 		await jobOr404(event.params.jobId);
 		try {
 			await recordHandPayment(
@@ -77,11 +74,9 @@ export const actions: Actions = {
 	refund: async (event) => {
 		const user = requireRole(event, 'owner');
 		const data = await event.request.formData();
-		const values = formValues(data);
-		const parsed = refundSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'refund', values, errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(data, refundSchema, { extra: { form: 'refund' } });
+		if (!parsed.ok) return parsed.failure;
+		const { values } = parsed;
 		await jobOr404(event.params.jobId);
 		try {
 			await recordRefund(

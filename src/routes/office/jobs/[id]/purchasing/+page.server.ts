@@ -1,5 +1,5 @@
 import { fail } from '@sveltejs/kit';
-import { fieldErrors, formValues } from '$lib/schema/auth';
+import { fieldErrors } from '$lib/schema/auth';
 import {
 	itemSupplierSchema,
 	orderIdSchema,
@@ -39,11 +39,8 @@ export const actions: Actions = {
 	supplier: async (event) => {
 		requireRole(event, 'owner', 'sales');
 		const data = await event.request.formData();
-		const values = formValues(data);
-		const parsed = supplierSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'supplier', values, errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(data, supplierSchema, { extra: { form: 'supplier' } });
+		if (!parsed.ok) return parsed.failure;
 		return jobAction(async () => {
 			await addSupplier(parsed.data);
 			return { form: 'supplier', saved: true };
@@ -72,16 +69,8 @@ export const actions: Actions = {
 	update: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
 		const data = await event.request.formData();
-		const values = formValues(data);
-		const parsed = orderUpdateSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, {
-				form: 'update',
-				orderId: values.orderId,
-				values,
-				errors: fieldErrors(parsed.error)
-			});
-		}
+		const parsed = await parseForm(data, orderUpdateSchema, { extra: { form: 'update', orderId: String(data.get('orderId') ?? '') } });
+		if (!parsed.ok) return parsed.failure;
 		const { orderId, ...input } = parsed.data;
 		return jobAction(async () => {
 			await updateOrder(user, event.params.id, orderId, input);
