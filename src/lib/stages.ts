@@ -1,5 +1,5 @@
-// The vocabularies of a lead's and a job's life: each stage list in order, the reasons a lead is
-// closed, and how each reads on screen. The database enums (platform/db/schema), the zod enums of
+// The vocabularies of the work's life: a lead's and a job's stages in order, the reasons a lead is
+// closed, an estimate's and a warranty callback's status, and how each reads on screen. The database enums (platform/db/schema), the zod enums of
 // the forms and every label come from here, so a stage is added in one place. No imports:
 // drizzle-kit loads this file through the schema.
 
@@ -58,3 +58,31 @@ export const JOB_STAGE_LABELS: Record<JobStage, string> = {
 
 /** The stages a person moves a job to by hand; "paid" follows from the payments alone. */
 export const JOB_STAGES_BY_HAND = ['scheduled', 'underway', 'punch_list', 'complete'] as const;
+
+/** An estimate version from the builder to the homeowner's answer. */
+export const ESTIMATE_STATUSES = ['draft', 'sent', 'accepted', 'declined'] as const;
+export type EstimateStatus = (typeof ESTIMATE_STATUSES)[number];
+
+export const ESTIMATE_STATUS_LABELS: Record<EstimateStatus, string> = {
+	draft: 'Draft',
+	sent: 'Sent',
+	accepted: 'Accepted',
+	declined: 'Declined'
+};
+
+/** A warranty callback from the homeowner's report to the fix. */
+export const CALLBACK_STATUSES = ['reported', 'scheduled', 'fixed'] as const;
+export type CallbackStatus = (typeof CALLBACK_STATUSES)[number];
+
+export const CALLBACK_STATUS_LABELS: Record<CallbackStatus, string> = {
+	reported: 'Reported',
+	scheduled: 'Scheduled',
+	fixed: 'Fixed'
+};
+
+/** The same, in the homeowner's words on their link page. */
+export const CALLBACK_STATUS_FOR_HOMEOWNER: Record<CallbackStatus, string> = {
+	reported: 'reported',
+	scheduled: 'visit booked',
+	fixed: 'fixed'
+};

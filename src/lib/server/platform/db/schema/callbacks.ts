@@ -6,6 +6,7 @@ import { users } from './auth';
 import { jobs } from './jobs';
 import { photos } from './photos';
 import { createdAt, updatedAt } from './columns';
+import { CALLBACK_STATUSES } from '../../../../stages';
 
 /** One link per job (only the SHA-256 of its token is kept); it does not expire. */
 export const callbackLinks = pgTable('callback_links', {
@@ -24,7 +25,7 @@ export const callbacks = pgTable(
 			.notNull()
 			.references(() => jobs.id, { onDelete: 'cascade' }),
 		description: text('description').notNull(),
-		status: text('status', { enum: ['reported', 'scheduled', 'fixed'] })
+		status: text('status', { enum: CALLBACK_STATUSES })
 			.notNull()
 			.default('reported'),
 		/** Fixed when reported, from the completion day and the warranty setting of that moment. */
