@@ -13,11 +13,9 @@ import {
 } from '../../platform/images';
 import { isDatabaseUnavailable } from '../../platform/outage';
 import { StorageUnavailableError } from '../../platform/storage';
+import { discardStored, storePhoto, type StoredPhoto } from '../../photos/store';
 import {
-	type StoredPhoto,
 	type Draft,
-	storePhoto,
-	discardStored,
 	saveDrafts,
 	statusOf
 } from './drafts';
@@ -141,7 +139,7 @@ export async function receiveInquiry(
 
 	let stored: StoredPhoto[] = [];
 	try {
-		for (const p of processed) stored.push(await storePhoto(p));
+		for (const p of processed) stored.push(await storePhoto(p, 'intake'));
 	} catch (error) {
 		await discardStored(stored);
 		if (error instanceof StorageUnavailableError) return fail(503, STORAGE_DOWN, errors);

@@ -17,7 +17,7 @@ import {
 } from '$lib/server/jobs/change-orders';
 import { domainAction, orHttp } from '$lib/server/http/domain';
 import { addPunchItem, setMaterialFlag, setPunchDone } from '$lib/server/jobs/checklists';
-import { attachJobPhoto } from '$lib/server/photos/job-photos';
+import { addJobPhoto } from '$lib/server/photos/job-photos';
 import { signPhotos } from '$lib/server/photos/links';
 import {
 	crewConflicts,
@@ -29,12 +29,8 @@ import {
 import { jobBalance } from '$lib/server/payments/balance';
 import { scheduleJob } from '$lib/server/jobs/schedule';
 import { setStage } from '$lib/server/jobs/stage';
-import { PhotoError, processPhoto } from '$lib/server/platform/images';
-import {
-	putObject,
-	randomKey,
-	StorageUnavailableError
-} from '$lib/server/platform/storage';
+import { PhotoError } from '$lib/server/platform/images';
+import { StorageUnavailableError } from '$lib/server/platform/storage';
 import type { Actions, PageServerLoad } from './$types';
 import { parseForm } from '$lib/server/platform/forms';
 
@@ -208,17 +204,7 @@ export const actions: Actions = {
 			return fail(400, { form: 'photo', message: 'Choose a photo first' });
 		}
 		try {
-			const photo = await processPhoto(file.name, new Uint8Array(await file.arrayBuffer()));
-			const displayKey = randomKey('jobs', 'display.webp');
-			const thumbKey = randomKey('jobs', 'thumb.webp');
-			await putObject(displayKey, photo.display, photo.contentType);
-			await putObject(thumbKey, photo.thumb, photo.contentType);
-			await attachJobPhoto(
-				user,
-				event.params.id,
-				{ displayKey, thumbKey, width: photo.width, height: photo.height, bytes: photo.bytes },
-				photo.originalName
-			);
+			await addJobPhoto(user, event.params.id, file);
 		} catch (e) {
 			if (e instanceof PhotoError) return fail(400, { form: 'photo', message: e.message });
 			if (e instanceof StorageUnavailableError) {
