@@ -33,7 +33,13 @@ const STYLES = {
 		timeZoneName: 'short'
 	},
 	/** "Fri, May 14, 9:30 AM" */
-	whenMedium: { weekday: 'short', month: 'short', day: 'numeric', hour: 'numeric', minute: '2-digit' },
+	whenMedium: {
+		weekday: 'short',
+		month: 'short',
+		day: 'numeric',
+		hour: 'numeric',
+		minute: '2-digit'
+	},
 	/** "Fri, May 14, 2027, 9:30 AM" */
 	whenYear: {
 		weekday: 'short',

@@ -75,7 +75,19 @@ describe('parseCents', () => {
 		expect(parseCents('−10.50')).toBeNull();
 	});
 	it('refuses what is not an amount', () => {
-		for (const bad of ['', ' ', 'abc', '1.234', '12.', '.5', '1e3', '0x10', '12$', 'NaN', '1.2.3']) {
+		for (const bad of [
+			'',
+			' ',
+			'abc',
+			'1.234',
+			'12.',
+			'.5',
+			'1e3',
+			'0x10',
+			'12$',
+			'NaN',
+			'1.2.3'
+		]) {
 			expect(parseCents(bad)).toBeNull();
 		}
 	});

@@ -18,6 +18,7 @@ export interface AcceptedJobSpec {
 }
 
 const newId = () => randomBytes(12).toString('base64url');
+type JsonValue = Parameters<Sql['json']>[0];
 
 /** What the job keeps of the sale: version 1 of the estimate, accepted through its link. */
 export function frozenEstimate(f: {
@@ -72,7 +73,7 @@ export async function seedAcceptedJob(
 		taxCents: spec.taxCents ?? 0
 	});
 	await sql`insert into jobs (id, estimate_id, lead_id, contact_id, title, frozen, contract_cents, deposit_due_cents, crew_lead_id)
-		values (${jobId}, ${estimateId}, ${leadId}, ${contactId}, ${spec.title}, ${sql.json(frozen)},
+		values (${jobId}, ${estimateId}, ${leadId}, ${contactId}, ${spec.title}, ${sql.json(frozen as unknown as JsonValue)},
 			${totalCents}, ${depositCents}, ${spec.crewLeadId ?? null})`;
 	return { token, jobId };
 }

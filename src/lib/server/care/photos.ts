@@ -20,21 +20,23 @@ export async function storeCarePhoto(
 	const processed = await processPhoto(file.name, new Uint8Array(await file.arrayBuffer()));
 	const stored = await storePhoto(processed, 'care');
 	const id = newId();
-	await recordingStored([stored], () => db.transaction(async (tx) => {
-		await tx.insert(photos).values({
-			id,
-			context: 'featureId' in to ? 'feature' : 'service',
-			...stored,
-			uploadedBy
-		});
-		if ('featureId' in to) {
-			await tx.insert(featurePhotos).values({ featureId: to.featureId, photoId: id });
-		} else {
-			await tx
-				.insert(serviceVisitPhotos)
-				.values({ serviceVisitId: to.serviceVisitId, photoId: id });
-		}
-	}));
+	await recordingStored([stored], () =>
+		db.transaction(async (tx) => {
+			await tx.insert(photos).values({
+				id,
+				context: 'featureId' in to ? 'feature' : 'service',
+				...stored,
+				uploadedBy
+			});
+			if ('featureId' in to) {
+				await tx.insert(featurePhotos).values({ featureId: to.featureId, photoId: id });
+			} else {
+				await tx
+					.insert(serviceVisitPhotos)
+					.values({ serviceVisitId: to.serviceVisitId, photoId: id });
+			}
+		})
+	);
 	return id;
 }
 

@@ -4,7 +4,16 @@
 // mail of the dates in season-mail.ts.
 import { and, asc, eq, inArray, lte, sql } from 'drizzle-orm';
 import { db } from '../platform/db';
-import { carePlans, careSubscriptions, contacts, properties, propertyFeatures, propertyLocations, serviceVisits, type CareCrewDay } from '../platform/db/schema';
+import {
+	carePlans,
+	careSubscriptions,
+	contacts,
+	properties,
+	propertyFeatures,
+	propertyLocations,
+	serviceVisits,
+	type CareCrewDay
+} from '../platform/db/schema';
 import { newId } from '../platform/crypto';
 import { VISIT_SEASON, visitPrice, type FeatureKind, type FeatureSize } from '$lib/care/kinds';
 import { parseSeasonKey, seasonWindow } from '$lib/care/seasons';
@@ -86,7 +95,6 @@ export async function generateSeason(key: string): Promise<{ created: number; to
 	return { created, total: n };
 }
 
-
 /** The visits of a season with what the board and the planner need. */
 export async function seasonVisits(key: string, tx: Tx | typeof db = db) {
 	return tx
@@ -108,7 +116,6 @@ export async function seasonVisits(key: string, tx: Tx | typeof db = db) {
 		.where(eq(serviceVisits.season, key))
 		.orderBy(asc(serviceVisits.day), asc(serviceVisits.routeOrder), asc(contacts.name));
 }
-
 
 /** What the season page shows: crew days with their routes, and the visits still undated. */
 export async function seasonBoard(key: string) {

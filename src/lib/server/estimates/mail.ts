@@ -23,7 +23,6 @@ export interface MailContext {
 	owners: User[];
 }
 
-
 export function estimateUrl(token: string) {
 	return `${origin()}/estimate/${token}`;
 }

@@ -104,7 +104,10 @@ export class LeadConflictError extends DomainError<'stale'> {
 		readonly at: Date,
 		timeZone: string
 	) {
-		super('stale', `Changed by ${by} at ${inZone(at, timeZone, 'when')}: reload to see their change.`);
+		super(
+			'stale',
+			`Changed by ${by} at ${inZone(at, timeZone, 'when')}: reload to see their change.`
+		);
 	}
 }
 

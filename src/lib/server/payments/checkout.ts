@@ -17,14 +17,7 @@ import { origin } from '../platform/env';
 import { jobRef } from '../jobs/labels';
 import { writeMail } from '../platform/outbox';
 import { createCheckout, paymentsClient } from './provider';
-import {
-	CURRENCY,
-	dispatchAll,
-	insertPayment,
-	jobMoney,
-	lockJob,
-	PaymentError
-} from './ledger';
+import { CURRENCY, dispatchAll, insertPayment, jobMoney, lockJob, PaymentError } from './ledger';
 import { officeAlertMail, payLinkMail } from './mail';
 import { ensureInvoice } from './invoices';
 import { formatCents } from '$lib/money';

@@ -36,5 +36,8 @@ export function photoLinks(rows: (typeof photos.$inferSelect)[], seconds?: numbe
 
 /** For a gallery that opens the large picture: its link as `fullUrl`. */
 export async function galleryLinks<T extends StoredKeys>(rows: T[], seconds?: number) {
-	return (await signPhotos(rows, seconds)).map(({ displayUrl, ...p }) => ({ ...p, fullUrl: displayUrl }));
+	return (await signPhotos(rows, seconds)).map(({ displayUrl, ...p }) => ({
+		...p,
+		fullUrl: displayUrl
+	}));
 }

@@ -18,11 +18,14 @@ export const actions: Actions = {
 	/** E-mails a homeowner a fresh problem-report link for a finished job. */
 	link: async (event) => {
 		requireRole(event, 'owner', 'sales');
-		const parsed = await parseForm(event.request, z
-			.object({ jobId: z.string().min(1, 'Pick a finished job') }), {
-			extra: { form: 'link' },
-			message: 'Pick a finished job'
-		});
+		const parsed = await parseForm(
+			event.request,
+			z.object({ jobId: z.string().min(1, 'Pick a finished job') }),
+			{
+				extra: { form: 'link' },
+				message: 'Pick a finished job'
+			}
+		);
 		if (!parsed.ok) return parsed.failure;
 		return jobAction(async () => {
 			await sendCallbackLink(parsed.data.jobId);

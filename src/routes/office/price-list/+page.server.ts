@@ -124,7 +124,9 @@ export const actions: Actions = {
 	},
 	rates: async (event) => {
 		requireRole(event, 'owner');
-		const parsed = await parseForm(event.request, taskRatesFormSchema, { extra: { form: 'rates' } });
+		const parsed = await parseForm(event.request, taskRatesFormSchema, {
+			extra: { form: 'rates' }
+		});
 		if (!parsed.ok) return parsed.failure;
 		const errors = await saveTaskRates(parsed.data as Record<string, number>);
 		if (errors.length) return refused('rates', parsed.values, errors);
@@ -132,7 +134,9 @@ export const actions: Actions = {
 	},
 	settings: async (event) => {
 		requireRole(event, 'owner');
-		const parsed = await parseForm(event.request, settingsFormSchema, { extra: { form: 'settings' } });
+		const parsed = await parseForm(event.request, settingsFormSchema, {
+			extra: { form: 'settings' }
+		});
 		if (!parsed.ok) return parsed.failure;
 		const errors = await saveEstimatingSettings(parsed.data);
 		if (errors.length) return refused('settings', parsed.values, errors);

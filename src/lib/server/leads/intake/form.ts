@@ -14,11 +14,7 @@ import {
 import { isDatabaseUnavailable } from '../../platform/outage';
 import { StorageUnavailableError } from '../../platform/storage';
 import { discardStored, storePhoto, type StoredPhoto } from '../../photos/store';
-import {
-	type Draft,
-	saveDrafts,
-	statusOf
-} from './drafts';
+import { type Draft, saveDrafts, statusOf } from './drafts';
 import { IntakeError, STORAGE_DOWN, DATABASE_DOWN } from './errors';
 import { HONEYPOT, checkStamp } from './stamp';
 import { submitInquiry } from './records';

@@ -69,7 +69,9 @@ const crewDaysSchema = z
 export const actions: Actions = {
 	settings: async (event) => {
 		requireRole(event, 'owner');
-		const parsed = await parseForm(event.request, seasonSettingsSchema, { extra: { form: 'settings' } });
+		const parsed = await parseForm(event.request, seasonSettingsSchema, {
+			extra: { form: 'settings' }
+		});
 		if (!parsed.ok) return parsed.failure;
 		await saveSeasonSettings(parsed.data);
 		return { form: 'settings', message: 'Saved.' };
@@ -121,11 +123,14 @@ export const actions: Actions = {
 	},
 	move: async (event) => {
 		requireRole(event, 'owner');
-		const parsed = await parseForm(event.request, z
-			.object({ visitId: z.string().min(1), crewDayId: z.string().min(1, 'Pick a day') }), {
-			extra: { form: 'move' },
-			message: 'Pick a day to move the visit to'
-		});
+		const parsed = await parseForm(
+			event.request,
+			z.object({ visitId: z.string().min(1), crewDayId: z.string().min(1, 'Pick a day') }),
+			{
+				extra: { form: 'move' },
+				message: 'Pick a day to move the visit to'
+			}
+		);
 		if (!parsed.ok) return parsed.failure;
 		const r = await domainAction(
 			() => moveVisit(parsed.data.visitId, parsed.data.crewDayId),

@@ -25,7 +25,9 @@ export const actions: Actions = {
 	usage: async (event) => {
 		const user = requireRole(event, 'owner');
 		const data = await event.request.formData();
-		const parsed = await parseForm(data, usageSchema, { extra: { form: 'usage', materialId: String(data.get('materialId') ?? '') } });
+		const parsed = await parseForm(data, usageSchema, {
+			extra: { form: 'usage', materialId: String(data.get('materialId') ?? '') }
+		});
 		if (!parsed.ok) return parsed.failure;
 		return jobAction(async () => {
 			await saveUsage(user, event.params.id, parsed.data);
@@ -44,8 +46,7 @@ export const actions: Actions = {
 	},
 	removeCost: async (event) => {
 		const user = requireRole(event, 'owner');
-		const parsed = await parseForm(event.request, z
-			.object({ costId: z.string().min(1) }), {
+		const parsed = await parseForm(event.request, z.object({ costId: z.string().min(1) }), {
 			extra: { form: 'cost' },
 			message: 'Pick a cost'
 		});

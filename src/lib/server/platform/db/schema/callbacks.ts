@@ -25,9 +25,7 @@ export const callbacks = pgTable(
 			.notNull()
 			.references(() => jobs.id, { onDelete: 'cascade' }),
 		description: text('description').notNull(),
-		status: text('status', { enum: CALLBACK_STATUSES })
-			.notNull()
-			.default('reported'),
+		status: text('status', { enum: CALLBACK_STATUSES }).notNull().default('reported'),
 		/** Fixed when reported, from the completion day and the warranty setting of that moment. */
 		inWarranty: boolean('in_warranty').notNull(),
 		warrantyEndsOn: date('warranty_ends_on'),

@@ -32,17 +32,20 @@ export const load: PageServerLoad = async ({ params, url }) => {
 export const actions: Actions = {
 	another: async ({ params, request }) => {
 		const v = await visitOf(params.token);
-		const parsed = await parseForm(request, z
-			.object({
+		const parsed = await parseForm(
+			request,
+			z.object({
 				message: z
 					.string()
 					.trim()
 					.min(3, 'Tell us which days suit you')
 					.max(1000, 'At most 1000 characters')
-			}), {
-			extra: { form: 'another' },
-			message: true
-		});
+			}),
+			{
+				extra: { form: 'another' },
+				message: true
+			}
+		);
 		if (!parsed.ok) return parsed.failure;
 		const r = await domainAction(() => requestAnotherDay(v, parsed.data.message), 'another');
 		return r ?? { form: 'another', sent: true };

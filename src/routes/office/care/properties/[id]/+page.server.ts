@@ -82,8 +82,7 @@ export const actions: Actions = {
 	},
 	removeFeature: async (event) => {
 		requireRole(event, 'owner', 'sales');
-		const parsed = await parseForm(event.request, z
-			.object({ featureId: z.string().min(1) }), {
+		const parsed = await parseForm(event.request, z.object({ featureId: z.string().min(1) }), {
 			extra: { form: 'remove' },
 			message: 'Pick a feature'
 		});

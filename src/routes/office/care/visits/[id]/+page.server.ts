@@ -52,11 +52,14 @@ export const actions: Actions = {
 	},
 	notes: async (event) => {
 		const user = requireRole(event, ...STAFF);
-		const parsed = await parseForm(event.request, z
-			.object({ notes: z.string().max(4000, 'At most 4000 characters') }), {
-			extra: { form: 'notes' },
-			message: true
-		});
+		const parsed = await parseForm(
+			event.request,
+			z.object({ notes: z.string().max(4000, 'At most 4000 characters') }),
+			{
+				extra: { form: 'notes' },
+				message: true
+			}
+		);
 		if (!parsed.ok) return parsed.failure;
 		const r = await domainAction(
 			() => saveServiceNotes(user, event.params.id, parsed.data.notes),

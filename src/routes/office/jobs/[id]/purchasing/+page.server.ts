@@ -69,7 +69,9 @@ export const actions: Actions = {
 	update: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
 		const data = await event.request.formData();
-		const parsed = await parseForm(data, orderUpdateSchema, { extra: { form: 'update', orderId: String(data.get('orderId') ?? '') } });
+		const parsed = await parseForm(data, orderUpdateSchema, {
+			extra: { form: 'update', orderId: String(data.get('orderId') ?? '') }
+		});
 		if (!parsed.ok) return parsed.failure;
 		const { orderId, ...input } = parsed.data;
 		return jobAction(async () => {
