@@ -29,10 +29,9 @@ import {
 import { jobBalance } from '$lib/server/payments/balance';
 import { scheduleJob } from '$lib/server/jobs/schedule';
 import { setStage } from '$lib/server/jobs/stage';
-import { PhotoError } from '$lib/server/platform/images';
-import { StorageUnavailableError } from '$lib/server/platform/storage';
-import type { Actions, PageServerLoad } from './$types';
+import type { Actions, PageServerLoad, RequestEvent } from './$types';
 import { parseForm } from '$lib/server/platform/forms';
+import { photoUpload } from '$lib/server/http/photo-upload';
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'owner', 'sales', 'crew');
@@ -112,6 +111,22 @@ function lineInput(l: TypedLine) {
 	};
 }
 
+/** Ticks a material line ordered or picked (or clears it). */
+async function materialFlag(
+	event: RequestEvent,
+	flag: 'ordered' | 'picked',
+	user: ReturnType<typeof requireRole>
+) {
+	const parsed = await parseForm(event.request, idSchema, {
+		extra: { form: 'materials' },
+		message: 'Pick a material'
+	});
+	if (!parsed.ok) return parsed.failure;
+	return domainAction(async () => {
+		await setMaterialFlag(user, event.params.id, parsed.data.itemId, flag, parsed.data.on === '1');
+	}, 'materials');
+}
+
 export const actions: Actions = {
 	schedule: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
@@ -132,40 +147,8 @@ export const actions: Actions = {
 			return { form: 'schedule', saved: true, conflicts: conflicts.length };
 		}, 'schedule');
 	},
-	ordered: async (event) => {
-		const user = requireRole(event, 'owner', 'sales');
-		const parsed = await parseForm(event.request, idSchema, {
-			extra: { form: 'materials' },
-			message: 'Pick a material'
-		});
-		if (!parsed.ok) return parsed.failure;
-		return domainAction(async () => {
-			await setMaterialFlag(
-				user,
-				event.params.id,
-				parsed.data.itemId,
-				'ordered',
-				parsed.data.on === '1'
-			);
-		}, 'materials');
-	},
-	picked: async (event) => {
-		const user = requireRole(event, 'owner', 'sales', 'crew');
-		const parsed = await parseForm(event.request, idSchema, {
-			extra: { form: 'materials' },
-			message: 'Pick a material'
-		});
-		if (!parsed.ok) return parsed.failure;
-		return domainAction(async () => {
-			await setMaterialFlag(
-				user,
-				event.params.id,
-				parsed.data.itemId,
-				'picked',
-				parsed.data.on === '1'
-			);
-		}, 'materials');
-	},
+	ordered: (event) => materialFlag(event, 'ordered', requireRole(event, 'owner', 'sales')),
+	picked: (event) => materialFlag(event, 'picked', requireRole(event, 'owner', 'sales', 'crew')),
 	punch: async (event) => {
 		const user = requireRole(event, 'owner', 'sales', 'crew');
 		const parsed = await parseForm(event.request, punchSchema, {
@@ -200,22 +183,7 @@ export const actions: Actions = {
 		const user = requireRole(event, 'owner', 'sales', 'crew');
 		await orHttp(() => jobFor(user, event.params.id));
 		const file = (await event.request.formData()).get('photo');
-		if (!(file instanceof File) || file.size === 0) {
-			return fail(400, { form: 'photo', message: 'Choose a photo first' });
-		}
-		try {
-			await addJobPhoto(user, event.params.id, file);
-		} catch (e) {
-			if (e instanceof PhotoError) return fail(400, { form: 'photo', message: e.message });
-			if (e instanceof StorageUnavailableError) {
-				return fail(503, {
-					form: 'photo',
-					message: 'Photo storage is out of reach; try again shortly.'
-				});
-			}
-			throw e;
-		}
-		return { form: 'photo', saved: true };
+		return photoUpload(file, (f) => addJobPhoto(user, event.params.id, f));
 	},
 	changeOrder: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');

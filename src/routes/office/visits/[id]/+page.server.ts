@@ -3,7 +3,6 @@ import { error, fail } from '@sveltejs/kit';
 import { visitNotesSchema } from '$lib/schema/visits';
 import { requireRole } from '$lib/server/auth/access';
 import type { SessionUser } from '$lib/server/auth/sessions';
-import { PhotoError } from '$lib/server/platform/images';
 import { StorageUnavailableError } from '$lib/server/platform/storage';
 import {
 	deleteVisitPhoto,
@@ -14,6 +13,7 @@ import { saveNotes } from '$lib/server/visits/notes';
 import { visitDetail } from '$lib/server/visits/agenda';
 import { parseForm } from '$lib/server/platform/forms';
 import type { Actions, PageServerLoad } from './$types';
+import { photoUpload } from '$lib/server/http/photo-upload';
 
 /** The visit, or a 404 for an unknown one and a 403 for another salesperson's closed visit. */
 async function visitFor(user: SessionUser, id: string) {
@@ -57,25 +57,16 @@ export const actions: Actions = {
 		const user = requireRole(event, 'owner', 'sales');
 		await visitFor(user, event.params.id);
 		const file = (await event.request.formData()).get('photo');
-		if (!(file instanceof File) || file.size === 0) {
-			return fail(400, { form: 'photo', message: 'Choose a photo first.' });
-		}
-		try {
-			const bytes = new Uint8Array(await file.arrayBuffer());
-			if (!(await storeVisitPhoto(event.params.id, file.name, bytes, user.id))) {
-				error(404, 'No such visit');
-			}
-		} catch (e) {
-			if (e instanceof PhotoError) return fail(400, { form: 'photo', message: e.message });
-			if (e instanceof StorageUnavailableError) {
-				return fail(503, {
-					form: 'photo',
-					message: 'Photo storage is out of reach; try again shortly.'
-				});
-			}
-			throw e;
-		}
-		return { form: 'photo', saved: true };
+		return photoUpload(
+			file,
+			async (f) => {
+				const bytes = new Uint8Array(await f.arrayBuffer());
+				if (!(await storeVisitPhoto(event.params.id, f.name, bytes, user.id))) {
+					error(404, 'No such visit');
+				}
+			},
+			{ empty: 'Choose a photo first.' }
+		);
 	},
 	deletePhoto: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');

@@ -20,10 +20,9 @@ import { featurePhotoLinks, storeCarePhoto } from '$lib/server/care/photos';
 import { planById } from '$lib/server/care/plans';
 import { currentSubscription } from '$lib/server/care/subscriptions';
 import { visitsOfSubscription } from '$lib/server/care/service';
-import { PhotoError } from '$lib/server/platform/images';
-import { StorageUnavailableError } from '$lib/server/platform/storage';
 import type { Actions, PageServerLoad } from './$types';
 import { parseForm } from '$lib/server/platform/forms';
+import { photoUpload } from '$lib/server/http/photo-upload';
 
 async function record(id: string) {
 	try {
@@ -98,26 +97,9 @@ export const actions: Actions = {
 		if (!features.some((f) => f.id === featureId)) {
 			return fail(400, { form: 'photo', message: 'Pick a feature' });
 		}
-		const file = data.get('photo');
-		if (!(file instanceof File) || file.size === 0) {
-			return fail(400, { form: 'photo', featureId, message: 'Choose a photo first' });
-		}
-		try {
-			await storeCarePhoto({ featureId }, file, user.id);
-		} catch (e) {
-			if (e instanceof PhotoError) {
-				return fail(400, { form: 'photo', featureId, message: e.message });
-			}
-			if (e instanceof StorageUnavailableError) {
-				return fail(503, {
-					form: 'photo',
-					featureId,
-					message: 'Photo storage is out of reach; try again shortly.'
-				});
-			}
-			throw e;
-		}
-		return { form: 'photo', saved: true };
+		return photoUpload(data.get('photo'), (f) => storeCarePhoto({ featureId }, f, user.id), {
+			extra: { featureId }
+		});
 	},
 	pin: async (event) => {
 		requireRole(event, 'owner', 'sales');

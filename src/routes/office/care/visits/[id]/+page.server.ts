@@ -13,10 +13,9 @@ import {
 	serviceVisitFor,
 	tickChecklist
 } from '$lib/server/care/service';
-import { PhotoError } from '$lib/server/platform/images';
-import { StorageUnavailableError } from '$lib/server/platform/storage';
 import type { Actions, PageServerLoad } from './$types';
 import { parseForm } from '$lib/server/platform/forms';
+import { photoUpload } from '$lib/server/http/photo-upload';
 
 const STAFF = ['owner', 'sales', 'crew'] as const;
 
@@ -90,22 +89,7 @@ export const actions: Actions = {
 		const user = requireRole(event, ...STAFF);
 		const visit = await orHttp(() => serviceVisitFor(user, event.params.id));
 		const file = (await event.request.formData()).get('photo');
-		if (!(file instanceof File) || file.size === 0) {
-			return fail(400, { form: 'photo', message: 'Choose a photo first' });
-		}
-		try {
-			await storeCarePhoto({ serviceVisitId: visit.id }, file, user.id);
-		} catch (e) {
-			if (e instanceof PhotoError) return fail(400, { form: 'photo', message: e.message });
-			if (e instanceof StorageUnavailableError) {
-				return fail(503, {
-					form: 'photo',
-					message: 'Photo storage is out of reach; try again shortly.'
-				});
-			}
-			throw e;
-		}
-		return { form: 'photo', saved: true };
+		return photoUpload(file, (f) => storeCarePhoto({ serviceVisitId: visit.id }, f, user.id));
 	},
 	done: async (event) => {
 		const user = requireRole(event, ...STAFF);
