@@ -1,6 +1,7 @@
 // `npm run bench:estimate`: median time of a full estimate (validation, sizing, takeoff, pricing).
 // Goal: under 1 ms for the twelve-outlet design, so the builder recomputes on every keystroke.
-import { demoCatalog, demoDesign, estimate, type Design } from '../../src/lib/estimating/index';
+import { estimate, type Design } from '../../src/lib/estimating/index';
+import { demoCatalog, demoDesign } from '../../src/lib/estimating/demo';
 import { twelveOutletDesign, yardDesign } from './designs';
 import { medianMs, writeResult } from './lib';
 

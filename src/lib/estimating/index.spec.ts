@@ -1,7 +1,8 @@
 import fc from 'fast-check';
 import { fountainIn } from '../../../tests/support/fountain';
 import { describe, expect, it } from 'vitest';
-import { demoCatalog, demoDesign, estimate, type Design, type EstimateSuccess } from './index';
+import { demoCatalog, demoDesign } from './demo';
+import { estimate, type Design, type EstimateSuccess } from './index';
 import { sizesFor, PIPE_MATERIALS } from './pipes';
 import { ROCK_TYPES } from './stones';
 

@@ -373,4 +373,3 @@ export type { PriceSummary, PricedLine, BucketTotals } from './pricing';
 export type { Caution } from './cautions';
 export { designSchema, catalogSchema } from './schema';
 export { formatQuantity, type UnitSystem, type DisplayKind } from './units';
-export { demoDesign, demoCatalog } from './demo';

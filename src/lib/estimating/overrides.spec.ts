@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { demoCatalog, demoDesign, estimate, type EstimateSuccess } from './index';
+import { demoCatalog, demoDesign } from './demo';
+import { estimate, type EstimateSuccess } from './index';
 import {
 	cleanChoices,
 	defaultChoices,

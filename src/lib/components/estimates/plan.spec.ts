@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { fountainIn } from '../../../../tests/support/fountain';
-import { demoDesign, designSchema } from '$lib/estimating';
+import { designSchema } from '$lib/estimating';
+import { demoDesign } from '$lib/estimating/demo';
 import { includedBuckets } from '$lib/estimating/pricing';
 import { yardDesign } from '../../../../scripts/bench/designs';
 import { boxOf } from './geometry';
