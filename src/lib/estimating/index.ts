@@ -299,6 +299,11 @@ function compute(design: ParsedDesign, catalog: ParsedCatalog, units: UnitSystem
 			machines: work.machines,
 			tasks: work.tasks,
 			stones: parts.stones.stones.map((result, i) => ({ result, sku: parts.stoneInputs[i]?.sku })),
+			walls: parts.walls.map((result, i) => ({
+				result,
+				unitSku: design.walls[i].unitSku,
+				capSku: design.walls[i].capSku
+			})),
 			lines: takeoff.lines,
 			site: design.site
 		},
