@@ -1,42 +1,17 @@
 // Ponds and streams in the builder and on the homeowner's page: a pond lead's estimate starts
 // from a pond, is sent and accepted on a 390 px phone; a stream lead's estimate gets a fountain as
 // an option, the homeowner leaves it out and the total follows.
-import { expect, test, type Page } from '@playwright/test';
+import { expect, test } from '@playwright/test';
 import postgres from 'postgres';
-import { randomBytes } from 'node:crypto';
 import { formatCents } from '../../src/lib/components/estimates/money';
-import { linkIn, waitForMail } from '../support/mailbox';
-import { demoUser, signIn } from './pages/staff';
+import { estimateFlow, saved } from './pages/estimate-flow';
+import { signIn } from './pages/staff';
 
 const sql = postgres(process.env.E2E_DATABASE_URL!, { max: 2, onnotice: () => {} });
+const { makeLead, sendAndOpen, accept } = estimateFlow(sql);
 test.afterAll(async () => {
 	await sql.end();
 });
-
-async function makeLead(name: string, services: string[], message: string) {
-	const tag = randomBytes(4).toString('hex');
-	const email = `${name.toLowerCase().split(' ')[0]}-${tag}@homeowner.example`;
-	const [sales] = await sql`select id from users where email = ${demoUser('sales').email}`;
-	await sql`insert into contacts (id, name, email) values (${'c-' + tag}, ${`${name} ${tag}`}, ${email})`;
-	await sql`insert into leads (id, contact_id, stage, message, services, assignee_id)
-		values (${'l-' + tag}, ${'c-' + tag}, 'visit_booked', ${message}, ${sql.array(services)}, ${sales.id})`;
-	return { id: 'l-' + tag, email, name: `${name} ${tag}` };
-}
-
-const saved = (page: Page) =>
-	page.waitForResponse(
-		(r) => r.url().includes('/api/estimates/') && r.request().method() === 'PUT' && r.ok()
-	);
-
-async function sendAndOpen(page: Page, lead: { id: string; email: string }) {
-	await expect(page.getByTestId('save-status')).toHaveText(/All changes saved/);
-	await page.getByRole('button', { name: /^Send to/ }).click();
-	await expect(page.getByTestId('estimate-status')).toHaveText('Sent');
-	const mail = await waitForMail(lead.email, /Your estimate from/);
-	const [row] =
-		await sql`select id, total_cents, deposit_cents from estimates where lead_id = ${lead.id}`;
-	return { link: linkIn(mail, /^\/estimate\/[A-Za-z0-9_-]+$/), row };
-}
 
 test('a pond lead: built from a pond, sent, and accepted on a 390 px phone', async ({
 	page,
@@ -94,15 +69,7 @@ test('a pond lead: built from a pond, sent, and accepted on a 390 px phone', asy
 	await expect(home.getByText(/Pond holds about \d+ in of open water/)).toBeVisible();
 	expect(await home.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
 	await home.screenshot({ path: test.info().outputPath('pond-390.png'), fullPage: true });
-	await home.getByLabel('Your full name').fill(lead.name);
-	await home.getByRole('checkbox', { name: /I accept this estimate/ }).check();
-	await home.getByRole('button', { name: /^Accept for/ }).click();
-	await expect(home.getByRole('heading', { name: 'Accepted: thank you' })).toBeVisible();
-	const [acc] =
-		await sql`select total_cents from estimate_acceptances where estimate_id = ${row.id}`;
-	expect(acc.total_cents).toBe(row.total_cents);
-	const [after] = await sql`select stage from leads where id = ${lead.id}`;
-	expect(after.stage).toBe('sold');
+	expect(await accept(home, lead, row.id)).toBe(row.total_cents);
 	await phone.close();
 });
 
@@ -149,13 +116,9 @@ test('a stream with a fountain as an option: the homeowner leaves it out and the
 	await option.uncheck();
 	await expect(totalShown).toHaveText(formatCents(row.total_cents));
 	expect(withFountain).not.toBe(formatCents(row.total_cents));
-	await home.getByLabel('Your full name').fill(lead.name);
-	await home.getByRole('checkbox', { name: /I accept this estimate/ }).check();
-	await home.getByRole('button', { name: /^Accept for/ }).click();
-	await expect(home.getByRole('heading', { name: 'Accepted: thank you' })).toBeVisible();
+	expect(await accept(home, lead, row.id)).toBe(row.total_cents);
 	const [acc] =
-		await sql`select total_cents, options_chosen from estimate_acceptances where estimate_id = ${row.id}`;
+		await sql`select options_chosen from estimate_acceptances where estimate_id = ${row.id}`;
 	expect(acc.options_chosen.options).toEqual([]);
-	expect(acc.total_cents).toBe(row.total_cents);
 	await phone.close();
 });

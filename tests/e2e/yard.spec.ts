@@ -1,54 +1,17 @@
 // Yard work without water: a patio-and-planting lead's estimate starts from a flagstone path and
 // planting beds, is reshaped with the polygon editor, sent, and accepted on a 390 px phone; a
 // lighting lead's estimate is built on a 390 px phone with lighting alone and accepted on a desktop.
-import { expect, test, type Page } from '@playwright/test';
+import { expect, test } from '@playwright/test';
 import postgres from 'postgres';
-import { randomBytes } from 'node:crypto';
 import { formatCents } from '../../src/lib/components/estimates/money';
-import { linkIn, waitForMail } from '../support/mailbox';
-import { demoUser, signIn } from './pages/staff';
+import { estimateFlow, saved } from './pages/estimate-flow';
+import { signIn } from './pages/staff';
 
 const sql = postgres(process.env.E2E_DATABASE_URL!, { max: 2, onnotice: () => {} });
+const { makeLead, sendAndOpen, accept } = estimateFlow(sql);
 test.afterAll(async () => {
 	await sql.end();
 });
-
-async function makeLead(name: string, services: string[], message: string) {
-	const tag = randomBytes(4).toString('hex');
-	const email = `${name.toLowerCase().split(' ')[0]}-${tag}@homeowner.example`;
-	const [sales] = await sql`select id from users where email = ${demoUser('sales').email}`;
-	await sql`insert into contacts (id, name, email) values (${'c-' + tag}, ${`${name} ${tag}`}, ${email})`;
-	await sql`insert into leads (id, contact_id, stage, message, services, assignee_id)
-		values (${'l-' + tag}, ${'c-' + tag}, 'visit_booked', ${message}, ${sql.array(services)}, ${sales.id})`;
-	return { id: 'l-' + tag, email, name: `${name} ${tag}` };
-}
-
-const saved = (page: Page) =>
-	page.waitForResponse(
-		(r) => r.url().includes('/api/estimates/') && r.request().method() === 'PUT' && r.ok()
-	);
-
-async function sendAndOpen(page: Page, lead: { id: string; email: string }) {
-	await expect(page.getByTestId('save-status')).toHaveText(/All changes saved/);
-	await page.getByRole('button', { name: /^Send to/ }).click();
-	await expect(page.getByTestId('estimate-status')).toHaveText('Sent');
-	const mail = await waitForMail(lead.email, /Your estimate from/);
-	const [row] =
-		await sql`select id, total_cents, deposit_cents from estimates where lead_id = ${lead.id}`;
-	return { link: linkIn(mail, /^\/estimate\/[A-Za-z0-9_-]+$/), row };
-}
-
-async function accept(home: Page, lead: { id: string; name: string }, estimateId: string) {
-	await home.getByLabel('Your full name').fill(lead.name);
-	await home.getByRole('checkbox', { name: /I accept this estimate/ }).check();
-	await home.getByRole('button', { name: /^Accept for/ }).click();
-	await expect(home.getByRole('heading', { name: 'Accepted: thank you' })).toBeVisible();
-	const [acc] =
-		await sql`select total_cents from estimate_acceptances where estimate_id = ${estimateId}`;
-	const [after] = await sql`select stage from leads where id = ${lead.id}`;
-	expect(after.stage).toBe('sold');
-	return acc.total_cents as number;
-}
 
 test('a path and planting: built from the lead, reshaped by corners, sent and accepted on a 390 px phone', async ({
 	page,
@@ -93,12 +56,35 @@ test('a path and planting: built from the lead, reshaped by corners, sent and ac
 	await path.getByLabel('Rise each (in)').fill('6');
 	await twice;
 
+	// The ground: clay, dug by machine, the soil kept on site. The digging is timed by the machine,
+	// the loader is priced, and the haul-off line goes.
+	const site = page.getByTestId('site-form');
+	const tasks = page.getByTestId('labor-tasks');
+	await expect(takeoff).toContainText('Haul away');
+	await expect(tasks).toContainText('(by hand)');
+	const thrice = saved(page);
+	await site.getByLabel('Soil').selectOption('clay');
+	await expect(site.getByTestId('site-rates')).toContainText('By hand in clay: 4.5 person-hours');
+	await site.getByLabel('Digging').selectOption('machine');
+	await expect(tasks).toContainText('(machine)');
+	await expect(tasks).not.toContainText('(by hand)');
+	await expect(takeoff).toContainText('Compact track loader');
+	await site.getByLabel('Dug soil').selectOption('keep');
+	await expect(takeoff).not.toContainText('Haul away');
+	await expect(page.getByTestId('site-work')).toContainText('kept on site');
+	await thrice;
+
 	const { link, row } = await sendAndOpen(page, lead);
 	const [{ design }] = await sql`select design from estimates where id = ${row.id}`;
 	expect((design as { features: { kind: string }[] }).features.map((f) => f.kind)).toEqual([
 		'path',
 		'planting'
 	]);
+	expect((design as { site: unknown }).site).toEqual({
+		soil: 'clay',
+		dig: 'machine',
+		haulSpoil: false
+	});
 
 	const phone = await browser.newContext({
 		viewport: { width: 390, height: 844 },
