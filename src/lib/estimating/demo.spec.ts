@@ -56,7 +56,7 @@ describe('demo data', () => {
 
 describe('the demo data stays out of what ships', () => {
 	it('no module under src but the tests imports demo.ts', () => {
-		const importsDemo = /from\s+['"][^'"]*(estimating\/demo|\.\/demo)['"]/;
+		const importsDemo = /(?:from\s+|import\s*\(\s*)['"][^'"]*(?:estimating\/demo|\.\/demo)['"]/;
 		const offenders = shipped(SRC)
 			.filter((f) => !f.endsWith(join('estimating', 'demo.ts')))
 			.filter((f) => importsDemo.test(readFileSync(f, 'utf8')))
