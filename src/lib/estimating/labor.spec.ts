@@ -341,10 +341,12 @@ describe('the design’s ground and digging choice (rates: the settings’ defau
 	it('dug soil kept on site gets no haul-off line; hauled, it is priced by the loose yd³', () => {
 		const kept = priced({ haulSpoil: false });
 		const hauled = priced({ haulSpoil: true });
-		const haul = (r: EstimateSuccess) => r.pricing.lines.filter((l) => l.sku === 'SPOIL-HAUL-YD3');
-		expect(haul(kept.r)).toEqual([]);
+		const haul = (r: EstimateSuccess) =>
+			r.pricing.lines.filter((l) => l.sku === 'SPOIL-HAUL-YD3' && l.bucket === 'base');
+		expect(kept.r.pricing.lines.filter((l) => l.sku === 'SPOIL-HAUL-YD3')).toEqual([]);
 		expect(kept.r.siteWork.spoil.every((s) => !s.hauled)).toBe(true);
-		// 1.778 bank yd³ of loam × 1.25 swell (US Army FM 5-434, table 1-2) = 2.22 loose yd³ → 2.3.
+		// The basin: 1.778 bank yd³ of loam × 1.25 swell (US Army FM 5-434, table 1-2) = 2.22 loose
+		// yd³ → 2.3 (the wall's footing, an option, has a line of its own).
 		expect(haul(hauled.r).map((l) => l.quantity)).toEqual([2.3]);
 		expect(kept.r.pricing.totalCents).toBeLessThan(hauled.r.pricing.totalCents);
 	});
