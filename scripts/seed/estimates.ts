@@ -59,7 +59,8 @@ const POND_NOTES = { spotLengthFt: 18, spotWidthFt: 13, depthAvailableIn: 30, sl
 const STREAM_NOTES = { spotLengthFt: 30, spotWidthFt: 8, slope: 'moderate', soil: 'clay' };
 const YARD_NOTES = {
 	soil: 'clay',
-	notes: 'Downspout at the north-east corner drains across the side yard; gate 32 ft from the patio.'
+	notes:
+		'Downspout at the north-east corner drains across the side yard; gate 32 ft from the patio.'
 };
 
 /**

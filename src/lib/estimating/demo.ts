@@ -11,7 +11,6 @@ export const demoFountain = standardFountain;
 /** The demo design: the standard feature. */
 export const demoDesign = standardDesign;
 
-
 const item = (
 	sku: string,
 	name: string,

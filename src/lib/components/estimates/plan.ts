@@ -7,7 +7,13 @@
 // from the engine's results (`planSizes`).
 import type { FeatureResult, ParsedDesign } from '$lib/estimating';
 import { analyseDrainage, type DrainageResult } from '$lib/estimating/drainage';
-import { settingsSchema, type Area, type Feature, type Fountain, type Stone } from '$lib/estimating/schema';
+import {
+	settingsSchema,
+	type Area,
+	type Feature,
+	type Fountain,
+	type Stone
+} from '$lib/estimating/schema';
 import { pondPlan } from '$lib/estimating/pond';
 import { areaFt2, boxOf, outline, type Box, type Point } from './geometry';
 
