@@ -164,7 +164,7 @@ describe('truckloads from weight and the truck’s payload (10 t, 1 t by trailer
 		expect(fromSI(r.result.deliveries[0].massKg, 'mass', 'ton')).toBeCloseTo(11.083, 2);
 		expect(r.result.deliveries[0].loads).toBe(2);
 		expect(r.lines.find((l) => l.sku === 'DELIVERY-LOAD')?.description).toMatch(
-			/and wall units: 11\.1 tons in 2 loads/
+			/stone, aggregate and wall units: 11\.1 tons in 2 loads/
 		);
 		expect(work([], [], { lines: [line(5)] }).result.deliveries[0].loads).toBe(1);
 	});

@@ -254,7 +254,7 @@ export function siteWork(
 		add(
 			bucket,
 			equipment.truckloadSku,
-			`Delivery of stone and aggregate${withWall.has(bucket) ? ' and wall units' : ''}: ${tons.toFixed(1)} tons in ${loads} load${loads === 1 ? '' : 's'}`,
+			`Delivery of ${withWall.has(bucket) ? 'stone, aggregate and wall units' : 'stone and aggregate'}: ${tons.toFixed(1)} tons in ${loads} load${loads === 1 ? '' : 's'}`,
 			{ direct: loads },
 			'deliveries'
 		);
