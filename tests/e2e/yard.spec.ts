@@ -63,9 +63,9 @@ test('a path and planting: built from the lead, reshaped by corners, sent and ac
 	await expect(takeoff).toContainText('Haul away');
 	await expect(tasks).toContainText('(by hand)');
 	const thrice = saved(page);
-	await site.getByLabel('Soil').selectOption('clay');
+	await site.getByLabel('Soil', { exact: true }).selectOption('clay');
 	await expect(site.getByTestId('site-rates')).toContainText('By hand in clay: 4.5 person-hours');
-	await site.getByLabel('Digging').selectOption('machine');
+	await site.getByLabel('Digging', { exact: true }).selectOption('machine');
 	await expect(tasks).toContainText('(machine)');
 	await expect(tasks).not.toContainText('(by hand)');
 	await expect(takeoff).toContainText('Compact track loader');
