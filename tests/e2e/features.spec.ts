@@ -3,12 +3,11 @@
 // an option, the homeowner leaves it out and the total follows.
 import { expect, test } from '@playwright/test';
 import postgres from 'postgres';
-import { formatCents } from '../../src/lib/components/estimates/money';
-import { estimateFlow, saved } from './pages/estimate-flow';
+import { formatCents } from '../../src/lib/money';
+import { accept, salesLead, saved, sendAndOpen } from './pages/estimate';
 import { signIn } from './pages/staff';
 
 const sql = postgres(process.env.E2E_DATABASE_URL!, { max: 2, onnotice: () => {} });
-const { makeLead, sendAndOpen, accept } = estimateFlow(sql);
 test.afterAll(async () => {
 	await sql.end();
 });
@@ -17,7 +16,7 @@ test('a pond lead: built from a pond, sent, and accepted on a 390 px phone', asy
 	page,
 	browser
 }) => {
-	const lead = await makeLead('Hollis Wrenfield', ['pond'], 'A fish pond by the porch');
+	const lead = await salesLead(sql, 'Hollis Wrenfield', ['pond'], 'A fish pond by the porch');
 	await signIn(page, 'sales');
 	await page.goto(`/office/leads/${lead.id}/estimate`);
 	await page.getByRole('button', { name: 'Start the estimate' }).click();
@@ -48,7 +47,7 @@ test('a pond lead: built from a pond, sent, and accepted on a 390 px phone', asy
 	await pond.getByLabel('Outline').selectOption('oval');
 	await expect(page.getByTestId('engine-errors')).toHaveCount(0);
 
-	const { link, row } = await sendAndOpen(page, lead);
+	const { link, row } = await sendAndOpen(sql, page, lead);
 	const phone = await browser.newContext({
 		viewport: { width: 390, height: 844 },
 		isMobile: true,
@@ -69,7 +68,7 @@ test('a pond lead: built from a pond, sent, and accepted on a 390 px phone', asy
 	await expect(home.getByText(/Pond holds about \d+ in of open water/)).toBeVisible();
 	expect(await home.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
 	await home.screenshot({ path: test.info().outputPath('pond-390.png'), fullPage: true });
-	expect(await accept(home, lead, row.id)).toBe(row.total_cents);
+	expect(await accept(sql, home, lead, row.id)).toBe(row.total_cents);
 	await phone.close();
 });
 
@@ -77,7 +76,7 @@ test('a stream with a fountain as an option: the homeowner leaves it out and the
 	page,
 	browser
 }) => {
-	const lead = await makeLead('Ingrid Thornbury', ['stream'], 'A stream down the slope');
+	const lead = await salesLead(sql, 'Ingrid Thornbury', ['stream'], 'A stream down the slope');
 	await signIn(page, 'sales');
 	await page.goto(`/office/leads/${lead.id}/estimate`);
 	await page.getByRole('button', { name: 'Start the estimate' }).click();
@@ -97,7 +96,7 @@ test('a stream with a fountain as an option: the homeowner leaves it out and the
 	await expect(key).toHaveCount(2);
 	await expect(key.last()).toContainText(/^Dotted outline: Fountain, .*\(an option\)/);
 
-	const { link, row } = await sendAndOpen(page, lead);
+	const { link, row } = await sendAndOpen(sql, page, lead);
 	const [{ design }] = await sql`select design from estimates where id = ${row.id}`;
 	const features = (design as { features: { kind: string; optionId?: string }[] }).features;
 	expect(features.map((f) => f.kind)).toEqual(['stream', 'fountain']);
@@ -116,7 +115,7 @@ test('a stream with a fountain as an option: the homeowner leaves it out and the
 	await option.uncheck();
 	await expect(totalShown).toHaveText(formatCents(row.total_cents));
 	expect(withFountain).not.toBe(formatCents(row.total_cents));
-	expect(await accept(home, lead, row.id)).toBe(row.total_cents);
+	expect(await accept(sql, home, lead, row.id)).toBe(row.total_cents);
 	const [acc] =
 		await sql`select options_chosen from estimate_acceptances where estimate_id = ${row.id}`;
 	expect(acc.options_chosen.options).toEqual([]);

@@ -3,12 +3,11 @@
 // lighting lead's estimate is built on a 390 px phone with lighting alone and accepted on a desktop.
 import { expect, test } from '@playwright/test';
 import postgres from 'postgres';
-import { formatCents } from '../../src/lib/components/estimates/money';
-import { estimateFlow, saved } from './pages/estimate-flow';
+import { formatCents } from '../../src/lib/money';
+import { accept, salesLead, saved, sendAndOpen } from './pages/estimate';
 import { signIn } from './pages/staff';
 
 const sql = postgres(process.env.E2E_DATABASE_URL!, { max: 2, onnotice: () => {} });
-const { makeLead, sendAndOpen, accept } = estimateFlow(sql);
 test.afterAll(async () => {
 	await sql.end();
 });
@@ -17,7 +16,12 @@ test('a path and planting: built from the lead, reshaped by corners, sent and ac
 	page,
 	browser
 }) => {
-	const lead = await makeLead('Odile Fairweather', ['patio', 'planting'], 'A stone path and beds');
+	const lead = await salesLead(
+		sql,
+		'Odile Fairweather',
+		['patio', 'planting'],
+		'A stone path and beds'
+	);
 	await signIn(page, 'sales');
 	await page.goto(`/office/leads/${lead.id}/estimate`);
 	await page.getByRole('button', { name: 'Start the estimate' }).click();
@@ -74,7 +78,7 @@ test('a path and planting: built from the lead, reshaped by corners, sent and ac
 	await expect(page.getByTestId('site-work')).toContainText('kept on site');
 	await thrice;
 
-	const { link, row } = await sendAndOpen(page, lead);
+	const { link, row } = await sendAndOpen(sql, page, lead);
 	const [{ design }] = await sql`select design from estimates where id = ${row.id}`;
 	expect((design as { features: { kind: string }[] }).features.map((f) => f.kind)).toEqual([
 		'path',
@@ -104,14 +108,14 @@ test('a path and planting: built from the lead, reshaped by corners, sent and ac
 	await expect(home.getByText('Steps: even risers, within the local code')).toBeVisible();
 	expect(await home.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
 	await home.screenshot({ path: test.info().outputPath('path-planting-390.png'), fullPage: true });
-	expect(await accept(home, lead, row.id)).toBe(row.total_cents);
+	expect(await accept(sql, home, lead, row.id)).toBe(row.total_cents);
 	await phone.close();
 });
 
 test('lighting alone: built on a 390 px phone with no water feature, accepted on a desktop', async ({
 	browser
 }) => {
-	const lead = await makeLead('Piet Vandermolen', ['lighting'], 'Light the garden path');
+	const lead = await salesLead(sql, 'Piet Vandermolen', ['lighting'], 'Light the garden path');
 	const staff = await browser.newContext({ viewport: { width: 390, height: 844 }, isMobile: true });
 	const page = await staff.newPage();
 	await signIn(page, 'sales');
@@ -126,7 +130,7 @@ test('lighting alone: built on a 390 px phone with no water feature, accepted on
 	await expect(
 		page.getByText('Ground-fault protection for pumps and lights near water').first()
 	).toBeVisible();
-	const { link, row } = await sendAndOpen(page, lead);
+	const { link, row } = await sendAndOpen(sql, page, lead);
 	const [{ design }] = await sql`select design from estimates where id = ${row.id}`;
 	expect((design as { features: unknown[] }).features).toEqual([]);
 	await staff.close();
@@ -137,6 +141,6 @@ test('lighting alone: built on a 390 px phone with no water feature, accepted on
 	await expect(home.getByTestId('homeowner-total')).toHaveText(formatCents(row.total_cents));
 	await home.getByText(/^What is included/).click();
 	await expect(home.getByTestId('included-group').first()).toContainText('LED uplight');
-	expect(await accept(home, lead, row.id)).toBe(row.total_cents);
+	expect(await accept(sql, home, lead, row.id)).toBe(row.total_cents);
 	await desk.close();
 });

@@ -6,7 +6,7 @@ import { DomainError } from '../platform/errors';
 import { and, asc, eq, inArray, isNull, sql } from 'drizzle-orm';
 import { STAGES, type LeadQuery, type Stage } from '$lib/schema/leads';
 import { assembleList, listSql, searchParts, type LeadList, type ListContext } from './list-sql';
-import { formatWhen } from '$lib/components/leads/format';
+import { inZone } from '$lib/firm-time';
 import { client, db, type Tx } from '../platform/db';
 import {
 	activities,
@@ -104,7 +104,10 @@ export class LeadConflictError extends DomainError<'stale'> {
 		readonly at: Date,
 		timeZone: string
 	) {
-		super('stale', `Changed by ${by} at ${formatWhen(at, timeZone)}: reload to see their change.`);
+		super(
+			'stale',
+			`Changed by ${by} at ${inZone(at, timeZone, 'when')}: reload to see their change.`
+		);
 	}
 }
 
