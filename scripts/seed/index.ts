@@ -64,7 +64,7 @@ export async function seedDemo(url: string): Promise<void> {
 	const jobsDb = scriptDb(url);
 	try {
 		await seedJobs(jobsDb.db);
-		// A pond lead and a stream lead with estimates sent (the firm's pond and stream work).
+		// A pond lead, a stream lead and a yard lead (path, dry creek, planting) with estimates sent.
 		await seedSentEstimates(jobsDb.db);
 		// A finished job with the crew's hours, for the costing page.
 		await seedCosting(jobsDb.db);

@@ -4,25 +4,19 @@
 import { expect, test } from '@playwright/test';
 import postgres from 'postgres';
 import { formatCents } from '../../src/lib/money';
-import { seedLead } from '../support/lead';
-import { saved, sendAndOpen } from './pages/estimate';
-import { demoUser, signIn } from './pages/staff';
+import { accept, salesLead, saved, sendAndOpen } from './pages/estimate';
+import { signIn } from './pages/staff';
 
 const sql = postgres(process.env.E2E_DATABASE_URL!, { max: 2, onnotice: () => {} });
 test.afterAll(async () => {
 	await sql.end();
 });
 
-async function makeLead(name: string, services: string[], message: string) {
-	const [sales] = await sql`select id from users where email = ${demoUser('sales').email}`;
-	return seedLead(sql, { name, services, message, assigneeId: sales.id });
-}
-
 test('a pond lead: built from a pond, sent, and accepted on a 390 px phone', async ({
 	page,
 	browser
 }) => {
-	const lead = await makeLead('Hollis Wrenfield', ['pond'], 'A fish pond by the porch');
+	const lead = await salesLead(sql, 'Hollis Wrenfield', ['pond'], 'A fish pond by the porch');
 	await signIn(page, 'sales');
 	await page.goto(`/office/leads/${lead.id}/estimate`);
 	await page.getByRole('button', { name: 'Start the estimate' }).click();
@@ -74,15 +68,7 @@ test('a pond lead: built from a pond, sent, and accepted on a 390 px phone', asy
 	await expect(home.getByText(/Pond holds about \d+ in of open water/)).toBeVisible();
 	expect(await home.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
 	await home.screenshot({ path: test.info().outputPath('pond-390.png'), fullPage: true });
-	await home.getByLabel('Your full name').fill(lead.name);
-	await home.getByRole('checkbox', { name: /I accept this estimate/ }).check();
-	await home.getByRole('button', { name: /^Accept for/ }).click();
-	await expect(home.getByRole('heading', { name: 'Accepted: thank you' })).toBeVisible();
-	const [acc] =
-		await sql`select total_cents from estimate_acceptances where estimate_id = ${row.id}`;
-	expect(acc.total_cents).toBe(row.total_cents);
-	const [after] = await sql`select stage from leads where id = ${lead.id}`;
-	expect(after.stage).toBe('sold');
+	expect(await accept(sql, home, lead, row.id)).toBe(row.total_cents);
 	await phone.close();
 });
 
@@ -90,7 +76,7 @@ test('a stream with a fountain as an option: the homeowner leaves it out and the
 	page,
 	browser
 }) => {
-	const lead = await makeLead('Ingrid Thornbury', ['stream'], 'A stream down the slope');
+	const lead = await salesLead(sql, 'Ingrid Thornbury', ['stream'], 'A stream down the slope');
 	await signIn(page, 'sales');
 	await page.goto(`/office/leads/${lead.id}/estimate`);
 	await page.getByRole('button', { name: 'Start the estimate' }).click();
@@ -129,13 +115,9 @@ test('a stream with a fountain as an option: the homeowner leaves it out and the
 	await option.uncheck();
 	await expect(totalShown).toHaveText(formatCents(row.total_cents));
 	expect(withFountain).not.toBe(formatCents(row.total_cents));
-	await home.getByLabel('Your full name').fill(lead.name);
-	await home.getByRole('checkbox', { name: /I accept this estimate/ }).check();
-	await home.getByRole('button', { name: /^Accept for/ }).click();
-	await expect(home.getByRole('heading', { name: 'Accepted: thank you' })).toBeVisible();
+	expect(await accept(sql, home, lead, row.id)).toBe(row.total_cents);
 	const [acc] =
-		await sql`select total_cents, options_chosen from estimate_acceptances where estimate_id = ${row.id}`;
+		await sql`select options_chosen from estimate_acceptances where estimate_id = ${row.id}`;
 	expect(acc.options_chosen.options).toEqual([]);
-	expect(acc.total_cents).toBe(row.total_cents);
 	await phone.close();
 });

@@ -1,40 +1,27 @@
 // Yard work without water: a patio-and-planting lead's estimate starts from a flagstone path and
 // planting beds, is reshaped with the polygon editor, sent, and accepted on a 390 px phone; a
 // lighting lead's estimate is built on a 390 px phone with lighting alone and accepted on a desktop.
-import { expect, test, type Page } from '@playwright/test';
+import { expect, test } from '@playwright/test';
 import postgres from 'postgres';
 import { formatCents } from '../../src/lib/money';
-import { seedLead } from '../support/lead';
-import { saved, sendAndOpen } from './pages/estimate';
-import { demoUser, signIn } from './pages/staff';
+import { accept, salesLead, saved, sendAndOpen } from './pages/estimate';
+import { signIn } from './pages/staff';
 
 const sql = postgres(process.env.E2E_DATABASE_URL!, { max: 2, onnotice: () => {} });
 test.afterAll(async () => {
 	await sql.end();
 });
 
-async function makeLead(name: string, services: string[], message: string) {
-	const [sales] = await sql`select id from users where email = ${demoUser('sales').email}`;
-	return seedLead(sql, { name, services, message, assigneeId: sales.id });
-}
-
-async function accept(home: Page, lead: { id: string; name: string }, estimateId: string) {
-	await home.getByLabel('Your full name').fill(lead.name);
-	await home.getByRole('checkbox', { name: /I accept this estimate/ }).check();
-	await home.getByRole('button', { name: /^Accept for/ }).click();
-	await expect(home.getByRole('heading', { name: 'Accepted: thank you' })).toBeVisible();
-	const [acc] =
-		await sql`select total_cents from estimate_acceptances where estimate_id = ${estimateId}`;
-	const [after] = await sql`select stage from leads where id = ${lead.id}`;
-	expect(after.stage).toBe('sold');
-	return acc.total_cents as number;
-}
-
 test('a path and planting: built from the lead, reshaped by corners, sent and accepted on a 390 px phone', async ({
 	page,
 	browser
 }) => {
-	const lead = await makeLead('Odile Fairweather', ['patio', 'planting'], 'A stone path and beds');
+	const lead = await salesLead(
+		sql,
+		'Odile Fairweather',
+		['patio', 'planting'],
+		'A stone path and beds'
+	);
 	await signIn(page, 'sales');
 	await page.goto(`/office/leads/${lead.id}/estimate`);
 	await page.getByRole('button', { name: 'Start the estimate' }).click();
@@ -73,12 +60,35 @@ test('a path and planting: built from the lead, reshaped by corners, sent and ac
 	await path.getByLabel('Rise each (in)').fill('6');
 	await twice;
 
+	// The ground: clay, dug by machine, the soil kept on site. The digging is timed by the machine,
+	// the loader is priced, and the haul-off line goes.
+	const site = page.getByTestId('site-form');
+	const tasks = page.getByTestId('labor-tasks');
+	await expect(takeoff).toContainText('Haul away');
+	await expect(tasks).toContainText('(by hand)');
+	const thrice = saved(page);
+	await site.getByLabel('Soil', { exact: true }).selectOption('clay');
+	await expect(site.getByTestId('site-rates')).toContainText('By hand in clay: 4.5 person-hours');
+	await site.getByLabel('Digging', { exact: true }).selectOption('machine');
+	await expect(tasks).toContainText('(machine)');
+	await expect(tasks).not.toContainText('(by hand)');
+	await expect(takeoff).toContainText('Compact track loader');
+	await site.getByLabel('Dug soil').selectOption('keep');
+	await expect(takeoff).not.toContainText('Haul away');
+	await expect(page.getByTestId('site-work')).toContainText('kept on site');
+	await thrice;
+
 	const { link, row } = await sendAndOpen(sql, page, lead);
 	const [{ design }] = await sql`select design from estimates where id = ${row.id}`;
 	expect((design as { features: { kind: string }[] }).features.map((f) => f.kind)).toEqual([
 		'path',
 		'planting'
 	]);
+	expect((design as { site: unknown }).site).toEqual({
+		soil: 'clay',
+		dig: 'machine',
+		haulSpoil: false
+	});
 
 	const phone = await browser.newContext({
 		viewport: { width: 390, height: 844 },
@@ -98,14 +108,14 @@ test('a path and planting: built from the lead, reshaped by corners, sent and ac
 	await expect(home.getByText('Steps: even risers, within the local code')).toBeVisible();
 	expect(await home.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
 	await home.screenshot({ path: test.info().outputPath('path-planting-390.png'), fullPage: true });
-	expect(await accept(home, lead, row.id)).toBe(row.total_cents);
+	expect(await accept(sql, home, lead, row.id)).toBe(row.total_cents);
 	await phone.close();
 });
 
 test('lighting alone: built on a 390 px phone with no water feature, accepted on a desktop', async ({
 	browser
 }) => {
-	const lead = await makeLead('Piet Vandermolen', ['lighting'], 'Light the garden path');
+	const lead = await salesLead(sql, 'Piet Vandermolen', ['lighting'], 'Light the garden path');
 	const staff = await browser.newContext({ viewport: { width: 390, height: 844 }, isMobile: true });
 	const page = await staff.newPage();
 	await signIn(page, 'sales');
@@ -131,6 +141,6 @@ test('lighting alone: built on a 390 px phone with no water feature, accepted on
 	await expect(home.getByTestId('homeowner-total')).toHaveText(formatCents(row.total_cents));
 	await home.getByText(/^What is included/).click();
 	await expect(home.getByTestId('included-group').first()).toContainText('LED uplight');
-	expect(await accept(home, lead, row.id)).toBe(row.total_cents);
+	expect(await accept(sql, home, lead, row.id)).toBe(row.total_cents);
 	await desk.close();
 });

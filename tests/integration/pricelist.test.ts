@@ -11,7 +11,8 @@ import {
 	pumpModels,
 	siteVisits
 } from '$lib/server/platform/db/schema';
-import { estimate as runEngine, demoDesign } from '$lib/estimating';
+import { estimate as runEngine } from '$lib/estimating';
+import { demoDesign } from '$lib/estimating/demo';
 import { exportPriceList, importPriceList, loadCatalog } from '$lib/server/pricelist/catalog';
 import { createEstimate } from '$lib/server/estimates/versions';
 import { getEstimate } from '$lib/server/estimates/records';

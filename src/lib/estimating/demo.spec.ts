@@ -1,7 +1,19 @@
+import { readdirSync, readFileSync } from 'node:fs';
+import { join, relative } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { fountainIn } from '../../../tests/support/fountain';
 import { demoCatalog, demoDesign } from './demo';
 import { catalogSchema, designSchema } from './schema';
+import { STANDARD_ITEM_UNITS, standardDesign } from './standard-feature';
+
+const SRC = join(import.meta.dirname, '..', '..');
+function shipped(dir: string): string[] {
+	return readdirSync(dir, { withFileTypes: true }).flatMap((e) => {
+		const path = join(dir, e.name);
+		if (e.isDirectory()) return shipped(path);
+		return /\.(ts|svelte)$/.test(e.name) && !/\.(spec|test)\.ts$/.test(e.name) ? [path] : [];
+	});
+}
 
 describe('demo data', () => {
 	it('parses with the design and catalog schemas', () => {
@@ -38,6 +50,27 @@ describe('demo data', () => {
 		for (const rate of c.laborRates) {
 			expect(Number.isInteger(rate.pricePerHourCents)).toBe(true);
 			expect(Number.isInteger(rate.costPerHourCents)).toBe(true);
+		}
+	});
+});
+
+describe('the demo data stays out of what ships', () => {
+	it('no module under src but the tests imports demo.ts', () => {
+		const importsDemo = /(?:from\s+|import\s*\(\s*)['"][^'"]*(?:estimating\/demo|\.\/demo)['"]/;
+		const offenders = shipped(SRC)
+			.filter((f) => !f.endsWith(join('estimating', 'demo.ts')))
+			.filter((f) => importsDemo.test(readFileSync(f, 'utf8')))
+			.map((f) => relative(SRC, f));
+		expect(offenders).toEqual([]);
+	});
+
+	it('the standard feature says how each item it names is sold, as the demo price list sells it', () => {
+		const units = new Map((demoCatalog().items ?? []).map((i) => [i.sku, i.unit]));
+		const named = JSON.stringify(standardDesign()).match(/"[a-zA-Z]*[sS]ku":"[^"]+"/g) ?? [];
+		const skus = new Set(named.map((m) => m.split(':')[1].replaceAll('"', '')));
+		expect(new Set(Object.keys(STANDARD_ITEM_UNITS))).toEqual(skus);
+		for (const [sku, unit] of Object.entries(STANDARD_ITEM_UNITS)) {
+			expect(units.get(sku), sku).toBe(unit);
 		}
 	});
 });

@@ -4,10 +4,11 @@ import { siteWork, type SiteWorkInput } from './equipment';
 import { estimate } from './index';
 import { digTasks, planMachines, rateTask, type Dig } from './labor';
 import { SOILS } from './labor-rates';
-import { catalogSchema, siteSchema, type Design } from './schema';
+import { catalogSchema, designSchema, siteSchema, type Design } from './schema';
 import type { StoneResult } from './stones';
 import { fromSI, toSI } from './units';
 import { priceLine } from './pricing';
+import { wallTakeoff } from './walls';
 
 const catalog = catalogSchema.parse(demoCatalog());
 const settings = catalog.settings;
@@ -143,6 +144,29 @@ describe('truckloads from weight and the truck’s payload (10 t, 1 t by trailer
 		]);
 		expect(r.lines.find((l) => l.sku === 'DELIVERY-LOAD')?.quantity).toBe(3);
 		expect(work([], [], { lines: [line(0.8)] }).result.deliveries).toEqual([]);
+	});
+
+	it('wall units and caps count by their weight: 126 blocks and 30 caps add 5.8 t to 5 t of gravel', () => {
+		const input = designSchema.parse(demoDesign()).walls[0];
+		const wall = wallTakeoff({ ...input, lengthFt: 40, optionId: undefined }, settings);
+		const unit = catalog.items.find((i) => i.sku === input.unitSku)!;
+		const cap = catalog.items.find((i) => i.sku === input.capSku)!;
+		const lines = [
+			line(5),
+			priceLine({ bucket: 'base', sku: unit.sku, description: 'Units', measure: {} }, unit, 126),
+			priceLine({ bucket: 'base', sku: cap.sku, description: 'Caps', measure: {} }, cap, 30)
+		];
+		const walls = [{ result: wall, unitSku: unit.sku, capSku: cap.sku }];
+		// 126 × 83.33 lb + 30 × 55.56 lb = 12,167 lb = 6.08 t (125 lb/ft³, see walls.spec.ts), and
+		// 5 t of gravel: 11.08 t, two 10 t loads; without the blocks it was one.
+		const r = work([], [], { lines, walls });
+		expect(wall.units).toBe(126);
+		expect(fromSI(r.result.deliveries[0].massKg, 'mass', 'ton')).toBeCloseTo(11.083, 2);
+		expect(r.result.deliveries[0].loads).toBe(2);
+		expect(r.lines.find((l) => l.sku === 'DELIVERY-LOAD')?.description).toMatch(
+			/stone, aggregate and wall units: 11\.1 tons in 2 loads/
+		);
+		expect(work([], [], { lines: [line(5)] }).result.deliveries[0].loads).toBe(1);
 	});
 });
 

@@ -5,8 +5,8 @@
  * - A machine (by the day, with its delivery) wherever `planMachines` put one: a stone whose handling
  *   plan names a loader or a larger machine, or more digging than the firm's threshold. Its days are
  *   its clock hours (machine digging and machine-set stones) over the crew's day, at least one.
- * - Truckloads of stone and aggregate: each part's weight over the truck's payload, when past the
- *   weight the firm brings on its own trailer.
+ * - Truckloads of stone, aggregate and wall units (blocks and caps): each part's weight over the
+ *   truck's payload, when past the weight the firm brings on its own trailer.
  * - Spoil: the dug bank volume swollen by the soil's swell factor (US Army FM 5-434, table 1-2),
  *   hauled away at the price list's haul-off price unless it stays on site.
  * A missing price-list item leaves its line out with a warning, as for any unpriced part.
@@ -23,6 +23,7 @@ import {
 import type { CatalogItem, ParsedCatalog, Site } from './schema';
 import type { StoneResult } from './stones';
 import { fromSI, toSI } from './units';
+import type { WallResult } from './walls';
 
 export interface MachineNeed {
 	bucket: string;
@@ -108,13 +109,19 @@ const kindSku = (kind: MachineNeed['kind'], catalog: ParsedCatalog) =>
 		? catalog.settings.equipment.largerMachineSku
 		: catalog.settings.equipment.compactMachineSku;
 
-/** Tons of stone and bulk aggregate a priced line carries; bagged goods ride with the crew. */
+const DELIVERED = new Set<CatalogItem['category']>(['stone', 'aggregate', 'wall']);
+
+/**
+ * The weight a priced line carries: stone, bulk aggregate and wall units. Goods sold by the piece
+ * or by area (stones, blocks, caps) weigh what the takeoff weighed them at (`pieceKg`, by part and
+ * SKU); bulk goods by weight or volume; bagged goods and pipe ride with the crew.
+ */
 function lineMassKg(
 	line: PricedLine,
 	item: CatalogItem,
-	stoneKg: ReadonlyMap<string, number>
+	pieceKg: ReadonlyMap<string, number>
 ): number {
-	if (item.category !== 'stone' && item.category !== 'aggregate') return 0;
+	if (!DELIVERED.has(item.category)) return 0;
 	switch (line.unit) {
 		case 'ton':
 		case 'lb':
@@ -126,7 +133,7 @@ function lineMassKg(
 		}
 		case 'each':
 		case 'ft2':
-			return stoneKg.get(`${line.bucket}\u0000${line.sku}`) ?? 0;
+			return pieceKg.get(`${line.bucket}\u0000${line.sku}`) ?? 0;
 		default:
 			return 0;
 	}
@@ -138,6 +145,8 @@ export interface SiteWorkInput {
 	tasks: readonly LaborTask[];
 	/** The analysed stones with the price-list item each is bought as. */
 	stones: readonly { result: StoneResult; sku?: string }[];
+	/** The walls with the items their units and caps are bought as. */
+	walls?: readonly { result: WallResult; unitSku: string; capSku?: string }[];
 	/** The takeoff's priced lines, for the weights that are delivered. */
 	lines: readonly PricedLine[];
 	site: Site;
@@ -215,18 +224,25 @@ export function siteWork(
 		);
 	}
 
-	const stoneKg = new Map<string, number>();
-	for (const { result, sku } of input.stones) {
-		if (!sku) continue;
-		const key = `${result.optionId ?? BASE_BUCKET}\u0000${sku}`;
-		stoneKg.set(key, (stoneKg.get(key) ?? 0) + result.totalWeightKg);
+	const pieceKg = new Map<string, number>();
+	const weigh = (bucket: string | undefined, sku: string | undefined, kg: number) => {
+		if (!sku || kg <= 0) return;
+		const key = `${bucket ?? BASE_BUCKET}\u0000${sku}`;
+		pieceKg.set(key, (pieceKg.get(key) ?? 0) + kg);
+	};
+	for (const { result, sku } of input.stones) weigh(result.optionId, sku, result.totalWeightKg);
+	for (const { result, unitSku, capSku } of input.walls ?? []) {
+		weigh(result.optionId, unitSku, result.unitsMassKg);
+		weigh(result.optionId, capSku, result.capsMassKg);
 	}
 	const massBy = new Map<string, number>();
+	const withWall = new Set<string>();
 	for (const line of input.lines) {
 		const item = items.get(line.sku);
 		if (!item) continue;
-		const kg = lineMassKg(line, item, stoneKg);
+		const kg = lineMassKg(line, item, pieceKg);
 		if (kg > 0) massBy.set(line.bucket, (massBy.get(line.bucket) ?? 0) + kg);
+		if (kg > 0 && item.category === 'wall') withWall.add(line.bucket);
 	}
 	const deliveries: DeliveryResult[] = [];
 	const tonsOf = (kg: number) => fromSI(kg, 'mass', 'ton');
@@ -238,7 +254,7 @@ export function siteWork(
 		add(
 			bucket,
 			equipment.truckloadSku,
-			`Delivery of stone and aggregate: ${tons.toFixed(1)} tons in ${loads} load${loads === 1 ? '' : 's'}`,
+			`Delivery of ${withWall.has(bucket) ? 'stone, aggregate and wall units' : 'stone and aggregate'}: ${tons.toFixed(1)} tons in ${loads} load${loads === 1 ? '' : 's'}`,
 			{ direct: loads },
 			'deliveries'
 		);

@@ -1,7 +1,9 @@
 import fc from 'fast-check';
 import { fountainIn } from '../../../tests/support/fountain';
 import { describe, expect, it } from 'vitest';
-import { demoCatalog, demoDesign, estimate, type Design, type EstimateSuccess } from './index';
+import { demoCatalog, demoDesign } from './demo';
+import { estimate, prepareCatalog, type Design, type EstimateSuccess } from './index';
+import { twelveOutletDesign, yardDesign } from '../../../scripts/bench/designs';
 import { sizesFor, PIPE_MATERIALS } from './pipes';
 import { ROCK_TYPES } from './stones';
 
@@ -349,5 +351,27 @@ describe('property: any valid design gives finite, non-negative numbers (fast-ch
 			}),
 			{ numRuns: 150 }
 		);
+	});
+});
+
+describe('a price list prepared once (the builder validates its catalog once per page)', () => {
+	it('prices every bench design exactly as the catalog validated on each call does', () => {
+		const prepared = prepareCatalog(demoCatalog());
+		for (const design of [demoDesign(), twelveOutletDesign(), yardDesign()]) {
+			const fresh = estimate(design, demoCatalog());
+			expect(fresh.ok).toBe(true);
+			expect(estimate(design, prepared)).toEqual(fresh);
+			// Twice: nothing the first estimate did changed the prepared catalog.
+			expect(estimate(design, prepared)).toEqual(fresh);
+		}
+		expect(Object.isFrozen(prepared.items[0])).toBe(true);
+	});
+
+	it('is a frozen copy: the caller’s own object may change without reaching it', () => {
+		const raw = demoCatalog();
+		const prepared = prepareCatalog(raw);
+		raw.items![0].unitPrice = 1;
+		expect(prepared.items[0].unitPrice).not.toBe(1);
+		expect(() => prepareCatalog({ items: [{ sku: '' }] })).toThrow();
 	});
 });

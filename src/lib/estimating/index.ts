@@ -22,7 +22,6 @@ import { analyseLighting, type LightingResult } from './lighting';
 import { includedBuckets, pickLaborRate, priceSummary, type PriceSummary } from './pricing';
 import type { PumpMatch } from './pumps';
 import {
-	catalogSchema,
 	designSchema,
 	type Catalog,
 	type Design,
@@ -30,6 +29,7 @@ import {
 	type ParsedDesign
 } from './schema';
 import { analyseStones, type StonesResult } from './stones';
+import { prepareCatalog, readCatalog } from './prepared';
 import { buildTakeoff } from './takeoff';
 import { formatQuantity, type DisplayKind, type UnitSystem } from './units';
 import { upgradeDesign } from './upgrade';
@@ -91,7 +91,7 @@ function zodErrors(root: string, error: z.ZodError): FieldError[] {
 
 function parse(design: unknown, catalog: unknown) {
 	const d = designSchema.safeParse(upgradeDesign(design));
-	const c = catalogSchema.safeParse(catalog);
+	const c = readCatalog(catalog);
 	const errors = [
 		...(d.success ? [] : zodErrors('design', d.error)),
 		...(c.success ? [] : zodErrors('catalog', c.error))
@@ -105,6 +105,19 @@ function parse(design: unknown, catalog: unknown) {
 function firstNonFinite(value: unknown, path: string[] = []): string | undefined {
 	if (typeof value === 'number') return Number.isFinite(value) ? undefined : path.join('.');
 	if (value === null || typeof value !== 'object') return undefined;
+	// Arrays by index (a for-in over an array walks its keys as strings, far slower).
+	if (Array.isArray(value)) {
+		for (let i = 0; i < value.length; i++) {
+			const inner: unknown = value[i];
+			if (typeof inner === 'number' && Number.isFinite(inner)) continue;
+			if (inner === null || (typeof inner !== 'number' && typeof inner !== 'object')) continue;
+			path.push(String(i));
+			const found = firstNonFinite(inner, path);
+			path.pop();
+			if (found) return found;
+		}
+		return undefined;
+	}
 	const record = value as Record<string, unknown>;
 	for (const key in record) {
 		const inner = record[key];
@@ -252,6 +265,7 @@ function labor(design: ParsedDesign, parts: Parts, catalog: ParsedCatalog) {
 			volumeM3: w.trenchVolumeM3
 		}))
 	];
+	const machines = planMachines(digs, parts.stones.stones, design.site, settings);
 	const tasks = laborTasks(
 		{
 			features: featureTasks(design, parts.features, catalog),
@@ -261,11 +275,11 @@ function labor(design: ParsedDesign, parts: Parts, catalog: ParsedCatalog) {
 			walls: parts.walls,
 			lighting: parts.lighting && { result: parts.lighting, optionId: design.lighting?.optionId },
 			extra: design.extraLabor,
-			site: design.site
+			site: design.site,
+			machines
 		},
 		settings
 	);
-	const machines = planMachines(digs, parts.stones.stones, design.site, settings);
 	return { tasks, digs, machines, summary: laborSummary(tasks, included, settings) };
 }
 
@@ -299,6 +313,11 @@ function compute(design: ParsedDesign, catalog: ParsedCatalog, units: UnitSystem
 			machines: work.machines,
 			tasks: work.tasks,
 			stones: parts.stones.stones.map((result, i) => ({ result, sku: parts.stoneInputs[i]?.sku })),
+			walls: parts.walls.map((result, i) => ({
+				result,
+				unitSku: design.walls[i].unitSku,
+				capSku: design.walls[i].capSku
+			})),
 			lines: takeoff.lines,
 			site: design.site
 		},
@@ -372,5 +391,5 @@ export type { LaborTask, LaborSummary } from './labor';
 export type { PriceSummary, PricedLine, BucketTotals } from './pricing';
 export type { Caution } from './cautions';
 export { designSchema, catalogSchema } from './schema';
+export { prepareCatalog };
 export { formatQuantity, type UnitSystem, type DisplayKind } from './units';
-export { demoDesign, demoCatalog } from './demo';

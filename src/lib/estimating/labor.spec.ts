@@ -12,9 +12,9 @@ import {
 } from './labor';
 import { LABOR_RATES, SOILS } from './labor-rates';
 import { demoCatalog, demoDesign } from './demo';
-import { estimate } from './index';
+import { estimate, type EstimateSuccess } from './index';
 import { fountainIn } from '../../../tests/support/fountain';
-import { settingsSchema, siteSchema } from './schema';
+import { designSchema, settingsSchema, siteSchema, type Design } from './schema';
 import type { StoneResult } from './stones';
 import { toSI } from './units';
 
@@ -308,5 +308,59 @@ describe('the demo fountain, worked by hand (rates: common practice, no source)'
 		const r = estimate(design, demoCatalog());
 		if (!r.ok) throw new Error('prices');
 		expect(r.pricing.lines.map((l) => l.sku)).toContain('EQUIP-LOADER-DAY');
+	});
+});
+
+describe('the design’s ground and digging choice (rates: the settings’ defaults, common practice, no source)', () => {
+	const priced = (site: Design['site']) => {
+		const design = demoDesign();
+		design.site = site;
+		const r = estimate(design, demoCatalog());
+		if (!r.ok) throw new Error('prices');
+		const dig = r.labor.tasks.filter((t) => t.key.startsWith('dig-') && t.task.includes('basin'));
+		return { r, dig, hours: dig.reduce((sum, t) => sum + t.hours, 0) };
+	};
+
+	it('the same basin dug by machine takes fewer crew-hours than by hand, as the settings say', () => {
+		// The demo basin, 6 × 4 × 2 ft = 48 ft³ = 1.778 bank yd³. By hand in loam at 3 person-hours a
+		// yd³: 5.33 crew-hours; by machine at 0.35 machine-hours a yd³ with its crew of 2: 1.24.
+		const hand = priced({ dig: 'hand' });
+		const machine = priced({ dig: 'machine' });
+		expect(hand.dig.map((t) => t.key)).toEqual(['dig-hand']);
+		expect(machine.dig.map((t) => t.key)).toEqual(['dig-machine']);
+		expect(hand.hours).toBeCloseTo((48 / 27) * 3, 9);
+		expect(machine.hours).toBeCloseTo((48 / 27) * 0.35 * 2, 9);
+		expect(machine.hours).toBeLessThan(hand.hours);
+		// Dug by machine, the machine is priced; by hand, none is.
+		expect(machine.r.pricing.lines.map((l) => l.sku)).toContain('EQUIP-LOADER-DAY');
+		expect(hand.r.pricing.lines.map((l) => l.sku)).not.toContain('EQUIP-LOADER-DAY');
+		// Clay by hand at 1.5 times the loam rate: 8 crew-hours.
+		expect(priced({ dig: 'hand', soil: 'clay' }).hours).toBeCloseTo((48 / 27) * 3 * 1.5, 9);
+	});
+
+	it('dug soil kept on site gets no haul-off line; hauled, it is priced by the loose yd³', () => {
+		const kept = priced({ haulSpoil: false });
+		const hauled = priced({ haulSpoil: true });
+		const haul = (r: EstimateSuccess) =>
+			r.pricing.lines.filter((l) => l.sku === 'SPOIL-HAUL-YD3' && l.bucket === 'base');
+		expect(kept.r.pricing.lines.filter((l) => l.sku === 'SPOIL-HAUL-YD3')).toEqual([]);
+		expect(kept.r.siteWork.spoil.every((s) => !s.hauled)).toBe(true);
+		// The basin: 1.778 bank yd³ of loam × 1.25 swell (US Army FM 5-434, table 1-2) = 2.22 loose
+		// yd³ → 2.3 (the wall's footing, an option, has a line of its own).
+		expect(haul(hauled.r).map((l) => l.quantity)).toEqual([2.3]);
+		expect(kept.r.pricing.totalCents).toBeLessThan(hauled.r.pricing.totalCents);
+	});
+
+	it('a stored design from before the site fields reads as loam, chosen by volume, hauled away', () => {
+		const design = demoDesign();
+		delete design.site;
+		const parsed = designSchema.parse(design);
+		expect(parsed.site).toEqual({ soil: 'loam', dig: 'auto', haulSpoil: true });
+		const old = estimate(design, demoCatalog());
+		const explicit = estimate(
+			{ ...demoDesign(), site: { soil: 'loam', dig: 'auto', haulSpoil: true } },
+			demoCatalog()
+		);
+		expect(old.ok && old.pricing.totalCents).toBe(explicit.ok && explicit.pricing.totalCents);
 	});
 });

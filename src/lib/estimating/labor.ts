@@ -195,6 +195,8 @@ export interface LaborParts {
 	extra: readonly { task: string; hours: number; optionId?: string }[];
 	/** The site (soil, dig method); loam, chosen by volume, when left out. */
 	site?: Site;
+	/** Where machines are, when the caller has planned them already (else planned here). */
+	machines?: MachinePlan;
 }
 
 const DEFAULT_SITE: Site = { soil: 'loam', dig: 'auto', haulSpoil: true };
@@ -250,7 +252,7 @@ function wallTasks(wall: WallResult, settings: Settings): LaborTask[] {
 export function laborTasks(parts: LaborParts, settings: Settings): LaborTask[] {
 	const site = parts.site ?? DEFAULT_SITE;
 	const digs = parts.digs ?? [];
-	const machines = planMachines(digs, parts.stones, site, settings);
+	const machines = parts.machines ?? planMachines(digs, parts.stones, site, settings);
 	const tasks: LaborTask[] = [...digTasks(digs, machines, site, settings), ...parts.features];
 	for (const stone of parts.stones) {
 		tasks.push(

@@ -142,41 +142,59 @@ export function solveRun(
 	shape: RunShape = CHAIN,
 	nominalV = 12
 ): RunSolution {
-	const branches = branchesOf(placed, shape);
+	// Fixtures by position in `placed`; two entries of one fixture at one distance share a voltage
+	// (a slot). Plain arrays keep the repeated passes free of string keys and maps.
+	const n = placed.length;
+	const index = new Map(placed.map((p, i) => [p, i]));
+	const slotOf = new Map<string, number>();
+	const slot = placed.map((p) => {
+		const key = p.fixtureId + '\u0000' + p.distanceM;
+		const known = slotOf.get(key);
+		if (known !== undefined) return known;
+		slotOf.set(key, slotOf.size);
+		return slotOf.size - 1;
+	});
+	const slots = slotOf.size;
+	const branches = branchesOf(placed, shape).map((b) => b.map((p) => index.get(p)!));
 	const ohms = OHMS_PER_M(gauge);
-	let volts = new Map(placed.map((p) => [p.fixtureId + '\u0000' + p.distanceM, tapV]));
-	const keyOf = (p: Placed) => p.fixtureId + '\u0000' + p.distanceM;
-	const pass = (currentOf: (p: Placed) => number) => {
-		const next = new Map<string, number>();
-		const total = placed.reduce((sum, p) => sum + currentOf(p), 0);
+	const amps = new Float64Array(n);
+	const pass = (currentOf: (i: number) => number) => {
+		for (let i = 0; i < n; i++) amps[i] = currentOf(i);
+		const next = new Float64Array(slots);
+		let total = 0;
+		for (let i = 0; i < n; i++) total += amps[i];
 		let loss = total ** 2 * 2 * shape.leadM * ohms;
 		const junctionV = tapV - voltageDrop(total, shape.leadM, gauge);
 		for (const branch of branches) {
-			let remaining = branch.reduce((sum, p) => sum + currentOf(p), 0);
+			let remaining = 0;
+			for (const i of branch) remaining += amps[i];
 			let v = junctionV;
 			let position = 0;
-			for (const p of branch) {
-				const length = p.distanceM - position;
+			for (const i of branch) {
+				const length = placed[i].distanceM - position;
 				v -= voltageDrop(remaining, length, gauge);
 				loss += remaining ** 2 * 2 * length * ohms;
-				next.set(keyOf(p), v);
-				position = p.distanceM;
-				remaining -= currentOf(p);
+				next[slot[i]] = v;
+				position = placed[i].distanceM;
+				remaining -= amps[i];
 			}
 		}
 		return { next, total, loss };
 	};
+	let volts = new Float64Array(slots).fill(tapV);
 	let settled = false;
 	let iterations = 0;
-	let last = pass((p) => p.va / tapV);
+	let last = pass((i) => placed[i].va / tapV);
 	for (; iterations < MAX_ITERATIONS; iterations++) {
 		const current = volts;
-		last = pass((p) => p.va / current.get(keyOf(p))!);
-		const lowest = Math.min(...last.next.values());
+		last = pass((i) => placed[i].va / current[slot[i]]);
+		let lowest = Infinity;
+		for (let k = 0; k < slots; k++) lowest = Math.min(lowest, last.next[k]);
 		if (!(lowest >= FLOOR_V)) break;
-		const moved = Math.max(
-			...placed.map((p) => Math.abs(last.next.get(keyOf(p))! - current.get(keyOf(p))!))
-		);
+		let moved = -Infinity;
+		for (let i = 0; i < n; i++) {
+			moved = Math.max(moved, Math.abs(last.next[slot[i]] - current[slot[i]]));
+		}
 		volts = last.next;
 		if (moved < SETTLE_V) {
 			settled = true;
@@ -185,16 +203,19 @@ export function solveRun(
 	}
 	if (!settled) {
 		// No steady state: show the drop at nominal current, floored at 0 V, and say so.
-		last = pass((p) => p.va / nominalV);
-		volts = new Map([...last.next].map(([k, v]) => [k, Math.max(0, v)]));
+		last = pass((i) => placed[i].va / nominalV);
+		volts = last.next.map((v) => Math.max(0, v));
 	}
-	const fixtures = branches.flat().map((p) => ({
-		fixtureId: p.fixtureId,
-		name: p.name,
-		distanceM: shape.leadM + p.distanceM,
-		va: p.va,
-		volts: volts.get(keyOf(p))!
-	}));
+	const fixtures = branches.flat().map((i) => {
+		const p = placed[i];
+		return {
+			fixtureId: p.fixtureId,
+			name: p.name,
+			distanceM: shape.leadM + p.distanceM,
+			va: p.va,
+			volts: volts[slot[i]]
+		};
+	});
 	return { fixtures, amps: last.total, cableLossW: last.loss, settled, iterations };
 }
 

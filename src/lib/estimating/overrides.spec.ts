@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { demoCatalog, demoDesign, estimate, type EstimateSuccess } from './index';
+import { demoCatalog, demoDesign } from './demo';
+import { estimate, prepareCatalog, type EstimateSuccess } from './index';
 import {
 	cleanChoices,
 	defaultChoices,
@@ -105,5 +106,30 @@ describe('totalsForChoices', () => {
 			options: [],
 			alternates: { topping: 'topping-pebble' }
 		});
+	});
+});
+
+describe('overrides priced against a prepared price list', () => {
+	it('give the same lines and totals as the catalog validated on each call', () => {
+		const prepared = prepareCatalog(demoCatalog());
+		const result = estimate(demoDesign(), prepared);
+		if (!result.ok) throw new Error('prices');
+		const line = result.pricing.lines.find((l) => l.bucket === 'base' && l.unit === 'each')!;
+		const o: LineOverride = {
+			key: lineKey(line),
+			kind: 'override',
+			bucket: line.bucket,
+			description: line.description,
+			unit: line.unit,
+			quantity: line.quantity + 1,
+			unitPriceCents: line.unitPriceCents,
+			unitCostCents: 0,
+			taxable: line.taxable,
+			computed: { quantity: line.quantity, unitPriceCents: line.unitPriceCents },
+			reason: 'One spare'
+		};
+		const once = priceWithOverrides(result, demoDesign(), prepared, [o]);
+		expect(once).toEqual(priceWithOverrides(result, demoDesign(), demoCatalog(), [o]));
+		expect(once.lines.find((l) => l.key === o.key)?.quantity).toBe(line.quantity + 1);
 	});
 });

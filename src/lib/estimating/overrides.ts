@@ -13,7 +13,8 @@ import {
 	type PriceSummary,
 	type PricedLine
 } from './pricing';
-import { catalogSchema, designSchema, ITEM_UNITS, type ItemUnit } from './schema';
+import { readCatalog } from './prepared';
+import { designSchema, ITEM_UNITS, type ItemUnit } from './schema';
 import { upgradeDesign } from './upgrade';
 import type { EstimateSuccess } from './index';
 
@@ -103,7 +104,9 @@ export function priceWithOverrides(
 	overrides: readonly LineOverride[]
 ): PricedEstimate {
 	const d = designSchema.parse(upgradeDesign(design));
-	const c = catalogSchema.parse(catalog);
+	const read = readCatalog(catalog);
+	if (!read.success) throw read.error;
+	const c = read.data;
 	const lines = shownLines(result.pricing.lines, overrides);
 	const pricing = priceSummary(d, lines, result.labor.tasks, pickLaborRate(c), c.settings);
 	return { lines, pricing: { ...pricing, lines }, depositPercent: c.settings.depositPercent };

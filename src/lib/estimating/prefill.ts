@@ -6,7 +6,7 @@
  * and can change in the builder. Every trade rule here is common practice, with no source.
  */
 import { SLOPES, SOILS } from '$lib/schema/visits';
-import { demoCatalog, demoDesign } from './demo';
+import { standardDesign } from './standard-feature';
 import { upgradeDesign, upgradedDesign } from './upgrade';
 import {
 	designSchema,
@@ -199,7 +199,8 @@ function sizeToSpot(design: Design, notes: Notes) {
  * A starting design named for the lead, from the latest visit notes where present; a full design
  * stored in notes.design wins. `engine` is the firm's engine settings (task hours, lifting
  * limits); without them the engine's defaults apply. `catalog` is the firm's price list: the
- * standard feature takes its items (see starter.ts); without one it keeps the demo's items.
+ * standard feature takes its items (see starter.ts). Without one, the standard feature with the
+ * items the template names when no services are given, else the services' features unpriced.
  */
 export function starterDesign(
 	label: string,
@@ -213,8 +214,8 @@ export function starterDesign(
 	}
 	const design =
 		catalog === undefined && services.length === 0
-			? demoDesign()
-			: starterFromCatalog(catalog ?? demoCatalog(), services).design;
+			? standardDesign()
+			: starterFromCatalog(catalog ?? { items: [] }, services).design;
 	design.name = label;
 	const parsedSettings = settingsSchema.safeParse(engine ?? {});
 	const settings = parsedSettings.success ? parsedSettings.data : settingsSchema.parse({});

@@ -663,7 +663,12 @@ export const settingsSchema = z.object({
 				.max(2)
 				.default(SOILS.sand.swell / SOILS.sand.compaction),
 			// The drain pipe runs past the wall's ends to daylight (common practice, no source).
-			drainOutletFt: nonNegative.default(10)
+			drainOutletFt: nonNegative.default(10),
+			// A unit's weight for the truckloads, as a solid block of its size: normal-weight concrete
+			// masonry is 125 lb/ft³ or more, oven-dry (the weight classes of ASTM C90, from memory), so
+			// the lightest such unit; caps 4 in thick (common practice, no source).
+			unitDensityLbFt3: positive.default(125),
+			capThicknessIn: positive.default(4)
 		})
 		.prefault({}),
 	lighting: z

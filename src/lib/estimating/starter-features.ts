@@ -5,7 +5,7 @@
  * Parts take the firm's price-list items; what the list cannot supply is noted. Sizes are starting
  * points the salesperson changes; `sizeFeaturesToSpot` fits them to the visit notes.
  */
-import { demoDesign } from './demo';
+import { standardFountain } from './standard-feature';
 import type { CatalogItem, Design, FeatureInput } from './schema';
 export type PondInput = Extract<FeatureInput, { kind: 'pond' }>;
 export type StreamInput = Extract<FeatureInput, { kind: 'stream' }>;
@@ -164,7 +164,7 @@ function streamParts(stream: StreamInput, pick: Pick, note: Note) {
 }
 
 /**
- * Replaces the demo's fountain with the features the services ask for. Without a fountain, the
+ * Replaces the standard fountain with the features the services ask for. Without a fountain, the
  * column stones, the core drilling and the topping around the columns go too.
  */
 export function featuresForServices(
@@ -184,7 +184,7 @@ export function featuresForServices(
 		if (wanted.length) design.features = [...(design.features ?? []), ...yard];
 		return;
 	}
-	const fountain = demoDesign().features?.[0];
+	const fountain = standardFountain();
 	const features: FeatureInput[] = [];
 	const pond = wanted.includes('pond') ? starterPond() : undefined;
 	if (pond) {
@@ -201,7 +201,7 @@ export function featuresForServices(
 		streamParts(stream, pick, note);
 		features.push(stream);
 	}
-	if (wanted.includes('water-feature') && fountain) features.push(fountain);
+	if (wanted.includes('water-feature')) features.push(fountain);
 	features.push(...yard);
 	design.features = features;
 	design.name = wanted.length > 1 ? 'Water features' : pond ? 'Pond' : 'Pondless stream';

@@ -15,4 +15,4 @@ export interface Slot {
 	exclude?: RegExp;
 }
 
-export type Pick = (slot: Slot, demoSku: string | undefined) => CatalogItem | undefined;
+export type Pick = (slot: Slot, templateSku: string | undefined) => CatalogItem | undefined;

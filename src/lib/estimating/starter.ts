@@ -1,14 +1,14 @@
 /**
  * The standard starting feature (three columns over a gravel basin, toppings, a low wall, lights)
  * priced from the firm's own price list. Pure: no I/O. Each part that names a price-list item takes
- * an item of the same category that can price it (the demo SKU when the list has it, so the demo
- * keeps its numbers); a part the list cannot supply is left out or left unpriced, with a note.
+ * an item of the same category that can price it (the template's SKU when the list has it, so the
+ * demo keeps its numbers); a part the list cannot supply is left out or left unpriced, with a note.
  */
-import { demoCatalog, demoDesign } from './demo';
 import { quantityInUnit, type Measure } from './pricing';
 import { catalogSchema, type CatalogItem, type Design } from './schema';
 import { featuresForServices } from './starter-features';
 import type { Pick, Slot } from './starter-slots';
+import { STANDARD_ITEM_UNITS, standardDesign } from './standard-feature';
 
 export interface Starter {
 	design: Design;
@@ -37,24 +37,25 @@ const SLOTS = {
 	coreDrill: { category: 'other', measure: { direct: 1 }, hint: /core.?drill/i, strict: true }
 } satisfies Record<string, Slot>;
 
-const demoUnits = new Map((demoCatalog().items ?? []).map((i) => [i.sku, i.unit]));
-
-/** The item for a part: the demo SKU when present and fit, else the best fit of the category. */
+/**
+ * The item for a part: the template's SKU when the list has it and it fits, else the best fit of
+ * the category (a name that fits the part, then an item sold as the template's item is).
+ */
 export function pickItem(
 	slot: Slot,
-	demoSku: string,
+	templateSku: string,
 	items: readonly CatalogItem[]
 ): CatalogItem | undefined {
 	const fits = (item: CatalogItem) =>
 		item.category === slot.category && quantityInUnit(slot.measure, item) !== undefined;
-	const same = items.find((i) => i.sku === demoSku && fits(i));
+	const same = items.find((i) => i.sku === templateSku && fits(i));
 	if (same) return same;
 	const candidates = items.filter(
 		(i) =>
 			fits(i) && !slot.exclude?.test(i.name) && (!slot.strict || Boolean(slot.hint?.test(i.name)))
 	);
 	const score = (i: CatalogItem) =>
-		(slot.hint?.test(i.name) ? 2 : 0) + (i.unit === demoUnits.get(demoSku) ? 1 : 0);
+		(slot.hint?.test(i.name) ? 2 : 0) + (i.unit === STANDARD_ITEM_UNITS[templateSku] ? 1 : 0);
 	// A stable pick: the best score, then the price list's own order.
 	return candidates.reduce<CatalogItem | undefined>(
 		(best, i) => (best && score(best) >= score(i) ? best : i),
@@ -222,9 +223,9 @@ function extraParts(design: Design, pick: Pick, note: (text: string) => void) {
 export function starterFromCatalog(catalog: unknown, services: readonly string[] = []): Starter {
 	const parsed = catalogSchema.safeParse(catalog ?? {});
 	const items = parsed.success ? parsed.data.items : [];
-	const design = demoDesign();
+	const design = standardDesign();
 	const notes = new Set<string>();
-	const pick: Pick = (slot, demoSku) => pickItem(slot, demoSku ?? '', items);
+	const pick: Pick = (slot, templateSku) => pickItem(slot, templateSku ?? '', items);
 	const note = (text: string) => notes.add(text);
 	featuresForServices(design, services, items, pick, note);
 	basinParts(design, pick, note);

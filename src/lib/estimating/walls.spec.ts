@@ -100,3 +100,14 @@ describe('permit and engineering thresholds', () => {
 		expect(seat.needsPermit || seat.needsEngineering).toBe(false);
 	});
 });
+
+describe('wall units weighed for the truckloads (125 lb/ft³: ASTM C90 normal weight, from memory)', () => {
+	it('a 16 × 6 × 12 in unit weighs 83.3 lb, a 16 in cap 4 in thick 55.6 lb: 126 units and 30 caps', () => {
+		const r = wallTakeoff(wall(), settings);
+		// Worked by hand: 16 × 6 × 12 in = 1,152 in³ = 0.667 ft³ × 125 lb/ft³ = 83.33 lb;
+		// a cap 16 × 12 × 4 in = 768 in³ = 0.444 ft³ × 125 = 55.56 lb.
+		expect(fromSI(r.unitsMassKg, 'mass', 'lb')).toBeCloseTo(126 * 83.333, 1);
+		expect(fromSI(r.capsMassKg, 'mass', 'lb')).toBeCloseTo(30 * 55.556, 1);
+		expect(wallTakeoff(wall({ capSku: undefined }), settings).capsMassKg).toBe(0);
+	});
+});

@@ -4,7 +4,7 @@
  * wall, and the trench that is dug for it.
  */
 import type { Settings, Wall } from './schema';
-import { feet, inches, toInches } from './units';
+import { feet, inches, toInches, toSI } from './units';
 
 // Bury at least 6 in, or 1 in for every 8 in of wall height, whichever is more, and never less
 // than one whole course, seat walls as well as retaining walls: the buried course keeps the base
@@ -31,6 +31,9 @@ export interface WallResult {
 	unitsPerCourse: number;
 	units: number;
 	caps: number;
+	/** The units' and caps' weight, each a solid block of its size at the settings' density. */
+	unitsMassKg: number;
+	capsMassKg: number;
 	/** From the bottom of the levelling pad to the top of the units. */
 	heightFromFootingM: number;
 	exposedHeightM: number;
@@ -65,6 +68,13 @@ export function wallTakeoff(wall: Wall, settings: Settings): WallResult {
 	const courses = buried + ceil(wall.exposedHeightIn / unit.heightIn);
 	const unitsPerCourse = ceil((wall.lengthFt * 12) / unit.lengthIn);
 	const units = ceil(courses * unitsPerCourse * (1 + settings.wall.unitWastePercent / 100));
+	const caps = wall.capSku ? ceil((wall.lengthFt * 12) / (wall.capLengthIn ?? unit.lengthIn)) : 0;
+	const density = toSI(settings.wall.unitDensityLbFt3, 'density', 'lb/ft3');
+	const unitM3 = inches(unit.lengthIn) * inches(unit.heightIn) * inches(unit.depthIn);
+	const capM3 =
+		inches(wall.capLengthIn ?? unit.lengthIn) *
+		inches(unit.depthIn) *
+		inches(settings.wall.capThicknessIn);
 	const lengthM = feet(wall.lengthFt);
 	const padWidthM = inches(unit.depthIn + PAD_EXTRA_WIDTH_IN);
 	const padVolumeM3 = lengthM * padWidthM * inches(PAD_DEPTH_IN);
@@ -87,7 +97,9 @@ export function wallTakeoff(wall: Wall, settings: Settings): WallResult {
 		courses,
 		unitsPerCourse,
 		units,
-		caps: wall.capSku ? ceil((wall.lengthFt * 12) / (wall.capLengthIn ?? unit.lengthIn)) : 0,
+		caps,
+		unitsMassKg: units * unitM3 * density,
+		capsMassKg: caps * capM3 * density,
 		heightFromFootingM,
 		exposedHeightM,
 		lengthM,

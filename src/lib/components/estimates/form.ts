@@ -16,6 +16,21 @@ export const uid = (prefix: string) =>
 export const itemsOf = (catalog: ParsedCatalog, category: CatalogItem['category']) =>
 	catalog.items.filter((i) => i.category === category);
 
+/** Price-list items as a select's choices: those of the categories given, or those a test keeps. */
+export function choicesOf(
+	catalog: ParsedCatalog,
+	keep: readonly CatalogItem['category'][] | ((item: CatalogItem) => boolean)
+): { value: string; label: string }[] {
+	const kept =
+		typeof keep === 'function'
+			? catalog.items.filter(keep)
+			: catalog.items.filter((i) => keep.includes(i.category));
+	return kept.map((i) => ({ value: i.sku, label: i.name }));
+}
+
+/** For the feature at `index` of the design's list: its error-path prefix and its ids' prefix. */
+export const featureKeys = (index: number) => ({ p: `design.features.${index}`, id: `f${index}` });
+
 /** The first item whose SKU or name matches, else the first of the list. */
 export function pick(items: readonly CatalogItem[], like?: RegExp): string | undefined {
 	return (like && items.find((i) => like.test(i.sku) || like.test(i.name)))?.sku ?? items[0]?.sku;

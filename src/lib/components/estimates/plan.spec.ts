@@ -1,10 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { fountainIn } from '../../../../tests/support/fountain';
-import { demoDesign, designSchema } from '$lib/estimating';
+import { designSchema, estimate } from '$lib/estimating';
+import { demoDesign } from '$lib/estimating/demo';
 import { includedBuckets } from '$lib/estimating/pricing';
 import { yardDesign } from '../../../../scripts/bench/designs';
 import { boxOf } from './geometry';
-import { inclusionFor, planOf } from './plan';
+import { inclusionFor, planOf, planSizes } from './plan';
 
 const demo = () => designSchema.parse(demoDesign());
 
@@ -127,6 +128,49 @@ describe('plan drawing of the yard features', () => {
 		expect(path.detail).toBe('flagstone over 80 ft², 2 steps');
 		expect(beds.detail).toBe('beds of 96 ft², 3 plant groups');
 		expect(creek.shapes).toHaveLength(2);
-		expect(creek.detail).toBe('creek 30 ft long into a soak-away');
+		// Without the engine's figures, the sizes at the default settings (worked below).
+		expect(creek.detail).toBe(
+			'creek 30 ft long, 3 ft across the top into a soak-away 9.3 ft square, 3 ft deep'
+		);
+	});
+
+	it('draws the creek as wide and the soak-away as large as the engine sizes them', async () => {
+		const { starterDrainage } = await import('$lib/estimating/starter-yard');
+		const design = designSchema.parse({ name: 'Yard', features: [starterDrainage([])] });
+		const drawn = (lengthFt: number, widthFt: number) => {
+			const d = structuredClone(design);
+			const f = d.features[0];
+			if (f.kind === 'drainage') f.catchment.areas = [{ shape: 'rectangle', lengthFt, widthFt }];
+			const r = estimate(d, { items: [] });
+			if (!r.ok) throw new Error('estimates');
+			const plan = planOf(d, inclusionFor(d, includedBuckets(d)), planSizes(r.features));
+			const [channel, pit] = plan.features[0].shapes.map(boxOf);
+			return {
+				creekWidthFt: channel.maxY - channel.minY,
+				creekLengthFt: channel.maxX - channel.minX,
+				soakFt: [pit.maxX - pit.minX, pit.maxY - pit.minY],
+				result: r.features[0].drainage!
+			};
+		};
+		// Worked by hand at the default 2 in/h. Runoff of one 60 min storm from 600 ft² of roof at C = 0.9:
+		// 0.9 × 2/12 ft × 600 ft² = 90 ft³; in gravel with 35% voids 90 / 0.35 = 257.1 ft³; 3 ft deep,
+		// a pit of √(257.1 / 3) = 9.26 ft square (soak-away sizing from the runoff volume and the voids).
+		// Peak flow Q = C·i·A = 0.025 ft³/s, far below what a V of 2:1 banks 6 in deep carries at 2%
+		// (Manning, n = 0.04: 0.97 ft³/s), so the bottom is 0 wide and the top, freeboard included,
+		// 2 × 2 × (6 + 3) in = 3 ft.
+		const storm = drawn(30, 20);
+		expect(storm.creekLengthFt).toBeCloseTo(30, 9);
+		expect(storm.creekWidthFt).toBeCloseTo(3, 6);
+		expect(storm.soakFt[0]).toBeCloseTo(9.258, 3);
+		expect(storm.soakFt[1]).toBeCloseTo(9.258, 3);
+		// The drawing follows the engine's own figures, whatever they are.
+		expect(storm.creekWidthFt * 0.3048).toBeCloseTo(storm.result.creek!.topWidthM, 9);
+		expect(storm.soakFt[0] * 0.3048).toBeCloseTo(storm.result.soakaway!.sideM, 9);
+		// A 200 × 150 ft yard sends 1.25 ft³/s, more than the V carries: the creek gets a flat bottom
+		// and is drawn wider, the soak-away larger.
+		const heavy = drawn(200, 150);
+		expect(heavy.result.creek!.bottomM).toBeGreaterThan(0);
+		expect(heavy.creekWidthFt).toBeGreaterThan(storm.creekWidthFt);
+		expect(heavy.soakFt[0]).toBeGreaterThan(storm.soakFt[0]);
 	});
 });

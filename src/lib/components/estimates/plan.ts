@@ -1,14 +1,24 @@
-// The plan drawing's layout, in feet, from the design alone. The design has sizes but no
+// The plan drawing's layout, in feet, from the design. The design has sizes but no
 // positions, so the layout is a fixed arrangement: the first fountain's basin in the middle with the
 // wetted stones (and their outlets) along it, dry stones in front, the toppings centred on it and
 // beside it, the other features (ponds, streams with their falls and reservoirs, more basins) to the
-// right, walls behind. Sizes are to scale; positions only show what goes where.
-import type { ParsedDesign } from '$lib/estimating';
-import type { Area, Feature, Fountain, Stone } from '$lib/estimating/schema';
+// right, walls behind. Sizes are to scale; positions only show what goes where. A dry creek's width
+// and a soak-away's size are not in the design but computed from the runoff: the drawing takes them
+// from the engine's results (`planSizes`).
+import type { FeatureResult, ParsedDesign } from '$lib/estimating';
+import { analyseDrainage, type DrainageResult } from '$lib/estimating/drainage';
+import {
+	settingsSchema,
+	type Area,
+	type Feature,
+	type Fountain,
+	type Stone
+} from '$lib/estimating/schema';
 import { pondPlan } from '$lib/estimating/pond';
 import { areaFt2, boxOf, outline, type Box, type Point } from './geometry';
 
 const GAL_PER_FT3 = 7.48052; // US gallons in a cubic foot (exact by definition of the gallon)
+const M_PER_FT = 0.3048; // exact, by the international foot
 const GAP_FT = 1;
 
 export interface PlanArea {
@@ -66,6 +76,26 @@ export interface Plan {
 	runs: PlanRun[];
 	lightingOptional: boolean;
 	box: Box;
+}
+
+/** The sizes the engine computed that the design does not hold, in feet, by feature id. */
+export type PlanSizes = Readonly<
+	Record<string, { creekWidthFt?: number; soakSideFt?: number; soakDepthFt?: number }>
+>;
+
+/** The drawn sizes from the engine's per-feature results (a dry creek's top width, a soak-away's side). */
+export function planSizes(features: readonly Pick<FeatureResult, 'id' | 'drainage'>[]): PlanSizes {
+	return Object.fromEntries(
+		features.flatMap((f) => (f.drainage ? [[f.id, sizesOf(f.drainage)]] : []))
+	);
+}
+
+function sizesOf(d: DrainageResult) {
+	return {
+		creekWidthFt: d.creek && d.creek.topWidthM / M_PER_FT,
+		soakSideFt: d.soakaway && d.soakaway.sideM / M_PER_FT,
+		soakDepthFt: d.soakaway && d.soakaway.depthM / M_PER_FT
+	};
 }
 
 /** What a bucket means for the drawing: drawn, drawn dashed as an option not taken, or left out. */
@@ -252,7 +282,10 @@ function runsOf(design: ParsedDesign): PlanRun[] {
 }
 
 /** Ponds, streams and further fountains, each laid out to scale from its own origin. */
-function featureShape(f: Feature): Omit<PlanFeature, 'key' | 'optional'> | undefined {
+function featureShape(
+	f: Feature,
+	sizes: PlanSizes
+): Omit<PlanFeature, 'key' | 'optional'> | undefined {
 	if (f.kind === 'pond') {
 		const o = f.outline;
 		const plan = pondPlan(o);
@@ -304,7 +337,9 @@ function featureShape(f: Feature): Omit<PlanFeature, 'key' | 'optional'> | undef
 			detail: `${fmt(length)} ft long over ${falls.length} fall${falls.length === 1 ? '' : 's'}, rising ${fmt(f.riseFt)} ft; ${f.reservoir ? `reservoir ${fmt(f.reservoir.lengthFt)} × ${fmt(f.reservoir.widthFt)} ft` : 'falls into the pond'}`
 		};
 	}
-	if (f.kind === 'path' || f.kind === 'planting' || f.kind === 'drainage') return yardShape(f);
+	if (f.kind === 'path' || f.kind === 'planting' || f.kind === 'drainage') {
+		return yardShape(f, sizes);
+	}
 	const basin = basinOf(f);
 	if (!basin) return undefined;
 	return {
@@ -331,7 +366,8 @@ function areasInRow(areas: readonly Area[]): Point[][] {
 
 /** A path's or planting's areas; a dry creek as its channel and soak-away. */
 function yardShape(
-	f: Extract<Feature, { kind: 'path' | 'planting' | 'drainage' }>
+	f: Extract<Feature, { kind: 'path' | 'planting' | 'drainage' }>,
+	sizes: PlanSizes
 ): Omit<PlanFeature, 'key' | 'optional'> {
 	const total = (areas: readonly Area[]) => areas.reduce((s, a) => s + areaFt2(a), 0);
 	if (f.kind === 'path') {
@@ -355,22 +391,31 @@ function yardShape(
 			detail: `beds of ${fmt(total(f.areas))} ft², ${f.groups.length} plant group${f.groups.length === 1 ? '' : 's'}`
 		};
 	}
+	// Without the engine's figures (a page that has none), the sizes at the engine's default settings.
+	const size = sizes[f.id] ?? sizesOf(analyseDrainage(f, settingsSchema.parse({})));
 	const shapes: Point[][] = [];
 	const creek = f.creek;
-	// The creek is drawn 2 ft wide: its size comes from the runoff, which the drawing does not compute.
-	if (creek) shapes.push(shift(rect(creek.lengthFt, 2), creek.lengthFt / 2, 0));
+	const creekWidth = creek ? Math.max(size.creekWidthFt ?? 0, 0.1) : 0;
+	if (creek) shapes.push(shift(rect(creek.lengthFt, creekWidth), creek.lengthFt / 2, 0));
+	const side = f.soakaway ? Math.max(size.soakSideFt ?? 0, 0.1) : 0;
 	if (f.soakaway) {
 		const x = creek ? creek.lengthFt + GAP_FT : 0;
-		shapes.push(shift(rect(3, 3), x + 1.5, 0));
+		shapes.push(shift(rect(side, side), x + side / 2, 0));
 	}
 	if (!shapes.length) shapes.push(rect(1, 1));
+	const creekText = creek
+		? `creek ${fmt(creek.lengthFt)} ft long, ${fmt(creekWidth)} ft across the top`
+		: 'no creek';
+	const soakText = f.soakaway
+		? ` into a soak-away ${fmt(side)} ft square, ${fmt(size.soakDepthFt ?? f.soakaway.depthFt)} ft deep`
+		: '';
 	return {
 		kind: 'drainage',
 		name: f.name,
 		shapes,
 		falls: [],
 		label: f.name,
-		detail: `${creek ? `creek ${fmt(creek.lengthFt)} ft long` : 'no creek'}${f.soakaway ? ' into a soak-away' : ''}`
+		detail: `${creekText}${soakText}`
 	};
 }
 
@@ -378,12 +423,13 @@ function yardShape(
 function featuresBeside(
 	features: readonly Feature[],
 	include: Inclusion,
-	startX: number
+	startX: number,
+	sizes: PlanSizes
 ): PlanFeature[] {
 	let cursor = startX;
 	return features.flatMap((f, i) => {
 		const how = include(f.optionId);
-		const shape = how === 'out' ? undefined : featureShape(f);
+		const shape = how === 'out' ? undefined : featureShape(f, sizes);
 		if (!shape) return [];
 		const box = boxOf(shape.shapes.flat());
 		const dx = cursor + GAP_FT * 2 - box.minX;
@@ -404,7 +450,7 @@ function featuresBeside(
 	});
 }
 
-export function planOf(design: ParsedDesign, include: Inclusion): Plan {
+export function planOf(design: ParsedDesign, include: Inclusion, sizes: PlanSizes = {}): Plan {
 	const fountain = design.features.find(
 		(f): f is Fountain => f.kind === 'fountain' && include(f.optionId) === 'in'
 	);
@@ -429,7 +475,8 @@ export function planOf(design: ParsedDesign, include: Inclusion): Plan {
 	const features = featuresBeside(
 		design.features.filter((f) => f !== fountain),
 		include,
-		right
+		right,
+		sizes
 	);
 	const drawn = [...everything, ...features.flatMap((f) => f.shapes.flat())];
 	const top = drawn.length ? boxOf(drawn).minY : 0;

@@ -2,6 +2,7 @@ import { error, fail } from '@sveltejs/kit';
 import { fieldErrors } from '$lib/schema/auth';
 import { acceptSchema, declineSchema, questionSchema } from '$lib/schema/estimates';
 import { HOMEOWNER_CAUTIONS } from '$lib/components/estimates/labels';
+import { planSizes } from '$lib/components/estimates/plan';
 import { acceptEstimate, homeownerMessage, openByToken } from '$lib/server/estimates/homeowner';
 import { leadWithContact } from '$lib/server/estimates/records';
 import { readDesign } from '$lib/estimating';
@@ -60,6 +61,7 @@ export const load: PageServerLoad = async ({ params }) => {
 			scope: view.estimate.scope,
 			designName: String(view.estimate.design.name ?? ''),
 			design: design.success ? design.data : null,
+			planSizes: planSizes(engine.features ?? []),
 			photos,
 			expiresAt: view.estimate.expiresAt!.toISOString(),
 			lines: priced.lines.map((l) => ({
