@@ -6,6 +6,7 @@ import { appEnv, databaseUrl, serviceConfig } from './lib/config';
 import { buildInBackgroundIfNeeded } from './lib/build';
 import { spawnTethered, stopChild } from './lib/children';
 import { exitWithError } from './lib/errors';
+import { SERVER_NODE_FLAGS, serverEnv } from './lib/production';
 import { startServices, stopOnSignals } from './lib/services';
 import { databaseIsEmpty, seedDemo } from './seed/index';
 import { DEMO_STAFF } from './seed/demo-data';
@@ -61,9 +62,9 @@ const app = dev
 			],
 			{ stdio: 'inherit', env: { ...process.env, ...env } }
 		)
-	: spawnTethered(process.execPath, ['scripts/serve.js', 'build'], {
+	: spawnTethered(process.execPath, [...SERVER_NODE_FLAGS, 'scripts/serve.js', 'build'], {
 			stdio: 'inherit',
-			env: { ...process.env, ...env, NODE_ENV: 'production' }
+			env: { ...serverEnv(process.env), ...env, NODE_ENV: 'production' }
 		});
 child = app;
 app.on('exit', (code) => {

@@ -8,8 +8,8 @@
  * (`npm run seed:bulk -- 100000`). Uses the dev database unless DATABASE_URL is set; builds the
  * app into BUILD_DIR (default `build`) when the sources changed (BENCH_SKIP_BUILD=1: never);
  * serves it on BENCH_APP_PORT (default 3412). EXPORT_RUNS (default 2) downloads one after the
- * other in the same app; EXPORT_NODE_OPTIONS passes flags to the app's Node (for example the
- * small-server guide's `--max-old-space-size=…`). `--compare DIR` first measures another build
+ * other in the same app. The app starts as `npm run serve` starts it; EXPORT_NODE_OPTIONS starts it
+ * with those Node flags instead (empty: Node's defaults). `--compare DIR` first measures another build
  * (say, one of an older commit) in the same run, for a side-by-side figure; only the build of
  * this checkout decides the exit code.
  */
@@ -20,12 +20,12 @@ import postgres from 'postgres';
 import { appEnv, databaseUrl } from '../lib/config';
 import { buildIfNeeded } from '../lib/build';
 import { DEMO_STAFF } from '../seed/demo-data';
-import { writeResult } from './lib';
+import { appLaunch, writeResult } from './lib';
 
 const url = process.env.DATABASE_URL ?? databaseUrl('dev');
 const APP_PORT = Number(process.env.BENCH_APP_PORT ?? 3412);
 const RUNS = Number(process.env.EXPORT_RUNS ?? 2);
-const NODE_FLAGS = process.env.EXPORT_NODE_OPTIONS ?? '';
+const launch = appLaunch('EXPORT');
 const GOAL_RISE_MB = 50;
 const GOAL_RATE_MBPS = 20;
 const MB = 1_000_000;
@@ -87,9 +87,10 @@ async function measure(buildDir: string, leads: number): Promise<Run[]> {
 		DATABASE_URL: url,
 		PORT: String(APP_PORT),
 		ORIGIN: `http://127.0.0.1:${APP_PORT}`,
-		NODE_ENV: 'production'
+		NODE_ENV: 'production',
+		...launch.env
 	};
-	const app = spawn(process.execPath, [...NODE_FLAGS.split(' ').filter(Boolean), buildDir], {
+	const app = spawn(process.execPath, [...launch.nodeFlags, buildDir], {
 		env: { ...process.env, ...env },
 		stdio: ['ignore', 'ignore', 'inherit']
 	});
@@ -190,7 +191,7 @@ if (!process.env.BENCH_SKIP_BUILD) {
 }
 console.log(
 	`\nLeads CSV export of ${n.toLocaleString('en-US')} leads, ${RUNS} downloads per app` +
-		(NODE_FLAGS ? `, app started with ${NODE_FLAGS}` : ', app with Node defaults') +
+		`, app ${launch.label}` +
 		'\n'
 );
 let compared: Run[] | undefined;
@@ -209,7 +210,7 @@ console.log(
 		(rowsOk ? '' : `; rows counted ${runs.map((r) => r.rows).join(', ')} of ${n}: check the file!`)
 );
 console.log(
-	`Written to ${writeResult('export', { leads: n, nodeFlags: NODE_FLAGS, runs, compareDir, compared })}`
+	`Written to ${writeResult('export', { leads: n, app: launch.label, runs, compareDir, compared })}`
 );
 if (worstRise >= GOAL_RISE_MB || slowest < GOAL_RATE_MBPS || !rowsOk) process.exitCode = 1;
 process.exit();

@@ -1,3 +1,4 @@
+import { SERVER_ENV, SERVER_NODE_FLAGS } from '../lib/production';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 
@@ -28,4 +29,39 @@ export function writeResult(name: string, result: unknown): string {
 		JSON.stringify({ measuredAt: new Date().toISOString(), ...(result as object) }, null, 2)
 	);
 	return file;
+}
+
+export interface AppLaunch {
+	/** Flags for the app's Node, before the script. */
+	nodeFlags: string[];
+	/** Variables the app starts with (under the bench's own). */
+	env: Record<string, string>;
+	/** How the app was started, for the report. */
+	label: string;
+}
+
+/**
+ * How a bench starts the app: as `npm run serve` does (SERVER_NODE_FLAGS and SERVER_ENV), unless
+ * `<PREFIX>_NODE_OPTIONS` is set, in which case with exactly those flags and glibc's and the
+ * app's own defaults (set it empty for Node's defaults, the figure before the product's settings).
+ */
+export function appLaunch(prefix: string): AppLaunch {
+	const given = process.env[`${prefix}_NODE_OPTIONS`];
+	if (given === undefined) {
+		return {
+			nodeFlags: [...SERVER_NODE_FLAGS],
+			env: { ...SERVER_ENV },
+			label: `as npm run serve starts it (${SERVER_NODE_FLAGS.join(' ')}, ${Object.entries(
+				SERVER_ENV
+			)
+				.map(([k, v]) => `${k}=${v}`)
+				.join(' ')})`
+		};
+	}
+	const nodeFlags = given.split(' ').filter(Boolean);
+	return {
+		nodeFlags,
+		env: {},
+		label: nodeFlags.length ? `Node flags ${nodeFlags.join(' ')}` : 'Node and glibc defaults'
+	};
 }

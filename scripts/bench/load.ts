@@ -18,8 +18,9 @@
  * request rate under the intake load, and the app process's peak resident memory (VmHWM from
  * /proc/<pid>/status, with VmRSS polled every 100 ms as a cross-check). Goal: the peak under
  * 256 MiB, the ceiling for a one-gigabyte server beside its PostgreSQL; the script exits 1 above it.
- * LOAD_NODE_OPTIONS passes flags to the app's Node (the README's small-server guide runs it with
- * its own `--max-old-space-size`), LOAD_POOL_SIZE sets the app's database pool (default: the app's).
+ * The app starts as `npm run serve` starts it (scripts/lib/production.ts: the README's small-server
+ * settings); LOAD_NODE_OPTIONS starts it with those Node flags instead and without those settings
+ * (empty: Node's defaults), LOAD_POOL_SIZE sets the app's database pool.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { readFileSync } from 'node:fs';
@@ -45,14 +46,14 @@ const { buildIfNeeded } = await import('../lib/build');
 const { startServices } = await import('../lib/services');
 const { seedDemo } = await import('../seed/index');
 const { DEMO_STAFF } = await import('../seed/demo-data');
-const { writeResult } = await import('./lib');
+const { appLaunch, writeResult } = await import('./lib');
 
 const PROSPECTS = Number(process.env.LOAD_PROSPECTS ?? 50);
 const CONNECTIONS = 50;
 const SECONDS = Number(process.env.LOAD_SECONDS ?? 60);
 const TIMEOUT_MS = Number(process.env.LOAD_TIMEOUT_SECONDS ?? 300) * 1000;
 const GOAL_MIB = 256;
-const NODE_FLAGS = (process.env.LOAD_NODE_OPTIONS ?? '').split(' ').filter(Boolean);
+const launch = appLaunch('LOAD');
 const MIN_FILL_MS = 3_200; // the form refuses a post sooner than 3 s after it was shown
 const EMAIL_DOMAIN = 'load.bench.example';
 
@@ -175,12 +176,13 @@ async function main() {
 			NODE_ENV: 'production',
 			ADDRESS_HEADER: 'x-forwarded-for',
 			XFF_DEPTH: '1',
+			...launch.env,
 			...(process.env.LOAD_POOL_SIZE ? { DATABASE_POOL_SIZE: process.env.LOAD_POOL_SIZE } : {})
 		};
 		const buildDir = process.env.BUILD_DIR ?? '.test-build-load';
 		// BENCH_SKIP_BUILD=1 measures the build as it is (e.g. while another build holds the lock).
 		if (!process.env.BENCH_SKIP_BUILD) buildIfNeeded(buildDir, env);
-		app = spawn(process.execPath, [...NODE_FLAGS, buildDir], {
+		app = spawn(process.execPath, [...launch.nodeFlags, buildDir], {
 			env: { ...process.env, ...env },
 			stdio: ['ignore', 'ignore', 'inherit']
 		});
@@ -294,7 +296,7 @@ async function main() {
 				peakVmHWM: Number((peak.hwm / 1024).toFixed(1))
 			},
 			leadsBefore,
-			nodeFlags: NODE_FLAGS.join(' '),
+			app: launch.label,
 			loadAverage: loadavg().map((l) => Number(l.toFixed(2)))
 		};
 		console.log(JSON.stringify(result, null, 2));
@@ -309,7 +311,7 @@ async function main() {
 		const memoryMet = result.appMemoryMiB.peakVmHWM < GOAL_MIB;
 		console.log(
 			`goal: app peak RSS < ${GOAL_MIB} MiB ${memoryMet ? 'met' : 'MISSED'} (${result.appMemoryMiB.peakVmHWM} MiB` +
-				`${NODE_FLAGS.length ? `, Node flags ${NODE_FLAGS.join(' ')}` : ', Node defaults'}); load average ${result.loadAverage.join(' ')}`
+				`, app ${launch.label}); load average ${result.loadAverage.join(' ')}`
 		);
 		console.log(`Written to ${writeResult('load', result)}`);
 		if (!every || result.errorsOtherThanRateLimit > 0 || !memoryMet) process.exitCode = 1;

@@ -6,8 +6,9 @@ import { expect, test, type Locator, type Page } from '@playwright/test';
 import postgres from 'postgres';
 import sharp from 'sharp';
 import { randomBytes } from 'node:crypto';
-import { formatCents } from '../../src/lib/components/estimates/money';
+import { formatCents } from '../../src/lib/money';
 import { putObject, randomKey } from '../../src/lib/server/platform/storage';
+import { seedLead } from '../support/lead';
 import { linkIn, waitForMail } from '../support/mailbox';
 import { demoUser, signIn } from './pages/staff';
 
@@ -17,13 +18,12 @@ test.afterAll(async () => {
 });
 
 async function makeLead() {
-	const tag = randomBytes(4).toString('hex');
-	const email = `fernhill-${tag}@homeowner.example`;
 	const [sales] = await sql`select id from users where email = ${demoUser('sales').email}`;
-	await sql`insert into contacts (id, name, email) values (${'c-' + tag}, ${'Ada Fernhill ' + tag}, ${email})`;
-	await sql`insert into leads (id, contact_id, stage, message, assignee_id)
-		values (${'l-' + tag}, ${'c-' + tag}, 'visit_booked', 'Three bubbling columns by the patio', ${sales.id})`;
-	return { id: 'l-' + tag, email, name: `Ada Fernhill ${tag}` };
+	return seedLead(sql, {
+		name: 'Ada Fernhill',
+		message: 'Three bubbling columns by the patio',
+		assigneeId: sales.id
+	});
 }
 
 /** A yard photo sent with the inquiry, stored as the intake pipeline stores it. */
@@ -72,6 +72,21 @@ test('build, send, accept on a phone, sold in the office', async ({ page, browse
 	expect(after).toBeGreaterThan(before);
 	await saved1;
 	await expect(page.getByTestId('save-status')).toHaveText(/All changes saved/);
+
+	// Stone handling: the weight (right-aligned) and the method beside it read apart, never as
+	// one run of text such as "314 lbStone cart".
+	const stoneRow = page.getByTestId('stones').locator('tbody tr').first();
+	await expect(stoneRow).toBeVisible();
+	const gap = await stoneRow.evaluate((tr) => {
+		const [, weight, method] = tr.querySelectorAll('td');
+		const box = (cell: Element) => {
+			const range = document.createRange();
+			range.selectNodeContents(cell);
+			return range.getBoundingClientRect();
+		};
+		return box(method).left - box(weight).right;
+	});
+	expect(gap).toBeGreaterThanOrEqual(8);
 
 	// The builder, the print document and the stored totals agree to the cent.
 	const [saved] =

@@ -1,11 +1,11 @@
 // Ponds and streams in the builder and on the homeowner's page: a pond lead's estimate starts
 // from a pond, is sent and accepted on a 390 px phone; a stream lead's estimate gets a fountain as
 // an option, the homeowner leaves it out and the total follows.
-import { expect, test, type Page } from '@playwright/test';
+import { expect, test } from '@playwright/test';
 import postgres from 'postgres';
-import { randomBytes } from 'node:crypto';
-import { formatCents } from '../../src/lib/components/estimates/money';
-import { linkIn, waitForMail } from '../support/mailbox';
+import { formatCents } from '../../src/lib/money';
+import { seedLead } from '../support/lead';
+import { saved, sendAndOpen } from './pages/estimate';
 import { demoUser, signIn } from './pages/staff';
 
 const sql = postgres(process.env.E2E_DATABASE_URL!, { max: 2, onnotice: () => {} });
@@ -14,28 +14,8 @@ test.afterAll(async () => {
 });
 
 async function makeLead(name: string, services: string[], message: string) {
-	const tag = randomBytes(4).toString('hex');
-	const email = `${name.toLowerCase().split(' ')[0]}-${tag}@homeowner.example`;
 	const [sales] = await sql`select id from users where email = ${demoUser('sales').email}`;
-	await sql`insert into contacts (id, name, email) values (${'c-' + tag}, ${`${name} ${tag}`}, ${email})`;
-	await sql`insert into leads (id, contact_id, stage, message, services, assignee_id)
-		values (${'l-' + tag}, ${'c-' + tag}, 'visit_booked', ${message}, ${sql.array(services)}, ${sales.id})`;
-	return { id: 'l-' + tag, email, name: `${name} ${tag}` };
-}
-
-const saved = (page: Page) =>
-	page.waitForResponse(
-		(r) => r.url().includes('/api/estimates/') && r.request().method() === 'PUT' && r.ok()
-	);
-
-async function sendAndOpen(page: Page, lead: { id: string; email: string }) {
-	await expect(page.getByTestId('save-status')).toHaveText(/All changes saved/);
-	await page.getByRole('button', { name: /^Send to/ }).click();
-	await expect(page.getByTestId('estimate-status')).toHaveText('Sent');
-	const mail = await waitForMail(lead.email, /Your estimate from/);
-	const [row] =
-		await sql`select id, total_cents, deposit_cents from estimates where lead_id = ${lead.id}`;
-	return { link: linkIn(mail, /^\/estimate\/[A-Za-z0-9_-]+$/), row };
+	return seedLead(sql, { name, services, message, assigneeId: sales.id });
 }
 
 test('a pond lead: built from a pond, sent, and accepted on a 390 px phone', async ({
@@ -73,7 +53,7 @@ test('a pond lead: built from a pond, sent, and accepted on a 390 px phone', asy
 	await pond.getByLabel('Outline').selectOption('oval');
 	await expect(page.getByTestId('engine-errors')).toHaveCount(0);
 
-	const { link, row } = await sendAndOpen(page, lead);
+	const { link, row } = await sendAndOpen(sql, page, lead);
 	const phone = await browser.newContext({
 		viewport: { width: 390, height: 844 },
 		isMobile: true,
@@ -130,7 +110,7 @@ test('a stream with a fountain as an option: the homeowner leaves it out and the
 	await expect(key).toHaveCount(2);
 	await expect(key.last()).toContainText(/^Dotted outline: Fountain, .*\(an option\)/);
 
-	const { link, row } = await sendAndOpen(page, lead);
+	const { link, row } = await sendAndOpen(sql, page, lead);
 	const [{ design }] = await sql`select design from estimates where id = ${row.id}`;
 	const features = (design as { features: { kind: string; optionId?: string }[] }).features;
 	expect(features.map((f) => f.kind)).toEqual(['stream', 'fountain']);

@@ -5,7 +5,7 @@ import { createHash, randomBytes } from 'node:crypto';
 import postgres from 'postgres';
 import { expect, request, test, type APIRequestContext, type Page } from '@playwright/test';
 import { linkIn, waitForMail } from '../support/mailbox';
-import { seedAcceptedJob } from './pages/accepted-job';
+import { seedAcceptedJob } from '../support/accepted-job';
 import { apiAs, demoUser, signIn } from './pages/staff';
 
 const sql = postgres(process.env.E2E_DATABASE_URL ?? process.env.DATABASE_URL!, {

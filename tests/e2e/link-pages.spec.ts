@@ -5,7 +5,7 @@ import { resolve } from 'node:path';
 import postgres from 'postgres';
 import { expect, test, type APIResponse } from '@playwright/test';
 import { routeFiles } from '../../src/lib/server/http/route-files';
-import { seedAcceptedJob } from './pages/accepted-job';
+import { seedAcceptedJob } from '../support/accepted-job';
 
 const GROUP = resolve('src/routes/(homeowner)');
 const linkPages = routeFiles(GROUP)

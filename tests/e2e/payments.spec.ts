@@ -5,7 +5,7 @@
 import { randomBytes } from 'node:crypto';
 import postgres from 'postgres';
 import { expect, test } from '@playwright/test';
-import { seedAcceptedJob } from './pages/accepted-job';
+import { seedAcceptedJob } from '../support/accepted-job';
 import { signIn } from './pages/staff';
 
 async function seedJuniperJob() {

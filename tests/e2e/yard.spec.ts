@@ -3,9 +3,9 @@
 // lighting lead's estimate is built on a 390 px phone with lighting alone and accepted on a desktop.
 import { expect, test, type Page } from '@playwright/test';
 import postgres from 'postgres';
-import { randomBytes } from 'node:crypto';
-import { formatCents } from '../../src/lib/components/estimates/money';
-import { linkIn, waitForMail } from '../support/mailbox';
+import { formatCents } from '../../src/lib/money';
+import { seedLead } from '../support/lead';
+import { saved, sendAndOpen } from './pages/estimate';
 import { demoUser, signIn } from './pages/staff';
 
 const sql = postgres(process.env.E2E_DATABASE_URL!, { max: 2, onnotice: () => {} });
@@ -14,28 +14,8 @@ test.afterAll(async () => {
 });
 
 async function makeLead(name: string, services: string[], message: string) {
-	const tag = randomBytes(4).toString('hex');
-	const email = `${name.toLowerCase().split(' ')[0]}-${tag}@homeowner.example`;
 	const [sales] = await sql`select id from users where email = ${demoUser('sales').email}`;
-	await sql`insert into contacts (id, name, email) values (${'c-' + tag}, ${`${name} ${tag}`}, ${email})`;
-	await sql`insert into leads (id, contact_id, stage, message, services, assignee_id)
-		values (${'l-' + tag}, ${'c-' + tag}, 'visit_booked', ${message}, ${sql.array(services)}, ${sales.id})`;
-	return { id: 'l-' + tag, email, name: `${name} ${tag}` };
-}
-
-const saved = (page: Page) =>
-	page.waitForResponse(
-		(r) => r.url().includes('/api/estimates/') && r.request().method() === 'PUT' && r.ok()
-	);
-
-async function sendAndOpen(page: Page, lead: { id: string; email: string }) {
-	await expect(page.getByTestId('save-status')).toHaveText(/All changes saved/);
-	await page.getByRole('button', { name: /^Send to/ }).click();
-	await expect(page.getByTestId('estimate-status')).toHaveText('Sent');
-	const mail = await waitForMail(lead.email, /Your estimate from/);
-	const [row] =
-		await sql`select id, total_cents, deposit_cents from estimates where lead_id = ${lead.id}`;
-	return { link: linkIn(mail, /^\/estimate\/[A-Za-z0-9_-]+$/), row };
+	return seedLead(sql, { name, services, message, assigneeId: sales.id });
 }
 
 async function accept(home: Page, lead: { id: string; name: string }, estimateId: string) {
@@ -93,7 +73,7 @@ test('a path and planting: built from the lead, reshaped by corners, sent and ac
 	await path.getByLabel('Rise each (in)').fill('6');
 	await twice;
 
-	const { link, row } = await sendAndOpen(page, lead);
+	const { link, row } = await sendAndOpen(sql, page, lead);
 	const [{ design }] = await sql`select design from estimates where id = ${row.id}`;
 	expect((design as { features: { kind: string }[] }).features.map((f) => f.kind)).toEqual([
 		'path',
@@ -140,7 +120,7 @@ test('lighting alone: built on a 390 px phone with no water feature, accepted on
 	await expect(
 		page.getByText('Ground-fault protection for pumps and lights near water').first()
 	).toBeVisible();
-	const { link, row } = await sendAndOpen(page, lead);
+	const { link, row } = await sendAndOpen(sql, page, lead);
 	const [{ design }] = await sql`select design from estimates where id = ${row.id}`;
 	expect((design as { features: unknown[] }).features).toEqual([]);
 	await staff.close();

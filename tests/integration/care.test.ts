@@ -18,14 +18,12 @@ import { setStage } from '$lib/server/jobs/stage';
 import { planSchema } from '$lib/schema/care';
 import { addFeature, setPin } from '$lib/server/care/features';
 import { saveSeasonSettings, savePlan } from '$lib/server/care/plans';
-import { cancelPlan, sendRenewalReminder, signUp } from '$lib/server/care/subscriptions';
-import {
-	addCrewDays,
-	generateSeason,
-	moveVisit,
-	proposeSchedule,
-	sendDates
-} from '$lib/server/care/season';
+import { cancelPlan, signUp } from '$lib/server/care/subscriptions';
+import { sendRenewalReminder } from '$lib/server/care/renewal';
+import { generateSeason } from '$lib/server/care/season';
+import { addCrewDays } from '$lib/server/care/crew-days';
+import { moveVisit, proposeSchedule } from '$lib/server/care/season-routes';
+import { sendDates } from '$lib/server/care/season-mail';
 import { storeCarePhoto } from '$lib/server/care/photos';
 import {
 	addPart,

@@ -13,7 +13,7 @@ import {
 	priceListItems,
 	siteVisits
 } from '$lib/server/platform/db/schema';
-import { formatCents } from '$lib/components/estimates/money';
+import { formatCents } from '$lib/money';
 import { acceptEstimate, homeownerMessage, openByToken } from '$lib/server/estimates/homeowner';
 import { createEstimate, newVersion, saveEstimate } from '$lib/server/estimates/versions';
 import { getEstimate, type StoredResult } from '$lib/server/estimates/records';

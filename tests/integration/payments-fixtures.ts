@@ -1,9 +1,10 @@
 // Jobs for the payments tests, made with direct inserts (an accepted estimate with a link and
 // its job), so these tests need neither the estimate builder nor the conversion code.
 import { db } from '$lib/server/platform/db';
-import { changeOrders, estimates, jobs, type FrozenEstimate } from '$lib/server/platform/db/schema';
+import { changeOrders, estimates, jobs } from '$lib/server/platform/db/schema';
 import { newId, newToken, sha256 } from '$lib/server/platform/crypto';
 import { makeVisitLead } from './fixtures';
+import { frozenEstimate } from '../support/accepted-job';
 
 export async function makePaymentJob(
 	over: { contractCents?: number; depositCents?: number; taxCents?: number } = {}
@@ -25,25 +26,14 @@ export async function makePaymentJob(
 		tokenHash: sha256(token),
 		expiresAt: new Date(Date.now() + 30 * 86_400_000)
 	});
-	const frozen: FrozenEstimate = {
+	const frozen = frozenEstimate({
 		estimateId,
-		number: 1,
-		revision: 1,
 		scope: 'Drilled granite boulder over a hidden basin',
-		design: {},
-		result: { totals: { taxCents: over.taxCents ?? 61_000 } },
-		choices: { options: [], alternates: {} },
-		acceptance: {
-			typedName: 'Test Homeowner',
-			acceptedAt: new Date().toISOString(),
-			ipAddress: null,
-			userAgent: null,
-			method: 'link',
-			recordedBy: null
-		},
+		typedName: 'Test Homeowner',
 		totalCents: contractCents,
-		depositCents
-	};
+		depositCents,
+		taxCents: over.taxCents ?? 61_000
+	});
 	const [job] = await db
 		.insert(jobs)
 		.values({

@@ -49,14 +49,14 @@ describe('the price-list item form', () => {
 		expect(result.data).toMatchObject({
 			form: 'item',
 			values: typed,
-			fieldErrors: {
+			errors: {
 				name: 'Enter a name',
 				unit: expect.stringMatching(/^Pick one of each, ft/),
 				unit_cost: 'Cost must be dollars and cents, such as 12.50',
 				unit_price: 'Price must not be negative'
 			}
 		});
-		expect((result.data!.fieldErrors as Fields).sku).toBeUndefined();
+		expect((result.data!.errors as Fields).sku).toBeUndefined();
 		const rows = await db.select().from(priceListItems).where(eq(priceListItems.sku, good.sku));
 		expect(rows).toEqual([]);
 	});

@@ -47,7 +47,7 @@ describe('the yard work settings', () => {
 		expect(result.status).toBe(400);
 		expect(result.data).toMatchObject({
 			form: 'yard',
-			fieldErrors: {
+			errors: {
 				'drainage.designRainInPerHr': 'Enter a number',
 				'drainage.cobbleManningN': 'At most 1',
 				'hardscape.baseCompactionFactor': 'At least 1'

@@ -193,10 +193,10 @@ describe('labor rates on the price list page', () => {
 		const fields = { ...(await current()), ...crew, 'dig-hand': '-1', fixture: '' };
 		const refused = (await postRates(owner, fields)) as unknown as {
 			status: number;
-			data: { fieldErrors: Record<string, string> };
+			data: { errors: Record<string, string> };
 		};
 		expect(refused.status).toBe(400);
-		expect(refused.data.fieldErrors).toMatchObject({
+		expect(refused.data.errors).toMatchObject({
 			'dig-hand': 'Must not be negative',
 			fixture: 'Enter a number'
 		});

@@ -1,5 +1,6 @@
 // Form schemas of seasonal care, shared by the office forms and their actions.
 import { z } from 'zod';
+import { centsField } from './money';
 import {
 	FEATURE_KINDS,
 	FEATURE_SIZES,
@@ -35,10 +36,9 @@ export const pinSchema = z.object({
 /** Dollars as typed ("150", "150.00") to cents; empty means "not covered". */
 const dollars = z
 	.string()
-	.trim()
-	.regex(/^(\d{1,6}(\.\d{1,2})?)?$/, 'Dollars and cents, like 150 or 150.00')
 	.optional()
-	.transform((v) => (v ? Math.round(Number(v) * 100) : 0));
+	.transform((v) => v?.trim() || '0')
+	.pipe(centsField('Dollars and cents, like 150 or 150.00', { wholeDigits: 6 }));
 
 export const planSchema = z
 	.object({

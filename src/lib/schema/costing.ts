@@ -4,6 +4,7 @@
 import { z } from 'zod';
 import { isDate } from '$lib/scheduling/zone';
 import { RATE_KEYS } from '$lib/costing/rates';
+import { centsField } from './money';
 
 const isoDay = z
 	.string()
@@ -79,22 +80,7 @@ const quantity = z.coerce
 	.min(0, 'Zero or more')
 	.max(100_000, 'That quantity is too large');
 
-/** Dollars and cents typed ("1,234.50", "$80") → cents; null for an empty field. */
-export function centsFrom(text: string): number | null {
-	const t = text.trim().replace(/[$,\s]/g, '');
-	if (!/^\d{1,7}(\.\d{1,2})?$/.test(t)) return null;
-	const [whole, frac = ''] = t.split('.');
-	return Number(whole) * 100 + Number(frac.padEnd(2, '0'));
-}
-
-const dollars = z.string().transform((v, ctx) => {
-	const c = centsFrom(v);
-	if (c === null) {
-		ctx.addIssue({ code: 'custom', message: 'Enter an amount such as 412.50' });
-		return z.NEVER;
-	}
-	return c;
-});
+const dollars = centsField('Enter an amount such as 412.50');
 
 export const usageSchema = z
 	.object({

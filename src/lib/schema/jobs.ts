@@ -100,9 +100,3 @@ export const careSettingsSchema = z
 		path: ['startupMonth'],
 		message: 'Start-up and shut-down need different months'
 	});
-
-/** Dollars typed in a form ("1,250.50") to cents. */
-export function dollarsToCents(value: string): number {
-	const n = Number(value.replace(/[$,\s]/g, ''));
-	return Number.isFinite(n) ? Math.round(n * 100) : NaN;
-}

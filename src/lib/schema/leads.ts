@@ -2,45 +2,14 @@
 // Shared by the browser (labels, URL building) and the server (validation).
 import { z } from 'zod';
 import { isDate } from '$lib/scheduling/zone';
+import { CLOSE_REASONS, LEAD_STAGES, LEAD_STAGE_LABELS, type LeadStage } from '$lib/stages';
 import { BUDGETS as INTAKE_BUDGETS, SERVICES as INTAKE_SERVICES } from './intake';
 
-export const STAGES = [
-	'new',
-	'contacted',
-	'visit_booked',
-	'estimating',
-	'estimate_sent',
-	'sold',
-	'closed'
-] as const;
-export type Stage = (typeof STAGES)[number];
-
-export const STAGE_LABELS: Record<Stage, string> = {
-	new: 'new',
-	contacted: 'contacted',
-	visit_booked: 'visit booked',
-	estimating: 'estimating',
-	estimate_sent: 'estimate sent',
-	sold: 'sold',
-	closed: 'closed'
-};
-
-export const CLOSE_REASONS = [
-	'not_a_fit',
-	'no_reply',
-	'budget',
-	'timing',
-	'chose_another_firm',
-	'other'
-] as const;
-export const CLOSE_REASON_LABELS: Record<(typeof CLOSE_REASONS)[number], string> = {
-	not_a_fit: 'not a fit',
-	no_reply: 'no reply',
-	budget: 'budget',
-	timing: 'timing',
-	chose_another_firm: 'chose another firm',
-	other: 'other'
-};
+// The list's and the forms' names for the lead vocabulary, which $lib/stages declares.
+export const STAGES = LEAD_STAGES;
+export type Stage = LeadStage;
+export const STAGE_LABELS = LEAD_STAGE_LABELS;
+export { CLOSE_REASONS, CLOSE_REASON_LABELS } from '$lib/stages';
 
 export const PRIORITIES = ['low', 'normal', 'high'] as const;
 

@@ -1,15 +1,14 @@
 // Payments recorded by hand and refunds (shared by the office form and the server).
 import { z } from 'zod';
 import { isDate, latestDateOnEarth } from '$lib/scheduling/zone';
+import { centsField } from './money';
 
 /** "1,250.00" or "1250" → 125000 cents; anything else is refused. */
 export const moneyCents = z
 	.string()
 	.trim()
 	.min(1, 'Enter the amount')
-	.transform((v) => v.replace(/[$,\s]/g, ''))
-	.pipe(z.string().regex(/^\d{1,7}(\.\d{1,2})?$/, 'Enter an amount like 1250.00'))
-	.transform((v) => Math.round(Number(v) * 100))
+	.pipe(centsField('Enter an amount like 1250.00'))
 	.pipe(z.number().int().positive('Enter an amount above zero'));
 
 const isoDay = z

@@ -2,7 +2,7 @@
 // delivery note, and what was received.
 import { z } from 'zod';
 import { isDate } from '$lib/scheduling/zone';
-import { centsFrom } from './costing';
+import { centsField } from './money';
 
 export const supplierSchema = z.object({
 	name: z
@@ -39,12 +39,5 @@ export const receiveLineSchema = z.object({
 		.number({ message: 'Enter the quantity that came' })
 		.min(0, 'Zero or more')
 		.max(100_000, 'That quantity is too large'),
-	cost: z.string().transform((v, ctx) => {
-		const c = centsFrom(v);
-		if (c === null) {
-			ctx.addIssue({ code: 'custom', message: 'Enter the cost such as 412.50' });
-			return z.NEVER;
-		}
-		return c;
-	})
+	cost: centsField('Enter the cost such as 412.50')
 });

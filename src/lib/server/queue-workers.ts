@@ -2,5 +2,6 @@
 import './platform/outbox';
 import './visits/reminders';
 import './care/reminders';
+import './care/renewal';
 import './leads/intake/drafts';
 export { startWorkers, stopQueue } from './platform/queue';

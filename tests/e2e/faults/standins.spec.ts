@@ -6,7 +6,7 @@ import { expect, test, type Page } from '@playwright/test';
 import { yardJpeg } from '../../fixtures/images/make';
 import { allMail, waitForMail } from '../../support/mailbox';
 import { startStandIn, withStandInDown } from '../../support/standins';
-import { seedAcceptedJob } from '../pages/accepted-job';
+import { seedAcceptedJob } from '../../support/accepted-job';
 
 const sql = postgres(process.env.E2E_DATABASE_URL ?? process.env.DATABASE_URL!, {
 	max: 1,

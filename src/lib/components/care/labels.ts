@@ -9,13 +9,3 @@ export const VISIT_STATUS: Record<string, string> = {
 	done: 'Done',
 	cancelled: 'Cancelled'
 };
-
-export function dayLabel(day: string): string {
-	return new Intl.DateTimeFormat('en-US', {
-		weekday: 'short',
-		month: 'short',
-		day: 'numeric',
-		year: 'numeric',
-		timeZone: 'UTC'
-	}).format(new Date(`${day}T12:00:00Z`));
-}

@@ -1,31 +1,14 @@
-// Times and waits as the office reads them, always in the firm's time zone.
-
-// One formatter per time zone and style, made once: building an Intl.DateTimeFormat costs far
-// more than using it, and its native memory is slow to come back (a new one per row of a long
-// list or export took the app's memory from about 130 MB to 2 GB).
-const formatters = new Map<string, Intl.DateTimeFormat>();
-
-function formatter(style: 'when' | 'day', timeZone: string): Intl.DateTimeFormat {
-	const key = `${style} ${timeZone}`;
-	let f = formatters.get(key);
-	if (!f) {
-		f = new Intl.DateTimeFormat(
-			'en-US',
-			style === 'when'
-				? { month: 'short', day: 'numeric', hour: 'numeric', minute: '2-digit', timeZone }
-				: { month: 'short', day: 'numeric', year: 'numeric', timeZone }
-		);
-		formatters.set(key, f);
-	}
-	return f;
-}
+// Times and waits as the office reads them, always in the firm's time zone ($lib/firm-time keeps
+// one formatter per style and zone: a new one per row of a long list or export took the app's
+// memory from about 130 MB to 2 GB).
+import { inZone } from '$lib/firm-time';
 
 export function formatWhen(value: string | Date, timeZone: string): string {
-	return formatter('when', timeZone).format(new Date(value));
+	return inZone(value, timeZone, 'when');
 }
 
 export function formatDay(value: string | Date, timeZone: string): string {
-	return formatter('day', timeZone).format(new Date(value));
+	return inZone(value, timeZone, 'day');
 }
 
 /** A duration in words: "45 min", "5 h 10 min", "3 d 4 h". */

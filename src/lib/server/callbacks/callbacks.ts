@@ -25,7 +25,7 @@ import { JobError } from '../jobs/errors';
 import { jobRef } from '../jobs/labels';
 import { type Tx } from '../platform/db';
 import { checkPhotoSize, processPhoto, type ProcessedPhoto } from '../platform/images';
-import { discardStored, storePhoto, type StoredPhoto } from '../leads/intake/drafts';
+import { discardStored, storePhoto, type StoredPhoto } from '../photos/store';
 import { dispatchMail, writeMail } from '../platform/outbox';
 import { htmlBody } from '../platform/mail';
 import { firmSettings, firmToday } from '../platform/settings';
@@ -107,7 +107,7 @@ export async function reportProblem(token: string, description: string, files: F
 	}
 	const stored: StoredPhoto[] = [];
 	try {
-		for (const p of processed) stored.push(await storePhoto(p));
+		for (const p of processed) stored.push(await storePhoto(p, 'intake'));
 	} catch (error) {
 		await discardStored(stored);
 		throw error;

@@ -3,7 +3,7 @@
 // first, the same words in HTML (no remote images).
 import { htmlBody } from '../platform/mail';
 import type { Settings } from '../platform/db/schema';
-import { formatCents } from '../payments/ledger';
+import { calendarDay } from '$lib/firm-time';
 
 export interface Built {
 	subject: string;
@@ -33,14 +33,5 @@ export function build(
 	};
 }
 
-export const money = (cents: number) => formatCents(cents);
-
-export function dayText(day: string, timeZone = 'UTC'): string {
-	return new Intl.DateTimeFormat('en-US', {
-		weekday: 'long',
-		month: 'long',
-		day: 'numeric',
-		year: 'numeric',
-		timeZone
-	}).format(new Date(`${day}T12:00:00Z`));
-}
+/** A care day in a mail: "Friday, May 14, 2027". */
+export const dayText = (day: string) => calendarDay(day, 'dayLong');

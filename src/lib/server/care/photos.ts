@@ -8,7 +8,8 @@ import { featurePhotos, photos, serviceVisitPhotos } from '../platform/db/schema
 import { newId } from '../platform/crypto';
 import { processPhoto } from '../platform/images';
 import { photoLinks } from '../photos/links';
-import { getObject, putObject, randomKey } from '../platform/storage';
+import { recordingStored, storePhoto } from '../photos/store';
+import { getObject } from '../platform/storage';
 
 /** Processes and stores one photo; throws PhotoError or StorageUnavailableError. */
 export async function storeCarePhoto(
@@ -16,32 +17,26 @@ export async function storeCarePhoto(
 	file: File,
 	uploadedBy: string
 ): Promise<string> {
-	const photo = await processPhoto(file.name, new Uint8Array(await file.arrayBuffer()));
-	const displayKey = randomKey('care', 'display.webp');
-	const thumbKey = randomKey('care', 'thumb.webp');
-	await putObject(displayKey, photo.display, photo.contentType);
-	await putObject(thumbKey, photo.thumb, photo.contentType);
+	const processed = await processPhoto(file.name, new Uint8Array(await file.arrayBuffer()));
+	const stored = await storePhoto(processed, 'care');
 	const id = newId();
-	await db.transaction(async (tx) => {
-		await tx.insert(photos).values({
-			id,
-			context: 'featureId' in to ? 'feature' : 'service',
-			displayKey,
-			thumbKey,
-			width: photo.width,
-			height: photo.height,
-			bytes: photo.bytes,
-			originalName: photo.originalName,
-			uploadedBy
-		});
-		if ('featureId' in to) {
-			await tx.insert(featurePhotos).values({ featureId: to.featureId, photoId: id });
-		} else {
-			await tx
-				.insert(serviceVisitPhotos)
-				.values({ serviceVisitId: to.serviceVisitId, photoId: id });
-		}
-	});
+	await recordingStored([stored], () =>
+		db.transaction(async (tx) => {
+			await tx.insert(photos).values({
+				id,
+				context: 'featureId' in to ? 'feature' : 'service',
+				...stored,
+				uploadedBy
+			});
+			if ('featureId' in to) {
+				await tx.insert(featurePhotos).values({ featureId: to.featureId, photoId: id });
+			} else {
+				await tx
+					.insert(serviceVisitPhotos)
+					.values({ serviceVisitId: to.serviceVisitId, photoId: id });
+			}
+		})
+	);
 	return id;
 }
 

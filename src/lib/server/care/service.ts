@@ -25,8 +25,9 @@ import { VISIT_LABELS, type VisitKind } from '$lib/care/kinds';
 import { CareError } from './db';
 import { addressOf } from './features';
 import { careLink, newCareLink } from './links';
-import { build, dayText, money } from './mail';
+import { build, dayText } from './mail';
 import { serviceVisitPhotoAttachments } from './photos';
+import { formatCents } from '$lib/money';
 
 /** The visit, if this person may work on it: crew only on their own days. */
 export async function serviceVisitFor(user: SessionUser, id: string): Promise<ServiceVisit> {
@@ -145,7 +146,7 @@ export async function visitInvoice(visitId: string) {
 			amountCents: v.billedPerVisit ? v.priceCents : 0
 		},
 		...parts.map((p) => ({
-			description: `${p.name}: ${p.quantity} ${p.unit} at ${money(p.unitPriceCents)}`,
+			description: `${p.name}: ${p.quantity} ${p.unit} at ${formatCents(p.unitPriceCents)}`,
 			amountCents: Math.round(p.quantity * p.unitPriceCents)
 		}))
 	];
@@ -200,7 +201,7 @@ export async function completeServiceVisit(user: SessionUser, id: string): Promi
 					? `${attachments.length} photo${attachments.length === 1 ? ' is' : 's are'} attached.`
 					: '',
 				invoice.totalCents > 0
-					? `Invoice for this visit: ${money(invoice.totalCents)} (${invoice.lines
+					? `Invoice for this visit: ${formatCents(invoice.totalCents)} (${invoice.lines
 							.filter((l) => l.amountCents > 0)
 							.map((l) => l.description)
 							.join('; ')}). You can pay by card from the link below.`
@@ -209,7 +210,7 @@ export async function completeServiceVisit(user: SessionUser, id: string): Promi
 			{
 				label:
 					invoice.totalCents > 0
-						? `Pay ${money(invoice.totalCents)} and see the report`
+						? `Pay ${formatCents(invoice.totalCents)} and see the report`
 						: 'See the report',
 				url: `${origin()}/care/visit/${token}`
 			}

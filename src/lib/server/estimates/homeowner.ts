@@ -14,7 +14,8 @@ import {
 } from '../platform/db/schema';
 import { newId, sha256 } from '../platform/crypto';
 import { dispatchMail, writeMail } from '../platform/outbox';
-import { acceptedMails, formatTotal, homeownerMessageMail } from './mail';
+import { acceptedMails, homeownerMessageMail } from './mail';
+import { formatCents } from '$lib/money';
 import { convertAcceptedEstimate } from '../jobs/conversion';
 import type { StoredResult } from './records';
 import { mailContext } from './sending';
@@ -128,7 +129,7 @@ export async function acceptEstimate(
 		await tx.insert(activities).values({
 			leadId: row.leadId,
 			kind: 'estimate.accepted',
-			body: `${input.fullName} accepted estimate v${row.number}: ${formatTotal(totals.totalCents)}, deposit ${formatTotal(totals.depositCents)}`,
+			body: `${input.fullName} accepted estimate v${row.number}: ${formatCents(totals.totalCents)}, deposit ${formatCents(totals.depositCents)}`,
 			data: { estimateId: row.id, number: row.number, totalCents: totals.totalCents, choices }
 		});
 		await onEstimateAccepted(row.id, tx);

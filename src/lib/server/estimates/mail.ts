@@ -1,6 +1,7 @@
 // The e-mails an estimate sends. Every money figure comes from the stored totals through
 // formatCents, the same function the pages use, so the mail agrees with the page to the cent.
-import { formatCents } from '$lib/components/estimates/money';
+import { inZone } from '$lib/firm-time';
+import { formatCents } from '$lib/money';
 import { origin } from '../platform/env';
 import { escapeHtml, htmlBody } from '../platform/mail';
 import type { OutgoingMail } from '../platform/outbox';
@@ -14,9 +15,6 @@ import type {
 } from '../platform/db/schema';
 import type { StoredResult } from './records';
 
-export const formatTotal = (cents: number) =>
-	`$${(cents / 100).toLocaleString('en-US', { minimumFractionDigits: 2, maximumFractionDigits: 2 })}`;
-
 export interface MailContext {
 	firm: Settings;
 	lead: Lead;
@@ -24,9 +22,6 @@ export interface MailContext {
 	salesperson: User | null;
 	owners: User[];
 }
-
-const dateIn = (d: Date, timeZone: string) =>
-	new Intl.DateTimeFormat('en-US', { dateStyle: 'long', timeZone }).format(d);
 
 export function estimateUrl(token: string) {
 	return `${origin()}/estimate/${token}`;
@@ -44,7 +39,7 @@ export function sentMail(
 		`Hello ${first},`,
 		`Your estimate from ${ctx.firm.firmName} is ready (R-${ctx.lead.number}, version ${row.number}). As designed, it comes to ${formatCents(row.totalCents)}, with a deposit of ${formatCents(row.depositCents)} to book the install.`,
 		'On the estimate page you can choose the options you want, see the total change, and accept it, decline it or ask us a question.',
-		`The link is private to you and works until ${dateIn(row.expiresAt, ctx.firm.timeZone)}.`,
+		`The link is private to you and works until ${inZone(row.expiresAt, ctx.firm.timeZone, 'date')}.`,
 		ctx.salesperson ? `${ctx.salesperson.name}, ${ctx.firm.firmName}` : ctx.firm.firmName
 	];
 	return {
@@ -84,11 +79,7 @@ export function acceptedMails(
 	stored: StoredResult
 ): OutgoingMail[] {
 	const ref = `R-${ctx.lead.number} v${row.number}`;
-	const when = new Intl.DateTimeFormat('en-US', {
-		dateStyle: 'long',
-		timeStyle: 'short',
-		timeZone: ctx.firm.timeZone
-	}).format(acceptance.acceptedAt);
+	const when = inZone(acceptance.acceptedAt, ctx.firm.timeZone, 'dateTime');
 	const summary = [
 		`Total: ${formatCents(acceptance.totalCents)}`,
 		`Deposit: ${formatCents(acceptance.depositCents)}`,

@@ -5,7 +5,8 @@ import { activities, estimates, leads, users, type Estimate } from '../platform/
 import { newToken, sha256 } from '../platform/crypto';
 import { dispatchMail, writeMail } from '../platform/outbox';
 import { estimatingConfig } from '../pricelist/catalog';
-import { formatTotal, sentMail, type MailContext } from './mail';
+import { sentMail, type MailContext } from './mail';
+import { formatCents } from '$lib/money';
 import { firmSettings } from '../platform/settings';
 import type { SessionUser } from '../auth/sessions';
 import { DAY_MS, leadWithContact, getEstimate } from './records';
@@ -75,7 +76,7 @@ export async function sendEstimate(id: string, user: SessionUser): Promise<SendO
 			leadId: row.leadId,
 			kind: renewing ? 'estimate.renewed' : 'estimate.sent',
 			actorId: user.id,
-			body: `${renewing ? 'Sent a fresh link for' : 'Sent'} estimate v${row.number} to ${ctx.contact.email} (${formatTotal(locked.totalCents)})`,
+			body: `${renewing ? 'Sent a fresh link for' : 'Sent'} estimate v${row.number} to ${ctx.contact.email} (${formatCents(locked.totalCents)})`,
 			data: { estimateId: id, number: row.number, totalCents: locked.totalCents }
 		});
 		return writeMail(sentMail(ctx, { ...locked, expiresAt }, token, tokenHash), tx);

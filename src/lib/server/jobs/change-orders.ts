@@ -24,6 +24,7 @@ import { roundCents } from '$lib/estimating/pricing';
 import type { SessionUser } from '../auth/sessions';
 import type { z } from 'zod';
 import type { changeOrderSchema } from '$lib/schema/jobs';
+import { formatCents } from '$lib/money';
 
 const LINK_DAYS = 30;
 /** Categories that are work rather than material: they change the total, not the load list. */
@@ -80,7 +81,7 @@ export async function createChangeOrder(
 			tx,
 			job.leadId,
 			'change_order.created',
-			`${jobRef(job.number)} CO-${next} drafted: ${input.title} (${(totalCents / 100).toFixed(2)})`,
+			`${jobRef(job.number)} CO-${next} drafted: ${input.title} (${formatCents(totalCents)})`,
 			actor.id,
 			{ jobId, changeOrderId: id }
 		);
@@ -251,7 +252,7 @@ export async function decideChangeOrder(
 			tx,
 			job.leadId,
 			`change_order.${status}`,
-			`${jobRef(job.number)} CO-${co.number} ${status} by ${input.typedName} (${(co.totalCents / 100).toFixed(2)})`,
+			`${jobRef(job.number)} CO-${co.number} ${status} by ${input.typedName} (${formatCents(co.totalCents)})`,
 			null,
 			{ jobId: job.id, changeOrderId: co.id, ipAddress: meta.ipAddress }
 		);

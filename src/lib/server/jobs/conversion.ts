@@ -17,6 +17,7 @@ import { JobError } from './errors';
 import { jobRef } from './labels';
 import { crewNeededFrom, isWaterFeature, materialsFromResult } from './materials';
 import { addActivity } from '../leads/timeline';
+import { formatCents } from '$lib/money';
 
 /** The design's own name (the builder starts it as "<homeowner> — water feature"), else the services and the lead number. */
 function jobTitle(design: unknown, lead: { services: string[] | null; number: number }): string {
@@ -122,7 +123,7 @@ async function convertIn(tx: Tx, estimateId: string, options: ConversionOptions)
 		tx,
 		lead.id,
 		'job.created',
-		`Sold: estimate v${estimate.number} became job ${jobRef(inserted[0].number)} (${materials.length} material lines, deposit due ${(acceptance.depositCents / 100).toFixed(2)}).`,
+		`Sold: estimate v${estimate.number} became job ${jobRef(inserted[0].number)} (${materials.length} material lines, deposit due ${formatCents(acceptance.depositCents)}).`,
 		options.actorId ?? null,
 		{ jobId: id, estimateId, method: frozen.acceptance.method }
 	);

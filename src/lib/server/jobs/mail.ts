@@ -2,13 +2,7 @@
 // testimonial request and the seasonal care reminders. Plain text first, the same words in HTML.
 import { htmlBody } from '../platform/mail';
 import type { Settings } from '../platform/db/schema';
-
-export const money = (cents: number) =>
-	(cents < 0 ? '−$' : '$') +
-	(Math.abs(cents) / 100).toLocaleString('en-US', {
-		minimumFractionDigits: 2,
-		maximumFractionDigits: 2
-	});
+import { formatCents } from '$lib/money';
 
 function signOff(firm: Settings): string {
 	return `${firm.firmName} · ${firm.phone} · ${firm.email}`;
@@ -52,7 +46,7 @@ export function changeOrderMail(input: {
 	url: string;
 }): Built {
 	const lines = input.lines.map(
-		(l) => `• ${l.description}: ${l.quantity} ${l.unit}, ${money(l.extendedCents)}`
+		(l) => `• ${l.description}: ${l.quantity} ${l.unit}, ${formatCents(l.extendedCents)}`
 	);
 	return build(
 		`Change order CO-${input.number} for your project: ${input.title}`,
@@ -60,7 +54,7 @@ export function changeOrderMail(input: {
 			`Hello ${input.name},`,
 			`We have written up a change to "${input.jobTitle}": ${input.title}.`,
 			...lines,
-			`This change ${input.totalCents >= 0 ? 'adds' : 'takes'} ${money(Math.abs(input.totalCents))} ${input.totalCents >= 0 ? 'to' : 'off'} the job's total. Nothing changes until you approve it through the private link below; you can also decline it there.`
+			`This change ${input.totalCents >= 0 ? 'adds' : 'takes'} ${formatCents(Math.abs(input.totalCents))} ${input.totalCents >= 0 ? 'to' : 'off'} the job's total. Nothing changes until you approve it through the private link below; you can also decline it there.`
 		],
 		input.firm,
 		{ label: 'Review the change order', url: input.url }
@@ -81,7 +75,7 @@ export function changeOrderDecisionMail(input: {
 	return build(
 		`${input.jobRef} CO-${input.number} ${input.decision} by the homeowner`,
 		[
-			`${input.typedName} ${input.decision} change order CO-${input.number} (${input.title}) for ${money(input.totalCents)}.`,
+			`${input.typedName} ${input.decision} change order CO-${input.number} (${input.title}) for ${formatCents(input.totalCents)}.`,
 			...(input.reason ? [`Their reason: ${input.reason}`] : [])
 		],
 		input.firm,

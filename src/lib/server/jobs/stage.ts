@@ -6,7 +6,8 @@ import { recordFeaturesOfJob } from '../care/features';
 import { scheduleCareAfterCompletion } from '../care/reminders';
 import { requestTestimonial } from './testimonials';
 import { JobError } from './errors';
-import { STAGE_LABELS, jobRef } from './labels';
+import { JOB_STAGE_LABELS } from '$lib/stages';
+import { jobRef } from './labels';
 import { addActivity } from '../leads/timeline';
 import { jobFor } from './read';
 import { jobBalance } from '../payments/balance';
@@ -29,7 +30,7 @@ export async function setStage(user: SessionUser, jobId: string, to: JobStage): 
 		if (!NEXT[job.stage]?.includes(to)) {
 			throw new JobError(
 				'bad_stage',
-				`A job that is ${STAGE_LABELS[job.stage].toLowerCase()} cannot move to ${STAGE_LABELS[to].toLowerCase()}.`
+				`A job that is ${JOB_STAGE_LABELS[job.stage].toLowerCase()} cannot move to ${JOB_STAGE_LABELS[to].toLowerCase()}.`
 			);
 		}
 		const set: Partial<Job> = { stage: to };
@@ -59,7 +60,7 @@ export async function setStage(user: SessionUser, jobId: string, to: JobStage): 
 			tx,
 			job.leadId,
 			'job.stage',
-			`Job ${jobRef(job.number)}: ${STAGE_LABELS[job.stage]} → ${STAGE_LABELS[to]}`,
+			`Job ${jobRef(job.number)}: ${JOB_STAGE_LABELS[job.stage]} → ${JOB_STAGE_LABELS[to]}`,
 			user.id,
 			{ jobId, from: job.stage, to }
 		);

@@ -13,7 +13,7 @@ import {
 	type ListContext,
 	type RunStatement
 } from './list-sql';
-import { formatWhen } from '$lib/components/leads/format';
+import { inZone } from '$lib/firm-time';
 import { client, db, type Tx } from '../platform/db';
 import {
 	activities,
@@ -114,7 +114,10 @@ export class LeadConflictError extends DomainError<'stale'> {
 		readonly at: Date,
 		timeZone: string
 	) {
-		super('stale', `Changed by ${by} at ${formatWhen(at, timeZone)}: reload to see their change.`);
+		super(
+			'stale',
+			`Changed by ${by} at ${inZone(at, timeZone, 'when')}: reload to see their change.`
+		);
 	}
 }
 

@@ -17,17 +17,10 @@ import { origin } from '../platform/env';
 import { jobRef } from '../jobs/labels';
 import { writeMail } from '../platform/outbox';
 import { createCheckout, paymentsClient } from './provider';
-import {
-	CURRENCY,
-	dispatchAll,
-	formatCents,
-	insertPayment,
-	jobMoney,
-	lockJob,
-	PaymentError
-} from './ledger';
+import { CURRENCY, dispatchAll, insertPayment, jobMoney, lockJob, PaymentError } from './ledger';
 import { officeAlertMail, payLinkMail } from './mail';
 import { ensureInvoice } from './invoices';
+import { formatCents } from '$lib/money';
 
 /** A new private link for the homeowner (every link given out keeps working). */
 export async function newPayLink(jobId: string, tx: Tx | typeof db = db): Promise<string> {
@@ -211,8 +204,8 @@ export async function fulfilInTx(
 	// owed (say, a cheque arrived meanwhile) leaves a credit and tells the office to refund it.
 	if (request.amountCents > before.balanceCents) {
 		const extra = await alert('paid more than the balance', [
-			`Job ${jobRef(job.number)}: ${formatCents(request.amountCents)} was paid online while ${formatCents(Math.max(0, before.balanceCents))} was owed.`,
-			`Credit owed to the homeowner: ${formatCents(result.after.creditCents)}. Record the refund under Payments.`
+			`Job ${jobRef(job.number)}: ${formatCents(request.amountCents, CURRENCY)} was paid online while ${formatCents(Math.max(0, before.balanceCents), CURRENCY)} was owed.`,
+			`Credit owed to the homeowner: ${formatCents(result.after.creditCents, CURRENCY)}. Record the refund under Payments.`
 		]);
 		return { outcome: 'recorded_over_balance', mails: [...result.mails, ...extra] };
 	}

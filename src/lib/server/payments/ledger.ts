@@ -21,6 +21,7 @@ import { jobRef } from '../jobs/labels';
 import { writeMail, dispatchMail } from '../platform/outbox';
 import { receiptMail } from './mail';
 import type { SessionUser } from '../auth/sessions';
+import { formatCents } from '$lib/money';
 
 export const CURRENCY = (process.env.PAYMENTS_CURRENCY ?? 'usd').toLowerCase();
 /** Days after acceptance (deposit) or completion (balance) before a payment counts as overdue. */
@@ -63,11 +64,6 @@ export async function lockJob(tx: Tx, jobId: string): Promise<Job> {
 	if (!job) throw new PaymentError('not_found', 'There is no such job.');
 	return job;
 }
-
-export const formatCents = (cents: number, currency = CURRENCY) =>
-	new Intl.NumberFormat('en-US', { style: 'currency', currency: currency.toUpperCase() }).format(
-		cents / 100
-	);
 
 export interface NewPayment {
 	kind: PaymentKind;
@@ -115,8 +111,8 @@ export async function insertPayment(tx: Tx, job: Job, p: NewPayment) {
 		job.leadId,
 		p.amountCents < 0 ? 'payment.refund' : 'payment.received',
 		p.amountCents < 0
-			? `Refund of ${formatCents(-p.amountCents)} on ${jobRef(job.number)} (${how}): ${p.reason}`
-			: `${formatCents(p.amountCents)} received on ${jobRef(job.number)} (${p.kind}, ${how}${p.reference ? ` ${p.reference}` : ''}); balance ${formatCents(after.balanceCents)}`,
+			? `Refund of ${formatCents(-p.amountCents, CURRENCY)} on ${jobRef(job.number)} (${how}): ${p.reason}`
+			: `${formatCents(p.amountCents, CURRENCY)} received on ${jobRef(job.number)} (${p.kind}, ${how}${p.reference ? ` ${p.reference}` : ''}); balance ${formatCents(after.balanceCents, CURRENCY)}`,
 		p.recordedBy ?? null,
 		{ jobId: job.id, paymentId: id, amountCents: p.amountCents }
 	);
@@ -188,7 +184,7 @@ export async function recordHandPayment(jobId: string, input: HandPayment, actor
 			throw new PaymentError(
 				'over_balance',
 				money.balanceCents > 0
-					? `That is more than the ${formatCents(money.balanceCents)} still owed on ${jobRef(job.number)}.`
+					? `That is more than the ${formatCents(money.balanceCents, CURRENCY)} still owed on ${jobRef(job.number)}.`
 					: `Nothing is owed on ${jobRef(job.number)}.`
 			);
 		}
@@ -221,7 +217,7 @@ export async function recordRefund(jobId: string, input: Refund, actor: SessionU
 		if (input.amountCents > paid) {
 			throw new PaymentError(
 				'over_refund',
-				`Only ${formatCents(paid)} has been received on ${jobRef(job.number)}; a refund cannot be larger.`
+				`Only ${formatCents(paid, CURRENCY)} has been received on ${jobRef(job.number)}; a refund cannot be larger.`
 			);
 		}
 		const result = await insertPayment(tx, job, {

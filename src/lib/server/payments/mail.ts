@@ -8,6 +8,7 @@ import { settings } from '../platform/db/schema';
 import { origin } from '../platform/env';
 import { jobRef } from '../jobs/labels';
 import type { Job, PaymentMethod, Settings } from '../platform/db/schema';
+import { formatCents } from '$lib/money';
 
 type Db = Pick<typeof db, 'select'>;
 
@@ -18,8 +19,6 @@ export async function firmOn(tx: Db): Promise<Settings> {
 	return row;
 }
 
-const money = (cents: number) =>
-	new Intl.NumberFormat('en-US', { style: 'currency', currency: 'USD' }).format(cents / 100);
 const METHOD: Record<PaymentMethod, string> = {
 	card: 'card',
 	cheque: 'cheque',
@@ -45,25 +44,25 @@ export async function receiptMail(
 	const lines = refund
 		? [
 				`Hello ${r.name},`,
-				`We have refunded ${money(-r.amountCents)} by ${METHOD[r.method]} on job ${jobRef(r.job.number)} (${r.job.title}).`,
+				`We have refunded ${formatCents(-r.amountCents)} by ${METHOD[r.method]} on job ${jobRef(r.job.number)} (${r.job.title}).`,
 				`Reason: ${r.reason ?? ''}`,
-				`Balance now: ${money(r.balanceCents)}.`
+				`Balance now: ${formatCents(r.balanceCents)}.`
 			]
 		: [
 				`Hello ${r.name},`,
-				`Thank you: we received ${money(r.amountCents)} by ${METHOD[r.method]}${r.reference ? ` (reference ${r.reference})` : ''} for job ${jobRef(r.job.number)} (${r.job.title}).`,
+				`Thank you: we received ${formatCents(r.amountCents)} by ${METHOD[r.method]}${r.reference ? ` (reference ${r.reference})` : ''} for job ${jobRef(r.job.number)} (${r.job.title}).`,
 				r.balanceCents > 0
-					? `Balance still to pay: ${money(r.balanceCents)}.`
+					? `Balance still to pay: ${formatCents(r.balanceCents)}.`
 					: r.balanceCents < 0
-						? `You have paid ${money(-r.balanceCents)} more than the job's total; we will refund it.`
+						? `You have paid ${formatCents(-r.balanceCents)} more than the job's total; we will refund it.`
 						: 'The job is paid in full.'
 			];
 	const footer = `${firm.firmName} · ${firm.phone} · ${firm.email}`;
 	return {
 		to: r.to,
 		subject: refund
-			? `Refund of ${money(-r.amountCents)} · ${firm.firmName}`
-			: `Receipt: ${money(r.amountCents)} received · ${firm.firmName}`,
+			? `Refund of ${formatCents(-r.amountCents)} · ${firm.firmName}`
+			: `Receipt: ${formatCents(r.amountCents)} received · ${firm.firmName}`,
 		text: [...lines, '', footer].join('\n'),
 		html: htmlBody(lines, undefined, footer)
 	};
@@ -83,7 +82,7 @@ export async function payLinkMail(
 	const url = `${origin()}/pay/${r.token}`;
 	const lines = [
 		`Hello ${r.name},`,
-		`Your payment page for job ${jobRef(r.job.number)} (${r.job.title}) shows what is due (${money(r.dueCents)}), your invoices and the payments received.`
+		`Your payment page for job ${jobRef(r.job.number)} (${r.job.title}) shows what is due (${formatCents(r.dueCents)}), your invoices and the payments received.`
 	];
 	return {
 		to: r.to,

@@ -9,7 +9,7 @@ import { paymentEvents } from '../platform/db/schema';
 import { verifyWebhook } from './provider';
 import { expireInTx, fulfilInTx } from './checkout';
 import { dispatchAll } from './ledger';
-import { fulfilCareInTx } from '../care/subscriptions';
+import { fulfilCareInTx } from '../care/plan-checkout';
 
 export interface WebhookAnswer {
 	status: number;

@@ -3,7 +3,7 @@
 import { and, asc, eq } from 'drizzle-orm';
 import { db } from '../platform/db';
 import { photos } from '../platform/db/schema';
-import { signedUrl } from '../platform/storage';
+import { galleryLinks } from './links';
 
 /** Ten minutes: enough to read the page; the page is never cached, so a reload signs fresh ones. */
 export const HOMEOWNER_PHOTO_SECONDS = 600;
@@ -24,13 +24,14 @@ export async function yardPhotos(leadId: string): Promise<YardPhoto[]> {
 		.where(and(eq(photos.leadId, leadId), eq(photos.context, 'intake')))
 		.orderBy(asc(photos.createdAt))
 		.limit(MOST);
-	return Promise.all(
-		rows.map(async (p) => ({
-			id: p.id,
-			width: p.width,
-			height: p.height,
-			thumbUrl: await signedUrl(p.thumbKey, HOMEOWNER_PHOTO_SECONDS),
-			fullUrl: await signedUrl(p.displayKey, HOMEOWNER_PHOTO_SECONDS)
-		}))
+	return galleryLinks(
+		rows.map(({ id, width, height, thumbKey, displayKey }) => ({
+			id,
+			width,
+			height,
+			thumbKey,
+			displayKey
+		})),
+		HOMEOWNER_PHOTO_SECONDS
 	);
 }

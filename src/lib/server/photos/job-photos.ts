@@ -1,22 +1,25 @@
+// Photos of a construction job, taken by the crew or the office: processed and stored as every
+// photo is (store.ts), then recorded on the job.
 import { db } from '../platform/db';
 import { photos } from '../platform/db/schema';
 import { newId } from '../platform/crypto';
+import { processPhoto } from '../platform/images';
 import type { SessionUser } from '../auth/sessions';
 import { jobFor } from '../jobs/read';
+import { recordingStored, storePhoto } from './store';
 
-export async function attachJobPhoto(
-	user: SessionUser,
-	jobId: string,
-	photo: { displayKey: string; thumbKey: string; width: number; height: number; bytes: number },
-	originalName: string
-): Promise<void> {
+/** Adds a photo to a job the user may open; throws PhotoError or StorageUnavailableError. */
+export async function addJobPhoto(user: SessionUser, jobId: string, file: File): Promise<void> {
 	const job = await jobFor(user, jobId);
-	await db.insert(photos).values({
-		id: newId(),
-		jobId: job.id,
-		context: 'job',
-		...photo,
-		originalName,
-		uploadedBy: user.id
-	});
+	const processed = await processPhoto(file.name, new Uint8Array(await file.arrayBuffer()));
+	const stored = await storePhoto(processed, 'jobs');
+	await recordingStored([stored], () =>
+		db.insert(photos).values({
+			id: newId(),
+			jobId: job.id,
+			context: 'job',
+			...stored,
+			uploadedBy: user.id
+		})
+	);
 }

@@ -6,14 +6,9 @@ import { db } from '../platform/db';
 import { photos, siteVisits } from '../platform/db/schema';
 import { newId } from '../platform/crypto';
 import { processPhoto } from '../platform/images';
-import { photoLinks } from './links';
-import {
-	deleteObjects,
-	putObject,
-	randomKey,
-	signedUrl,
-	StorageUnavailableError
-} from '../platform/storage';
+import { photoLinks, signPhotos } from './links';
+import { recordingStored, storePhoto } from './store';
+import { deleteObjects, StorageUnavailableError } from '../platform/storage';
 
 export type VisitPhoto = typeof photos.$inferSelect;
 
@@ -33,27 +28,20 @@ export async function storeVisitPhoto(
 		.from(siteVisits)
 		.where(eq(siteVisits.id, visitId));
 	if (!visit) return null;
-	const photo = await processPhoto(fileName, bytes);
-	const displayKey = randomKey('visits', 'display.webp');
-	const thumbKey = randomKey('visits', 'thumb.webp');
-	await putObject(displayKey, photo.display, photo.contentType);
-	await putObject(thumbKey, photo.thumb, photo.contentType);
-	const [row] = await db
-		.insert(photos)
-		.values({
-			id: newId(),
-			leadId: visit.leadId,
-			visitId: visit.id,
-			context: 'visit',
-			displayKey,
-			thumbKey,
-			width: photo.width,
-			height: photo.height,
-			bytes: photo.bytes,
-			originalName: photo.originalName,
-			uploadedBy
-		})
-		.returning();
+	const stored = await storePhoto(await processPhoto(fileName, bytes), 'visits');
+	const [row] = await recordingStored([stored], () =>
+		db
+			.insert(photos)
+			.values({
+				id: newId(),
+				leadId: visit.leadId,
+				visitId: visit.id,
+				context: 'visit',
+				...stored,
+				uploadedBy
+			})
+			.returning()
+	);
 	return row;
 }
 
@@ -137,14 +125,15 @@ export async function agendaThumbs(
 		if (mine.length === 0) continue;
 		byVisit.set(
 			visit.id,
-			await Promise.all(
-				mine.map(async (p) => ({
+			await signPhotos(
+				mine.map((p) => ({
 					id: p.id,
 					kind: p.context === 'visit' ? ('visit' as const) : ('intake' as const),
 					name: p.originalName,
-					thumbUrl: await signedUrl(p.thumbKey, AGENDA_LINK_SECONDS),
-					displayUrl: await signedUrl(p.displayKey, AGENDA_LINK_SECONDS)
-				}))
+					thumbKey: p.thumbKey,
+					displayKey: p.displayKey
+				})),
+				AGENDA_LINK_SECONDS
 			)
 		);
 	}

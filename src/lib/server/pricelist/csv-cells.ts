@@ -1,7 +1,7 @@
 // The cells of the price-list CSV files: RFC 4180 reading, writing with formulas neutralised
 // ($lib/csv), and the zod cell checks the pump and labor rows share, each message naming its column.
 import { z } from 'zod';
-import { parseDollars } from '$lib/components/estimates/money';
+import { parseCents } from '$lib/money';
 import { csvLine } from '$lib/csv';
 
 export function parseCsv(text: string): string[][] {
@@ -65,12 +65,15 @@ export const nameCell = z
 	.min(1, 'name is empty')
 	.max(120, 'name is over 120 characters');
 
+/** A price-list cell's amount may run to nine whole digits (a catalog is not a job total). */
+export const PRICE_DIGITS = { wholeDigits: 9 };
+
 export const dollarsCell = (column: string, example: string) =>
 	z
 		.string()
 		.trim()
 		.transform((text, ctx) => {
-			const cents = parseDollars(text);
+			const cents = parseCents(text, PRICE_DIGITS);
 			if (cents !== null) return cents;
 			ctx.addIssue({
 				code: 'custom',

@@ -3,7 +3,7 @@
 import { z } from 'zod';
 import { settingsSchema } from '$lib/estimating/schema';
 import { LABOR_RATES, type LaborRateKey } from '$lib/estimating/labor-rates';
-import { centsToDollarText, formatCents } from '$lib/components/estimates/money';
+import { centsToDollarText, formatCents } from '$lib/money';
 import { dollarsCell, emptyCell, idCell, issues, nameCell, toCsv, type RowBase } from './csv-cells';
 
 export const LABOR_COLUMNS = [

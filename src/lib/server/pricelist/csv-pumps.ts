@@ -1,7 +1,7 @@
 // Pump models in CSV: one pump a row; its curve in one cell, "flow:head" points in US gallons
 // per hour and feet of head separated by ";", flow rising and head never rising.
 import { z } from 'zod';
-import { centsToDollarText, formatCents } from '$lib/components/estimates/money';
+import { centsToDollarText, formatCents } from '$lib/money';
 import { dollarsCell, idCell, issues, nameCell, toCsv, type RowBase } from './csv-cells';
 
 export const PUMP_COLUMNS = ['pump_id', 'name', 'watts', 'price', 'cost', 'curve_gph_ft'] as const;

@@ -9,8 +9,8 @@
 import { z } from 'zod';
 import { catalogSchema, ITEM_UNITS } from '$lib/estimating/schema';
 import { CATEGORIES } from '$lib/estimating/categories';
-import { centsToDollarText, formatCents, parseDollars } from '$lib/components/estimates/money';
-import { parseCsv, toCsv, unneutralise, type RowBase } from './csv-cells';
+import { centsToDollarText, formatCents, parseCents } from '$lib/money';
+import { parseCsv, PRICE_DIGITS, toCsv, unneutralise, type RowBase } from './csv-cells';
 import { PUMP_COLUMNS, rowToPump, type PumpRowResult } from './csv-pumps';
 import { LABOR_COLUMNS, rowToLabor, type LaborRowResult } from './csv-labor';
 
@@ -100,8 +100,8 @@ export function rowToItem(cells: Record<string, string>, line: number): RowResul
 	if (!(ITEM_UNITS as readonly string[]).includes(get('unit'))) {
 		errors.push(`unit “${get('unit')}” is not one of ${ITEM_UNITS.join(', ')}`);
 	}
-	const cost = parseDollars(get('unit_cost'));
-	const price = parseDollars(get('unit_price'));
+	const cost = parseCents(get('unit_cost'), PRICE_DIGITS);
+	const price = parseCents(get('unit_price'), PRICE_DIGITS);
 	const money = (col: string, example: string) =>
 		get(col).startsWith('-')
 			? `${col} must not be negative`

@@ -26,9 +26,9 @@ import { jobRef } from '../jobs/labels';
 import { firmSettings } from '../platform/settings';
 import { dispatchMail, writeMail } from '../platform/outbox';
 import { htmlBody } from '../platform/mail';
-import { money } from '../jobs/mail';
 import { arrivesLate, draftOrders, orderTotal } from '$lib/purchasing/orders';
 import { purchaseOrderPdf } from './pdf';
+import { formatCents } from '$lib/money';
 
 export async function listSuppliers() {
 	return db.select().from(suppliers).orderBy(asc(suppliers.name));
@@ -188,7 +188,7 @@ export async function sendOrder(user: SessionUser, jobId: string, orderId: strin
 	const { supplier, lines, deliverTo, totalCents, firm, pdf } = await renderOrder(job, order);
 	const paragraphs = [
 		`Hello ${supplier.name},`,
-		`Please find our purchase order PO-${order.number} attached: ${lines.length} line${lines.length === 1 ? '' : 's'}, ${money(totalCents)} at our listed costs.`,
+		`Please find our purchase order PO-${order.number} attached: ${lines.length} line${lines.length === 1 ? '' : 's'}, ${formatCents(totalCents)} at our listed costs.`,
 		`Needed by ${order.expectedOn ?? 'as soon as you can'}, delivered to ${deliverTo || 'the address we will send'}.`,
 		...(order.deliveryNote ? [`Delivery note: ${order.deliveryNote}`] : []),
 		`Please reply to confirm the date, or call ${firm.phone}.`

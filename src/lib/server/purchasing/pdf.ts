@@ -2,7 +2,7 @@
 // firm, the order number, the job and where to deliver, the expected date and the delivery
 // note, each line with its quantity, cost and extension, and the total.
 import { PDFDocument, StandardFonts, rgb, type PDFFont, type PDFPage } from 'pdf-lib';
-import { money } from '../jobs/mail';
+import { formatCents } from '$lib/money';
 
 export interface OrderDocument {
 	firm: { name: string; phone: string; email: string };
@@ -96,13 +96,13 @@ export async function purchaseOrderPdf(doc: OrderDocument): Promise<Uint8Array> 
 		write(page, `${l.sku}  ${l.description}`.slice(0, 58), 50);
 		right(page, qty(l.quantity), 380);
 		write(page, l.unit, 390);
-		right(page, money(l.unitCostCents), 490);
-		right(page, money(l.extendedCents), 562);
+		right(page, formatCents(l.unitCostCents), 490);
+		right(page, formatCents(l.extendedCents), 562);
 		y -= 16;
 	}
 	y -= 4;
 	page.drawLine({ start: { x: 390, y: y + 10 }, end: { x: 562, y: y + 10 }, thickness: 0.5 });
 	write(page, 'Total', 390, bold);
-	right(page, money(doc.totalCents), 562, bold);
+	right(page, formatCents(doc.totalCents), 562, bold);
 	return pdf.save();
 }

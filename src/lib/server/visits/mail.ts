@@ -21,8 +21,9 @@ export interface VisitParty {
 	firm: Settings;
 }
 
-export { DIG_CAUTION, VISIT_HELPS } from '$lib/components/visits/advice-text';
-import { DIG_CAUTION, VISIT_HELPS } from '$lib/components/visits/advice-text';
+export { DIG_CAUTION, VISIT_HELPS } from '$lib/cautions/advice-text';
+import { DIG_CAUTION, VISIT_HELPS } from '$lib/cautions/advice-text';
+import { inZone } from '$lib/firm-time';
 
 /** The invitation's UID: the same for the life of the visit, so calendars update one event. */
 export function visitUid(visitId: string): string {
@@ -30,20 +31,8 @@ export function visitUid(visitId: string): string {
 }
 
 export function whenText(visit: Pick<SiteVisit, 'startsAt' | 'endsAt' | 'timeZone'>): string {
-	const day = new Intl.DateTimeFormat('en-US', {
-		timeZone: visit.timeZone,
-		weekday: 'long',
-		month: 'long',
-		day: 'numeric',
-		year: 'numeric'
-	}).format(visit.startsAt);
-	const time = new Intl.DateTimeFormat('en-US', {
-		timeZone: visit.timeZone,
-		hour: 'numeric',
-		minute: '2-digit',
-		timeZoneName: 'short'
-	});
-	return `${day}, ${time.format(visit.startsAt)} – ${time.format(visit.endsAt)}`;
+	const time = (at: Date) => inZone(at, visit.timeZone, 'time');
+	return `${inZone(visit.startsAt, visit.timeZone, 'dayLong')}, ${time(visit.startsAt)} – ${time(visit.endsAt)}`;
 }
 
 export function visitIcs(p: VisitParty, method: 'REQUEST' | 'CANCEL'): string {

@@ -14,6 +14,7 @@ import {
 } from '../platform/db/schema';
 import type { VisitParty } from './mail';
 import { VisitError } from './errors';
+import { inZone } from '$lib/firm-time';
 
 /** The firm's settings read inside the caller's transaction (a pooled read could wait forever). */
 export async function settingsIn(tx: Tx | typeof db): Promise<Settings> {
@@ -53,15 +54,7 @@ export async function partyFor(tx: Tx | typeof db, visit: SiteVisit): Promise<Vi
 }
 
 export function whenShort(visit: Pick<SiteVisit, 'startsAt' | 'timeZone'>): string {
-	return new Intl.DateTimeFormat('en-US', {
-		timeZone: visit.timeZone,
-		weekday: 'short',
-		month: 'short',
-		day: 'numeric',
-		hour: 'numeric',
-		minute: '2-digit',
-		timeZoneName: 'short'
-	}).format(visit.startsAt);
+	return inZone(visit.startsAt, visit.timeZone, 'whenShort');
 }
 
 /** The visit, locked; with `leadId`, a visit of another lead is refused as if it did not exist. */

@@ -1,13 +1,13 @@
 // The public care sign-up: server-rendered (it has a form), never prerendered.
 import { fail, redirect } from '@sveltejs/kit';
-import { fieldErrors } from '$lib/schema/auth';
 import { listedFeatures, publicSignUpSchema } from '$lib/schema/care';
 import { CareError } from '$lib/server/care/db';
 import { clientAddress } from '$lib/server/care/http';
 import { publicPlans, publicSignUp, SignUpFieldError } from '$lib/server/care/public';
-import { startPlanCheckout } from '$lib/server/care/subscriptions';
+import { startPlanCheckout } from '$lib/server/care/plan-checkout';
 import { minutes, SharedRateLimiter } from '$lib/server/platform/rate-limit';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 export const prerender = false;
 
@@ -33,10 +33,9 @@ export const actions: Actions = {
 	signUp: async (event) => {
 		const data = await event.request.formData();
 		const values = typed(data);
-		const parsed = publicSignUpSchema.safeParse(Object.fromEntries(data));
-		if (!parsed.success) {
-			return fail(400, { form: 'signUp', errors: fieldErrors(parsed.error), values });
-		}
+		const parsed = await parseForm(data, publicSignUpSchema, { extra: { form: 'signUp' } });
+		// The refill is the typed fields cut to length, as the price step sends them back.
+		if (!parsed.ok) return fail(400, { ...parsed.failure.data, values });
 		if (await signUpLimiter.isLimited(event)) {
 			return fail(429, {
 				form: 'signUp',

@@ -1,5 +1,5 @@
 import { error, fail } from '@sveltejs/kit';
-import { fieldErrors, formValues } from '$lib/schema/auth';
+import { formValues } from '$lib/schema/auth';
 import { availabilitySchema, timeOffSchema } from '$lib/schema/visits';
 import { requireRole } from '$lib/server/auth/access';
 import type { SessionUser } from '$lib/server/auth/sessions';
@@ -13,6 +13,7 @@ import {
 } from '$lib/server/visits/availability';
 import { hoursFromForm, overlapErrors } from './hours';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 /**
  * Whose availability this request may touch: the owner any salesperson's (or their own), a
@@ -50,13 +51,11 @@ export const actions: Actions = {
 		const { person } = await subjectOf(event, user);
 		const data = await event.request.formData();
 		const { hours, row } = hoursFromForm(data);
-		const parsed = availabilitySchema.safeParse({
-			...Object.fromEntries(data),
-			weeklyHours: hours
+		const parsed = await parseForm(data, availabilitySchema, {
+			read: (form) => ({ ...Object.fromEntries(form), weeklyHours: hours })
 		});
-		const errors = parsed.success ? overlapErrors(parsed.data.weeklyHours) : {};
-		if (!parsed.success) Object.assign(errors, fieldErrors(parsed.error));
-		if (!parsed.success || Object.keys(errors).length) {
+		const errors = parsed.ok ? overlapErrors(parsed.data.weeklyHours) : parsed.failure.data.errors;
+		if (!parsed.ok || Object.keys(errors).length) {
 			const onRows: Record<string, string> = {};
 			for (const [k, v] of Object.entries(errors)) {
 				// A message with no field of its own (none expected) still shows, above the form.
@@ -74,17 +73,12 @@ export const actions: Actions = {
 		const user = requireRole(event, 'owner', 'sales');
 		const { person } = await subjectOf(event, user);
 		const data = await event.request.formData();
-		const raw = Object.fromEntries(
-			[...data].filter(([, v]) => v !== '').map(([k, v]) => [k, String(v)])
-		);
-		const parsed = timeOffSchema.safeParse(raw);
-		if (!parsed.success) {
-			return fail(400, {
-				form: 'timeOff',
-				values: formValues(data),
-				errors: fieldErrors(parsed.error)
-			});
-		}
+		// An empty field is one left out (the schema's optional times and reason).
+		const parsed = await parseForm(data, timeOffSchema, {
+			extra: { form: 'timeOff' },
+			read: (form) => Object.fromEntries([...form].filter(([, v]) => v !== ''))
+		});
+		if (!parsed.ok) return parsed.failure;
 		await addTimeOff(person.id, parsed.data);
 		return { form: 'timeOff', saved: 'Time off added.' };
 	},

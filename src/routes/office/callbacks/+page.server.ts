@@ -1,9 +1,9 @@
-import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
 import { requireRole } from '$lib/server/auth/access';
 import { domainAction as jobAction } from '$lib/server/http/domain';
 import { finishedJobs, listCallbacks, sendCallbackLink } from '$lib/server/callbacks/callbacks';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'owner', 'sales', 'crew');
@@ -18,10 +18,15 @@ export const actions: Actions = {
 	/** E-mails a homeowner a fresh problem-report link for a finished job. */
 	link: async (event) => {
 		requireRole(event, 'owner', 'sales');
-		const parsed = z
-			.object({ jobId: z.string().min(1, 'Pick a finished job') })
-			.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) return fail(400, { form: 'link', message: 'Pick a finished job' });
+		const parsed = await parseForm(
+			event.request,
+			z.object({ jobId: z.string().min(1, 'Pick a finished job') }),
+			{
+				extra: { form: 'link' },
+				message: 'Pick a finished job'
+			}
+		);
+		if (!parsed.ok) return parsed.failure;
 		return jobAction(async () => {
 			await sendCallbackLink(parsed.data.jobId);
 			return { form: 'link', sent: true };

@@ -1,9 +1,8 @@
-import { fail } from '@sveltejs/kit';
-import { fieldErrors, formValues } from '$lib/schema/auth';
 import { costingSettingsSchema } from '$lib/schema/costing';
 import { requireRole } from '$lib/server/auth/access';
 import { completedJobs, costingConfig, saveCostingConfig } from '$lib/server/costing/report';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 export const load: PageServerLoad = async (event) => {
 	requireRole(event, 'owner');
@@ -17,11 +16,8 @@ export const load: PageServerLoad = async (event) => {
 export const actions: Actions = {
 	settings: async (event) => {
 		requireRole(event, 'owner');
-		const data = await event.request.formData();
-		const parsed = costingSettingsSchema.safeParse(Object.fromEntries(data));
-		if (!parsed.success) {
-			return fail(400, { values: formValues(data), errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(event.request, costingSettingsSchema);
+		if (!parsed.ok) return parsed.failure;
 		await saveCostingConfig(parsed.data);
 		return { saved: true };
 	}

@@ -1,5 +1,6 @@
 import { fail } from '@sveltejs/kit';
-import { fieldErrors, formValues } from '$lib/schema/auth';
+import { formValues } from '$lib/schema/auth';
+import { parseForm, type FormValues } from '$lib/server/platform/forms';
 import { requireRole } from '$lib/server/auth/access';
 import {
 	estimatingConfig,
@@ -66,11 +67,18 @@ export const load: PageServerLoad = async (event) => {
 	};
 };
 
+/** A record the engine's own check refused as a whole: its messages, one a line, for the form. */
+const refused = (form: string, values: FormValues, problems: string[]) =>
+	fail(400, { form, values, errors: { _form: problems.join('\n') } });
+
 export const actions: Actions = {
 	confirmRate: async (event) => {
 		const user = requireRole(event, 'owner');
-		const parsed = confirmRateSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) return fail(400, { form: 'rate', message: 'Pick a proposal' });
+		const parsed = await parseForm(event.request, confirmRateSchema, {
+			extra: { form: 'rate' },
+			message: 'Pick a proposal'
+		});
+		if (!parsed.ok) return parsed.failure;
 		try {
 			const done = await confirmRate(user, parsed.data.rateKey, parsed.data.proposedHours);
 			return { form: 'rate', rateKey: parsed.data.rateKey, changed: done };
@@ -83,15 +91,11 @@ export const actions: Actions = {
 	},
 	item: async (event) => {
 		requireRole(event, 'owner');
-		const data = await event.request.formData();
-		const values = formValues(data);
-		const parsed = itemFormSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'item', values, fieldErrors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(event.request, itemFormSchema, { extra: { form: 'item' } });
+		if (!parsed.ok) return parsed.failure;
 		const saved = await saveItem(parsed.data);
 		if ('fieldErrors' in saved) {
-			return fail(400, { form: 'item', values, fieldErrors: saved.fieldErrors });
+			return fail(400, { form: 'item', values: parsed.values, errors: saved.fieldErrors });
 		}
 		return { form: 'item', saved: saved.item.sku };
 	},
@@ -99,75 +103,51 @@ export const actions: Actions = {
 		requireRole(event, 'owner');
 		const data = await event.request.formData();
 		const sku = String(data.get('sku') ?? '');
-		if (!sku) return fail(400, { form: 'remove', errors: ['No item named'] });
+		if (!sku) return fail(400, { form: 'remove', values: {}, errors: { _form: 'No item named' } });
 		await removeItem(sku);
 		return { form: 'remove', removed: sku };
 	},
 	pump: async (event) => {
 		requireRole(event, 'owner');
-		const data = await event.request.formData();
-		const parsed = pumpFormSchema.safeParse(Object.fromEntries(data));
-		if (!parsed.success) {
-			return fail(400, {
-				form: 'pump',
-				values: formValues(data),
-				fieldErrors: fieldErrors(parsed.error)
-			});
-		}
+		const parsed = await parseForm(event.request, pumpFormSchema, { extra: { form: 'pump' } });
+		if (!parsed.ok) return parsed.failure;
 		const errors = await savePump(parsed.data);
-		if (errors.length) return fail(400, { form: 'pump', values: formValues(data), errors });
+		if (errors.length) return refused('pump', parsed.values, errors);
 		return { form: 'pump', saved: parsed.data.id };
 	},
 	labor: async (event) => {
 		requireRole(event, 'owner');
-		const data = await event.request.formData();
-		const parsed = laborFormSchema.safeParse(Object.fromEntries(data));
-		if (!parsed.success) {
-			return fail(400, {
-				form: 'labor',
-				values: formValues(data),
-				fieldErrors: fieldErrors(parsed.error)
-			});
-		}
+		const parsed = await parseForm(event.request, laborFormSchema, { extra: { form: 'labor' } });
+		if (!parsed.ok) return parsed.failure;
 		await saveLaborRate(parsed.data);
 		return { form: 'labor', saved: parsed.data.id };
 	},
 	rates: async (event) => {
 		requireRole(event, 'owner');
-		const data = await event.request.formData();
-		const parsed = taskRatesFormSchema.safeParse(Object.fromEntries(data));
-		if (!parsed.success) {
-			return fail(400, {
-				form: 'rates',
-				values: formValues(data),
-				fieldErrors: fieldErrors(parsed.error)
-			});
-		}
+		const parsed = await parseForm(event.request, taskRatesFormSchema, {
+			extra: { form: 'rates' }
+		});
+		if (!parsed.ok) return parsed.failure;
 		const errors = await saveTaskRates(parsed.data as Record<string, number>);
-		if (errors.length) return fail(400, { form: 'rates', values: formValues(data), errors });
+		if (errors.length) return refused('rates', parsed.values, errors);
 		return { form: 'rates', saved: 'rates' };
 	},
 	settings: async (event) => {
 		requireRole(event, 'owner');
-		const data = await event.request.formData();
-		const parsed = settingsFormSchema.safeParse(Object.fromEntries(data));
-		if (!parsed.success) {
-			return fail(400, {
-				form: 'settings',
-				values: formValues(data),
-				fieldErrors: fieldErrors(parsed.error)
-			});
-		}
+		const parsed = await parseForm(event.request, settingsFormSchema, {
+			extra: { form: 'settings' }
+		});
+		if (!parsed.ok) return parsed.failure;
 		const errors = await saveEstimatingSettings(parsed.data);
-		if (errors.length) return fail(400, { form: 'settings', values: formValues(data), errors });
+		if (errors.length) return refused('settings', parsed.values, errors);
 		return { form: 'settings', saved: 'settings' };
 	},
 	yard: async (event) => {
 		requireRole(event, 'owner');
 		const data = await event.request.formData();
-		const fieldErrors = await saveYardSettings(data);
-		if (Object.keys(fieldErrors).length) {
-			return fail(400, { form: 'yard', values: formValues(data), fieldErrors });
+		const errors = await saveYardSettings(data);
+		if (Object.keys(errors).length) {
+			return fail(400, { form: 'yard', values: formValues(data), errors });
 		}
 		return { form: 'yard', saved: 'yard' };
 	}

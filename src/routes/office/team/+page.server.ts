@@ -1,12 +1,7 @@
-import { fail } from '@sveltejs/kit';
+import { fail, type ActionFailure } from '@sveltejs/kit';
 import { z } from 'zod';
-import {
-	fieldErrors,
-	formValues,
-	inviteSchema,
-	roleSchema,
-	type FormErrors
-} from '$lib/schema/auth';
+import { inviteSchema, roleSchema } from '$lib/schema/auth';
+import { parseForm, type FormFailure } from '$lib/server/platform/forms';
 import { requireRole } from '$lib/server/auth/access';
 import {
 	changeRole,
@@ -26,24 +21,29 @@ export const load: PageServerLoad = async (event) => {
 
 const memberSchema = z.object({ userId: z.string().min(1) });
 
+// A member's row (role, disable, enable) shows its one message beside that member.
 async function memberAction(run: () => Promise<void>, userId: string) {
 	try {
 		await run();
 		return { ok: true, userId };
 	} catch (error) {
-		if (error instanceof TeamError) return fail(400, { memberError: error.message, userId });
+		if (error instanceof TeamError) {
+			return fail(400, { form: 'member', userId, message: error.message });
+		}
 		throw error;
 	}
+}
+
+function memberFailure(failure: ActionFailure<FormFailure<object>>) {
+	const { values, message } = failure.data;
+	return fail(400, { form: 'member', userId: values.userId ?? '', message });
 }
 
 export const actions: Actions = {
 	invite: async (event) => {
 		const owner = requireRole(event, 'owner');
-		const data = await event.request.formData();
-		const parsed = inviteSchema.safeParse(Object.fromEntries(data));
-		if (!parsed.success) {
-			return fail(400, { invite: { values: formValues(data), errors: fieldErrors(parsed.error) } });
-		}
+		const parsed = await parseForm(event.request, inviteSchema, { extra: { form: 'invite' } });
+		if (!parsed.ok) return parsed.failure;
 		try {
 			await invite(owner.id, parsed.data);
 		} catch (error) {
@@ -53,18 +53,19 @@ export const actions: Actions = {
 					: 'The invitation could not be e-mailed just now. Try again in a few minutes.';
 			if (!(error instanceof TeamError)) console.error('invitation mail failed', error);
 			return fail(error instanceof TeamError ? 400 : 503, {
-				invite: { values: formValues(data), errors: { _form: message } as FormErrors }
+				form: 'invite',
+				values: parsed.values,
+				errors: { _form: message }
 			});
 		}
 		return { invited: parsed.data.email };
 	},
 	role: async (event) => {
 		const owner = requireRole(event, 'owner');
-		const data = Object.fromEntries(await event.request.formData());
-		const parsed = memberSchema.extend({ role: roleSchema }).safeParse(data);
-		if (!parsed.success) {
-			return fail(400, { memberError: 'Pick a role', userId: String(data.userId ?? '') });
-		}
+		const parsed = await parseForm(event.request, memberSchema.extend({ role: roleSchema }), {
+			message: 'Pick a role'
+		});
+		if (!parsed.ok) return memberFailure(parsed.failure);
 		return memberAction(
 			() => changeRole(owner.id, parsed.data.userId, parsed.data.role),
 			parsed.data.userId
@@ -72,14 +73,14 @@ export const actions: Actions = {
 	},
 	disable: async (event) => {
 		const owner = requireRole(event, 'owner');
-		const parsed = memberSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) return fail(400, { memberError: 'No member chosen', userId: '' });
+		const parsed = await parseForm(event.request, memberSchema, { message: 'No member chosen' });
+		if (!parsed.ok) return memberFailure(parsed.failure);
 		return memberAction(() => setDisabled(owner.id, parsed.data.userId, true), parsed.data.userId);
 	},
 	enable: async (event) => {
 		const owner = requireRole(event, 'owner');
-		const parsed = memberSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) return fail(400, { memberError: 'No member chosen', userId: '' });
+		const parsed = await parseForm(event.request, memberSchema, { message: 'No member chosen' });
+		if (!parsed.ok) return memberFailure(parsed.failure);
 		return memberAction(() => setDisabled(owner.id, parsed.data.userId, false), parsed.data.userId);
 	}
 };

@@ -12,64 +12,18 @@ import {
 } from '../../platform/images';
 import { isDatabaseUnavailable } from '../../platform/outage';
 import { defineJob, enqueue, queue } from '../../platform/queue';
-import {
-	StorageUnavailableError,
-	deleteObjects,
-	putObject,
-	randomKey
-} from '../../platform/storage';
+import { StorageUnavailableError, deleteObjects } from '../../platform/storage';
 import { STORAGE_DOWN, DATABASE_DOWN } from './errors';
+import { discardKeys, discardStored, storePhoto, type StoredPhoto } from '../../photos/store';
 
 /** Unclaimed drafts older than this are swept away. */
 export const DRAFT_TTL_MS = 24 * 60 * 60 * 1000;
 // ---------------------------------------------------------------------------------------------
 // Photos: stored in S3, then recorded either as a draft or straight onto the lead
 
-export interface StoredPhoto {
-	displayKey: string;
-	thumbKey: string;
-	width: number;
-	height: number;
-	bytes: number;
-	originalName: string;
-}
-
 export interface Draft {
 	token: string;
 	name: string;
-}
-
-export async function storePhoto(p: ProcessedPhoto): Promise<StoredPhoto> {
-	const displayKey = randomKey('intake', 'display.webp');
-	const thumbKey = randomKey('intake', 'thumb.webp');
-	await putObject(displayKey, p.display, p.contentType);
-	try {
-		await putObject(thumbKey, p.thumb, p.contentType);
-	} catch (error) {
-		await discardKeys([displayKey]);
-		throw error;
-	}
-	return {
-		displayKey,
-		thumbKey,
-		width: p.width,
-		height: p.height,
-		bytes: p.bytes,
-		originalName: p.originalName
-	};
-}
-
-async function discardKeys(keys: string[]): Promise<void> {
-	try {
-		await deleteObjects(keys);
-	} catch (error) {
-		// Left for nobody to find: log it, the bucket's own lifecycle rules are the last line.
-		console.error('[intake] could not delete stored photos', keys, (error as Error).message);
-	}
-}
-
-export async function discardStored(stored: StoredPhoto[]): Promise<void> {
-	await discardKeys(stored.flatMap((s) => [s.displayKey, s.thumbKey]));
 }
 
 export async function saveDrafts(stored: StoredPhoto[]): Promise<Draft[]> {
@@ -106,7 +60,7 @@ export async function uploadDraft(file: File | null): Promise<UploadResult> {
 	}
 	let stored: StoredPhoto;
 	try {
-		stored = await storePhoto(processed);
+		stored = await storePhoto(processed, 'intake');
 	} catch (error) {
 		if (error instanceof StorageUnavailableError) {
 			return { ok: false, status: 503, message: STORAGE_DOWN };

@@ -13,14 +13,8 @@ import {
 } from '../../platform/images';
 import { isDatabaseUnavailable } from '../../platform/outage';
 import { StorageUnavailableError } from '../../platform/storage';
-import {
-	type StoredPhoto,
-	type Draft,
-	storePhoto,
-	discardStored,
-	saveDrafts,
-	statusOf
-} from './drafts';
+import { discardStored, storePhoto, type StoredPhoto } from '../../photos/store';
+import { type Draft, saveDrafts, statusOf } from './drafts';
 import { IntakeError, STORAGE_DOWN, DATABASE_DOWN } from './errors';
 import { HONEYPOT, checkStamp } from './stamp';
 import { submitInquiry } from './records';
@@ -141,7 +135,7 @@ export async function receiveInquiry(
 
 	let stored: StoredPhoto[] = [];
 	try {
-		for (const p of processed) stored.push(await storePhoto(p));
+		for (const p of processed) stored.push(await storePhoto(p, 'intake'));
 	} catch (error) {
 		await discardStored(stored);
 		if (error instanceof StorageUnavailableError) return fail(503, STORAGE_DOWN, errors);

@@ -10,7 +10,8 @@ import { acknowledgment, ownerAlert } from './mail';
 import { dispatchMail, writeMail } from '../../platform/outbox';
 
 import { firmSettings } from '../../platform/settings';
-import { DRAFT_TTL_MS, type StoredPhoto } from './drafts';
+import { DRAFT_TTL_MS } from './drafts';
+import type { StoredPhoto } from '../../photos/store';
 import { IntakeError } from './errors';
 
 const digits = (phone: string) => phone.replace(/\D/g, '');

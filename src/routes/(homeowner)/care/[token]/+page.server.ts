@@ -1,17 +1,13 @@
 import { error, fail, redirect } from '@sveltejs/kit';
-import { fieldErrors } from '$lib/schema/auth';
 import { signUpSchema } from '$lib/schema/care';
 import { careLink } from '$lib/server/care/links';
 import { domainAction } from '$lib/server/http/domain';
 import { clientAddress } from '$lib/server/care/http';
-import {
-	cancelPlan,
-	homeownerCare,
-	signUp,
-	startPlanCheckout
-} from '$lib/server/care/subscriptions';
+import { cancelPlan, homeownerCare, signUp } from '$lib/server/care/subscriptions';
+import { startPlanCheckout } from '$lib/server/care/plan-checkout';
 import { CareError } from '$lib/server/care/db';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 const NOT_FOUND = 'This link does not open a care plan. Ask us for a new one.';
 
@@ -49,11 +45,8 @@ async function checkout(propertyId: string, token: string) {
 export const actions: Actions = {
 	signUp: async (event) => {
 		const propertyId = await propertyOf(event.params.token);
-		const values = Object.fromEntries(await event.request.formData());
-		const parsed = signUpSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'signUp', errors: fieldErrors(parsed.error), values });
-		}
+		const parsed = await parseForm(event.request, signUpSchema, { extra: { form: 'signUp' } });
+		if (!parsed.ok) return parsed.failure;
 		const done = await domainAction(
 			() =>
 				signUp(propertyId, {

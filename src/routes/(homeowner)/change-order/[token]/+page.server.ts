@@ -1,5 +1,4 @@
 import { error, fail } from '@sveltejs/kit';
-import { fieldErrors } from '$lib/schema/auth';
 import { decisionSchema } from '$lib/schema/jobs';
 import {
 	changeOrderForHomeowner,
@@ -7,6 +6,7 @@ import {
 	DecisionError
 } from '$lib/server/jobs/change-orders';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 export const load: PageServerLoad = async ({ params }) => {
 	const co = await changeOrderForHomeowner(params.token);
@@ -16,9 +16,8 @@ export const load: PageServerLoad = async ({ params }) => {
 
 export const actions: Actions = {
 	default: async (event) => {
-		const data = Object.fromEntries(await event.request.formData());
-		const parsed = decisionSchema.safeParse(data);
-		if (!parsed.success) return fail(400, { errors: fieldErrors(parsed.error) });
+		const parsed = await parseForm(event.request, decisionSchema);
+		if (!parsed.ok) return parsed.failure;
 		try {
 			const status = await decideChangeOrder(event.params.token, parsed.data, {
 				ipAddress: event.getClientAddress(),

@@ -4,6 +4,7 @@ import { slotsQuerySchema } from '$lib/schema/visits';
 import { requireRole } from '$lib/server/auth/access';
 import { slotsFor } from '$lib/server/visits/slots';
 import type { RequestHandler } from './$types';
+import { inZone } from '$lib/firm-time';
 
 /** Free start times of one salesperson between two local dates (inclusive), in the firm's zone. */
 export const GET: RequestHandler = async (event) => {
@@ -18,12 +19,6 @@ export const GET: RequestHandler = async (event) => {
 	});
 	if (!result) error(404, 'No such salesperson');
 	const shown = q.timeZone ?? result.timeZone;
-	const label = new Intl.DateTimeFormat('en-US', {
-		timeZone: shown,
-		hour: 'numeric',
-		minute: '2-digit',
-		timeZoneName: 'short'
-	});
 	return json({
 		timeZone: result.timeZone,
 		visitMinutes: result.rules.visitMinutes,
@@ -31,7 +26,7 @@ export const GET: RequestHandler = async (event) => {
 			start: s.start.toISOString(),
 			end: s.end.toISOString(),
 			date: s.date,
-			label: label.format(s.start)
+			label: inZone(s.start, shown, 'time')
 		}))
 	});
 };

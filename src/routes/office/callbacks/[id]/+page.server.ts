@@ -1,5 +1,3 @@
-import { fail } from '@sveltejs/kit';
-import { fieldErrors, formValues } from '$lib/schema/auth';
 import {
 	callbackHoursSchema,
 	closeCallbackSchema,
@@ -19,6 +17,7 @@ import {
 	scheduleCallback
 } from '$lib/server/callbacks/callbacks';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'owner', 'sales', 'crew');
@@ -43,11 +42,8 @@ export const actions: Actions = {
 	schedule: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
 		const data = await event.request.formData();
-		const values = formValues(data);
-		const parsed = scheduleCallbackSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'schedule', values, errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(data, scheduleCallbackSchema, { extra: { form: 'schedule' } });
+		if (!parsed.ok) return parsed.failure;
 		return jobAction(async () => {
 			await callbackFor(user, event.params.id);
 			await scheduleCallback(event.params.id, parsed.data);
@@ -57,11 +53,8 @@ export const actions: Actions = {
 	hours: async (event) => {
 		const user = requireRole(event, 'owner', 'sales', 'crew');
 		const data = await event.request.formData();
-		const values = formValues(data);
-		const parsed = callbackHoursSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'hours', values, errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(data, callbackHoursSchema, { extra: { form: 'hours' } });
+		if (!parsed.ok) return parsed.failure;
 		const { hours, ...rest } = parsed.data;
 		return jobAction(async () => {
 			await logCallbackHours(user, event.params.id, { ...rest, minutes: hours });
@@ -71,11 +64,8 @@ export const actions: Actions = {
 	close: async (event) => {
 		const user = requireRole(event, 'owner', 'sales', 'crew');
 		const data = await event.request.formData();
-		const values = formValues(data);
-		const parsed = closeCallbackSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'close', values, errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(data, closeCallbackSchema, { extra: { form: 'close' } });
+		if (!parsed.ok) return parsed.failure;
 		return jobAction(async () => {
 			await closeCallback(user, event.params.id, parsed.data.notes);
 			return { form: 'close', saved: true };

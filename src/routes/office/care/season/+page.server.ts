@@ -1,6 +1,5 @@
 import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
-import { fieldErrors } from '$lib/schema/auth';
 import { seasonSettingsSchema } from '$lib/schema/care';
 import { parseSeasonKey, SEASON_DEFAULTS } from '$lib/care/seasons';
 import { isDate, parseClock } from '$lib/scheduling/zone';
@@ -8,18 +7,14 @@ import { requireRole } from '$lib/server/auth/access';
 import { dayIn } from '$lib/server/care/db';
 import { domainAction } from '$lib/server/http/domain';
 import { saveSeasonSettings, seasonSettings } from '$lib/server/care/plans';
-import {
-	addCrewDays,
-	generateSeason,
-	moveVisit,
-	proposeSchedule,
-	removeCrewDay,
-	seasonBoard,
-	sendDates
-} from '$lib/server/care/season';
+import { generateSeason, seasonBoard } from '$lib/server/care/season';
+import { addCrewDays, removeCrewDay } from '$lib/server/care/crew-days';
+import { moveVisit, proposeSchedule } from '$lib/server/care/season-routes';
+import { sendDates } from '$lib/server/care/season-mail';
 import { crewLeads } from '$lib/server/jobs/read';
 import { firmSettings } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 /** The season in the address, else the next autumn (the one that matters most before frost). */
 async function seasonOf(url: URL): Promise<string> {
@@ -74,11 +69,10 @@ const crewDaysSchema = z
 export const actions: Actions = {
 	settings: async (event) => {
 		requireRole(event, 'owner');
-		const values = Object.fromEntries(await event.request.formData());
-		const parsed = seasonSettingsSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'settings', errors: fieldErrors(parsed.error), values });
-		}
+		const parsed = await parseForm(event.request, seasonSettingsSchema, {
+			extra: { form: 'settings' }
+		});
+		if (!parsed.ok) return parsed.failure;
 		await saveSeasonSettings(parsed.data);
 		return { form: 'settings', message: 'Saved.' };
 	},
@@ -91,11 +85,8 @@ export const actions: Actions = {
 	},
 	crewDays: async (event) => {
 		requireRole(event, 'owner');
-		const values = Object.fromEntries(await event.request.formData());
-		const parsed = crewDaysSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'crewDays', errors: fieldErrors(parsed.error), values });
-		}
+		const parsed = await parseForm(event.request, crewDaysSchema, { extra: { form: 'crewDays' } });
+		if (!parsed.ok) return parsed.failure;
 		const d = parsed.data;
 		const added = await domainAction(
 			() =>
@@ -132,12 +123,15 @@ export const actions: Actions = {
 	},
 	move: async (event) => {
 		requireRole(event, 'owner');
-		const parsed = z
-			.object({ visitId: z.string().min(1), crewDayId: z.string().min(1, 'Pick a day') })
-			.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) {
-			return fail(400, { form: 'move', message: 'Pick a day to move the visit to' });
-		}
+		const parsed = await parseForm(
+			event.request,
+			z.object({ visitId: z.string().min(1), crewDayId: z.string().min(1, 'Pick a day') }),
+			{
+				extra: { form: 'move' },
+				message: 'Pick a day to move the visit to'
+			}
+		);
+		if (!parsed.ok) return parsed.failure;
 		const r = await domainAction(
 			() => moveVisit(parsed.data.visitId, parsed.data.crewDayId),
 			'move'

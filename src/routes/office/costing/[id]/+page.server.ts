@@ -1,6 +1,4 @@
-import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
-import { fieldErrors, formValues } from '$lib/schema/auth';
 import { jobCostSchema, usageSchema } from '$lib/schema/costing';
 import { requireRole } from '$lib/server/auth/access';
 import { domainAction as jobAction, orHttp } from '$lib/server/http/domain';
@@ -10,6 +8,7 @@ import { firmToday } from '$lib/server/platform/settings';
 import { costingOf } from '$lib/server/costing/report';
 import { addJobCost, removeJobCost, saveUsage } from '$lib/server/costing/materials';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'owner');
@@ -26,16 +25,10 @@ export const actions: Actions = {
 	usage: async (event) => {
 		const user = requireRole(event, 'owner');
 		const data = await event.request.formData();
-		const values = formValues(data);
-		const parsed = usageSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, {
-				form: 'usage',
-				materialId: values.materialId,
-				values,
-				errors: fieldErrors(parsed.error)
-			});
-		}
+		const parsed = await parseForm(data, usageSchema, {
+			extra: { form: 'usage', materialId: String(data.get('materialId') ?? '') }
+		});
+		if (!parsed.ok) return parsed.failure;
 		return jobAction(async () => {
 			await saveUsage(user, event.params.id, parsed.data);
 			return { form: 'usage', materialId: parsed.data.materialId, saved: true };
@@ -44,11 +37,8 @@ export const actions: Actions = {
 	cost: async (event) => {
 		const user = requireRole(event, 'owner');
 		const data = await event.request.formData();
-		const values = formValues(data);
-		const parsed = jobCostSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'cost', values, errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(data, jobCostSchema, { extra: { form: 'cost' } });
+		if (!parsed.ok) return parsed.failure;
 		return jobAction(async () => {
 			await addJobCost(user, event.params.id, parsed.data);
 			return { form: 'cost', saved: true };
@@ -56,10 +46,11 @@ export const actions: Actions = {
 	},
 	removeCost: async (event) => {
 		const user = requireRole(event, 'owner');
-		const parsed = z
-			.object({ costId: z.string().min(1) })
-			.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) return fail(400, { form: 'cost', message: 'Pick a cost' });
+		const parsed = await parseForm(event.request, z.object({ costId: z.string().min(1) }), {
+			extra: { form: 'cost' },
+			message: 'Pick a cost'
+		});
+		if (!parsed.ok) return parsed.failure;
 		return jobAction(() => removeJobCost(user, event.params.id, parsed.data.costId), 'cost');
 	}
 };

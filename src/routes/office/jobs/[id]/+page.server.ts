@@ -3,11 +3,12 @@ import { z } from 'zod';
 import { fieldErrors } from '$lib/schema/auth';
 import {
 	changeOrderSchema,
-	dollarsToCents,
 	punchSchema,
 	scheduleSchema,
 	sendChangeOrderSchema
 } from '$lib/schema/jobs';
+import { parseCents } from '$lib/money';
+import { JOB_STAGES_BY_HAND } from '$lib/stages';
 import { requireRole } from '$lib/server/auth/access';
 import {
 	createChangeOrder,
@@ -16,7 +17,8 @@ import {
 } from '$lib/server/jobs/change-orders';
 import { domainAction, orHttp } from '$lib/server/http/domain';
 import { addPunchItem, setMaterialFlag, setPunchDone } from '$lib/server/jobs/checklists';
-import { attachJobPhoto } from '$lib/server/photos/job-photos';
+import { addJobPhoto } from '$lib/server/photos/job-photos';
+import { signPhotos } from '$lib/server/photos/links';
 import {
 	crewConflicts,
 	crewJobView,
@@ -27,26 +29,10 @@ import {
 import { jobBalance } from '$lib/server/payments/balance';
 import { scheduleJob } from '$lib/server/jobs/schedule';
 import { setStage } from '$lib/server/jobs/stage';
-import { PhotoError, processPhoto } from '$lib/server/platform/images';
-import {
-	putObject,
-	randomKey,
-	signedUrl,
-	StorageUnavailableError
-} from '$lib/server/platform/storage';
+import { PhotoError } from '$lib/server/platform/images';
+import { StorageUnavailableError } from '$lib/server/platform/storage';
 import type { Actions, PageServerLoad } from './$types';
-
-async function withLinks<T extends { id: string; thumbKey: string; displayKey: string }>(
-	list: T[]
-) {
-	return Promise.all(
-		list.map(async ({ thumbKey, displayKey, ...p }) => ({
-			...p,
-			thumbUrl: await signedUrl(thumbKey),
-			displayUrl: await signedUrl(displayKey)
-		}))
-	);
-}
+import { parseForm } from '$lib/server/platform/forms';
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'owner', 'sales', 'crew');
@@ -54,7 +40,7 @@ export const load: PageServerLoad = async (event) => {
 	if (user.role === 'crew') {
 		// Built from quantities and site facts only: no price, cost or margin reaches a crew phone.
 		const view = await crewJobView(job);
-		return { role: 'crew' as const, job: { ...view, photos: await withLinks(view.photos) } };
+		return { role: 'crew' as const, job: { ...view, photos: await signPhotos(view.photos) } };
 	}
 	const [view, balance, changeOrders, leads, conflicts] = await Promise.all([
 		officeJobView(job),
@@ -65,7 +51,7 @@ export const load: PageServerLoad = async (event) => {
 	]);
 	return {
 		role: 'office' as const,
-		job: { ...view, photos: await withLinks(view.photos) },
+		job: { ...view, photos: await signPhotos(view.photos) },
 		balance,
 		changeOrders: changeOrders.map(({ tokenHash: _t, ...co }) => co),
 		crewLeads: leads,
@@ -74,7 +60,7 @@ export const load: PageServerLoad = async (event) => {
 };
 
 const idSchema = z.object({ itemId: z.string().min(1), on: z.enum(['1', '0']) });
-const stageSchema = z.object({ to: z.enum(['scheduled', 'underway', 'punch_list', 'complete']) });
+const stageSchema = z.object({ to: z.enum(JOB_STAGES_BY_HAND) });
 
 /** Every line row of the draft form as typed, in form order (the form refills from these). */
 function typedLines(data: FormData) {
@@ -120,25 +106,27 @@ function lineInput(l: TypedLine) {
 		category: l.category,
 		unit: l.unit,
 		quantity: l.quantity,
-		unitPriceCents: l.unitPrice.trim() === '' ? 0 : dollarsToCents(l.unitPrice)
+		// Not an amount (letters, a minus, three decimals) reaches the schema as NaN, which it refuses.
+		unitPriceCents:
+			l.unitPrice.trim() === '' ? 0 : (parseCents(l.unitPrice, { wholeDigits: 9 }) ?? Number.NaN)
 	};
 }
 
 export const actions: Actions = {
 	schedule: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
-		const data = await event.request.formData();
-		const parsed = scheduleSchema.safeParse({
-			days: data
-				.getAll('day')
-				.map(String)
-				.filter((d) => d !== ''),
-			crewLeadId: String(data.get('crewLeadId') ?? ''),
-			crewSize: String(data.get('crewSize') ?? '')
+		const parsed = await parseForm(event.request, scheduleSchema, {
+			extra: { form: 'schedule' },
+			read: (data) => ({
+				days: data
+					.getAll('day')
+					.map(String)
+					.filter((d) => d !== ''),
+				crewLeadId: String(data.get('crewLeadId') ?? ''),
+				crewSize: String(data.get('crewSize') ?? '')
+			})
 		});
-		if (!parsed.success) {
-			return fail(400, { form: 'schedule', errors: fieldErrors(parsed.error) });
-		}
+		if (!parsed.ok) return parsed.failure;
 		return domainAction(async () => {
 			const conflicts = await scheduleJob(event.params.id, parsed.data, user);
 			return { form: 'schedule', saved: true, conflicts: conflicts.length };
@@ -146,8 +134,11 @@ export const actions: Actions = {
 	},
 	ordered: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
-		const parsed = idSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) return fail(400, { form: 'materials', message: 'Pick a material' });
+		const parsed = await parseForm(event.request, idSchema, {
+			extra: { form: 'materials' },
+			message: 'Pick a material'
+		});
+		if (!parsed.ok) return parsed.failure;
 		return domainAction(async () => {
 			await setMaterialFlag(
 				user,
@@ -160,8 +151,11 @@ export const actions: Actions = {
 	},
 	picked: async (event) => {
 		const user = requireRole(event, 'owner', 'sales', 'crew');
-		const parsed = idSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) return fail(400, { form: 'materials', message: 'Pick a material' });
+		const parsed = await parseForm(event.request, idSchema, {
+			extra: { form: 'materials' },
+			message: 'Pick a material'
+		});
+		if (!parsed.ok) return parsed.failure;
 		return domainAction(async () => {
 			await setMaterialFlag(
 				user,
@@ -174,16 +168,20 @@ export const actions: Actions = {
 	},
 	punch: async (event) => {
 		const user = requireRole(event, 'owner', 'sales', 'crew');
-		const parsed = punchSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) {
-			return fail(400, { form: 'punch', message: fieldErrors(parsed.error).body });
-		}
+		const parsed = await parseForm(event.request, punchSchema, {
+			extra: { form: 'punch' },
+			message: true
+		});
+		if (!parsed.ok) return parsed.failure;
 		return domainAction(() => addPunchItem(user, event.params.id, parsed.data.body), 'punch');
 	},
 	punchDone: async (event) => {
 		const user = requireRole(event, 'owner', 'sales', 'crew');
-		const parsed = idSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) return fail(400, { form: 'punch', message: 'Pick an item' });
+		const parsed = await parseForm(event.request, idSchema, {
+			extra: { form: 'punch' },
+			message: 'Pick an item'
+		});
+		if (!parsed.ok) return parsed.failure;
 		return domainAction(
 			() => setPunchDone(user, event.params.id, parsed.data.itemId, parsed.data.on === '1'),
 			'punch'
@@ -191,8 +189,11 @@ export const actions: Actions = {
 	},
 	stage: async (event) => {
 		const user = requireRole(event, 'owner', 'sales', 'crew');
-		const parsed = stageSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) return fail(400, { form: 'stage', message: 'Pick a stage' });
+		const parsed = await parseForm(event.request, stageSchema, {
+			extra: { form: 'stage' },
+			message: 'Pick a stage'
+		});
+		if (!parsed.ok) return parsed.failure;
 		return domainAction(() => setStage(user, event.params.id, parsed.data.to), 'stage');
 	},
 	photo: async (event) => {
@@ -203,17 +204,7 @@ export const actions: Actions = {
 			return fail(400, { form: 'photo', message: 'Choose a photo first' });
 		}
 		try {
-			const photo = await processPhoto(file.name, new Uint8Array(await file.arrayBuffer()));
-			const displayKey = randomKey('jobs', 'display.webp');
-			const thumbKey = randomKey('jobs', 'thumb.webp');
-			await putObject(displayKey, photo.display, photo.contentType);
-			await putObject(thumbKey, photo.thumb, photo.contentType);
-			await attachJobPhoto(
-				user,
-				event.params.id,
-				{ displayKey, thumbKey, width: photo.width, height: photo.height, bytes: photo.bytes },
-				photo.originalName
-			);
+			await addJobPhoto(user, event.params.id, file);
 		} catch (e) {
 			if (e instanceof PhotoError) return fail(400, { form: 'photo', message: e.message });
 			if (e instanceof StorageUnavailableError) {
@@ -244,12 +235,11 @@ export const actions: Actions = {
 	},
 	sendChangeOrder: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
-		const parsed = sendChangeOrderSchema.safeParse(
-			Object.fromEntries(await event.request.formData())
-		);
-		if (!parsed.success) {
-			return fail(400, { form: 'changeOrder', message: fieldErrors(parsed.error).changeOrderId });
-		}
+		const parsed = await parseForm(event.request, sendChangeOrderSchema, {
+			extra: { form: 'changeOrder' },
+			message: true
+		});
+		if (!parsed.ok) return parsed.failure;
 		return domainAction(async () => {
 			// Refuses (404) a change order of another job: it is looked up by both ids.
 			await sendChangeOrder(event.params.id, parsed.data.changeOrderId, user);

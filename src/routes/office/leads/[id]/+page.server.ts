@@ -1,6 +1,5 @@
 import { error, fail } from '@sveltejs/kit';
-import type { z } from 'zod';
-import { fieldErrors, formValues } from '$lib/schema/auth';
+import { formValues } from '$lib/schema/auth';
 import {
 	assignFormSchema,
 	detailsFormSchema,
@@ -32,9 +31,10 @@ import {
 	possibleDuplicates,
 	samePerson
 } from '$lib/server/leads/contact-merge';
-import { signedUrl } from '$lib/server/platform/storage';
+import { galleryLinks } from '$lib/server/photos/links';
 import { visitNotesOfLead } from '$lib/server/visits/notes';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 /** Photo links live five minutes; the page asks for fresh ones when it reloads. */
 const PHOTO_LINK_SECONDS = 300;
@@ -49,15 +49,16 @@ export const load: PageServerLoad = async (event) => {
 		assignableStaff(),
 		firmSettings(),
 		visitNotesOfLead(found.lead.id),
-		Promise.all(
-			inquiryPhotos.map(async (p) => ({
+		galleryLinks(
+			inquiryPhotos.map((p) => ({
 				id: p.id,
 				width: p.width,
 				height: p.height,
 				name: p.originalName,
-				thumbUrl: await signedUrl(p.thumbKey, PHOTO_LINK_SECONDS),
-				fullUrl: await signedUrl(p.displayKey, PHOTO_LINK_SECONDS)
-			}))
+				thumbKey: p.thumbKey,
+				displayKey: p.displayKey
+			})),
+			PHOTO_LINK_SECONDS
 		),
 		possibleDuplicates(found.contact.id),
 		samePerson(found.contact.id)
@@ -104,20 +105,12 @@ async function edit(
 	}
 }
 
-function parse<T extends z.ZodType>(schema: T, form: string, data: FormData) {
-	const parsed = schema.safeParse(Object.fromEntries(data));
-	if (parsed.success) return { data: parsed.data as z.output<T> };
-	return {
-		failure: fail(400, { form, values: formValues(data), errors: fieldErrors(parsed.error) })
-	};
-}
-
 export const actions: Actions = {
 	stage: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
 		const data = await event.request.formData();
-		const p = parse(stageFormSchema, 'stage', data);
-		if (p.failure) return p.failure;
+		const p = await parseForm(data, stageFormSchema, { extra: { form: 'stage' } });
+		if (!p.ok) return p.failure;
 		return edit(
 			'stage',
 			data,
@@ -128,15 +121,15 @@ export const actions: Actions = {
 	assign: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
 		const data = await event.request.formData();
-		const p = parse(assignFormSchema, 'assign', data);
-		if (p.failure) return p.failure;
+		const p = await parseForm(data, assignFormSchema, { extra: { form: 'assign' } });
+		if (!p.ok) return p.failure;
 		return edit('assign', data, () => assignLead(user.id, event.params.id, p.data), 'Assigned');
 	},
 	priority: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
 		const data = await event.request.formData();
-		const p = parse(priorityFormSchema, 'priority', data);
-		if (p.failure) return p.failure;
+		const p = await parseForm(data, priorityFormSchema, { extra: { form: 'priority' } });
+		if (!p.ok) return p.failure;
 		return edit(
 			'priority',
 			data,
@@ -147,8 +140,8 @@ export const actions: Actions = {
 	details: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
 		const data = await event.request.formData();
-		const p = parse(detailsFormSchema, 'details', data);
-		if (p.failure) return p.failure;
+		const p = await parseForm(data, detailsFormSchema, { extra: { form: 'details' } });
+		if (!p.ok) return p.failure;
 		return edit(
 			'details',
 			data,
@@ -159,16 +152,16 @@ export const actions: Actions = {
 	log: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
 		const data = await event.request.formData();
-		const p = parse(logFormSchema, 'log', data);
-		if (p.failure) return p.failure;
+		const p = await parseForm(data, logFormSchema, { extra: { form: 'log' } });
+		if (!p.ok) return p.failure;
 		const what = p.data.kind === 'call' ? 'Call logged' : 'Note added';
 		return edit('log', data, () => logActivity(user.id, event.params.id, p.data), what);
 	},
 	merge: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
 		const data = await event.request.formData();
-		const p = parse(mergeFormSchema, 'merge', data);
-		if (p.failure) return p.failure;
+		const p = await parseForm(data, mergeFormSchema, { extra: { form: 'merge' } });
+		if (!p.ok) return p.failure;
 		const found = await getLead(event.params.id);
 		if (!found) error(404, 'No lead with that number');
 		try {
@@ -184,8 +177,8 @@ export const actions: Actions = {
 	mail: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
 		const data = await event.request.formData();
-		const p = parse(mailFormSchema, 'mail', data);
-		if (p.failure) return p.failure;
+		const p = await parseForm(data, mailFormSchema, { extra: { form: 'mail' } });
+		if (!p.ok) return p.failure;
 		return edit(
 			'mail',
 			data,

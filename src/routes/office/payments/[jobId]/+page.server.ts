@@ -1,5 +1,4 @@
 import { error, fail } from '@sveltejs/kit';
-import { fieldErrors, formValues } from '$lib/schema/auth';
 import { handPaymentSchema, invoiceSchema, refundSchema } from '$lib/schema/payments';
 import { requireRole } from '$lib/server/auth/access';
 import { sendPayLink } from '$lib/server/payments/checkout';
@@ -14,6 +13,7 @@ import {
 import { jobWithContact } from '$lib/server/payments/views';
 import { firmToday } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 async function jobOr404(id: string) {
 	const row = await jobWithContact(id);
@@ -56,11 +56,9 @@ export const actions: Actions = {
 	record: async (event) => {
 		const user = requireRole(event, 'owner');
 		const data = await event.request.formData();
-		const values = formValues(data);
-		const parsed = handPaymentSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'record', values, errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(data, handPaymentSchema, { extra: { form: 'record' } });
+		if (!parsed.ok) return parsed.failure;
+		const { values } = parsed;
 		await jobOr404(event.params.jobId);
 		try {
 			await recordHandPayment(
@@ -76,11 +74,9 @@ export const actions: Actions = {
 	refund: async (event) => {
 		const user = requireRole(event, 'owner');
 		const data = await event.request.formData();
-		const values = formValues(data);
-		const parsed = refundSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'refund', values, errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(data, refundSchema, { extra: { form: 'refund' } });
+		if (!parsed.ok) return parsed.failure;
+		const { values } = parsed;
 		await jobOr404(event.params.jobId);
 		try {
 			await recordRefund(
@@ -95,10 +91,8 @@ export const actions: Actions = {
 	},
 	invoice: async (event) => {
 		requireRole(event, 'owner');
-		const parsed = invoiceSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) {
-			return fail(400, { form: 'invoice', values: {}, errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(event.request, invoiceSchema, { extra: { form: 'invoice' } });
+		if (!parsed.ok) return parsed.failure;
 		await jobOr404(event.params.jobId);
 		const invoice = await ensureInvoice(event.params.jobId, parsed.data.kind);
 		return { form: 'invoice', saved: `Invoice ${invoice.number} issued.` };

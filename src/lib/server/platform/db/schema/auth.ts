@@ -32,6 +32,9 @@ export const users = pgTable(
 	(t) => [uniqueIndex('users_email_idx').on(sql`lower(${t.email})`)]
 );
 
+/** The staff member who did something (created, recorded, confirmed); kept if the user goes. */
+export const byUser = (name: string) => text(name).references(() => users.id);
+
 // The session id is the SHA-256 of the token in the cookie: a leaked table opens no session.
 export const sessions = pgTable(
 	'sessions',

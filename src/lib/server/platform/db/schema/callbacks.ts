@@ -6,6 +6,7 @@ import { users } from './auth';
 import { jobs } from './jobs';
 import { photos } from './photos';
 import { createdAt, updatedAt } from './columns';
+import { CALLBACK_STATUSES } from '../../../../stages';
 
 /** One link per job (only the SHA-256 of its token is kept); it does not expire. */
 export const callbackLinks = pgTable('callback_links', {
@@ -24,9 +25,7 @@ export const callbacks = pgTable(
 			.notNull()
 			.references(() => jobs.id, { onDelete: 'cascade' }),
 		description: text('description').notNull(),
-		status: text('status', { enum: ['reported', 'scheduled', 'fixed'] })
-			.notNull()
-			.default('reported'),
+		status: text('status', { enum: CALLBACK_STATUSES }).notNull().default('reported'),
 		/** Fixed when reported, from the completion day and the warranty setting of that moment. */
 		inWarranty: boolean('in_warranty').notNull(),
 		warrantyEndsOn: date('warranty_ends_on'),

@@ -1,3 +1,4 @@
+// Column shapes the schema files share, so each table reads as what it holds.
 import { timestamp } from 'drizzle-orm/pg-core';
 
 export const createdAt = () =>
@@ -7,3 +8,5 @@ export const updatedAt = () =>
 		.notNull()
 		.defaultNow()
 		.$onUpdate(() => new Date());
+/** A moment that may not have happened yet (sent, received, started): nullable timestamptz. */
+export const at = (name: string) => timestamp(name, { withTimezone: true });

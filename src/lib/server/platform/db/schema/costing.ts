@@ -11,28 +11,25 @@ import {
 	integer,
 	pgTable,
 	text,
-	timestamp,
 	uniqueIndex
 } from 'drizzle-orm/pg-core';
-import { users } from './auth';
-import { jobMaterials, jobs } from './jobs';
-import { createdAt, updatedAt } from './columns';
+import { byUser } from './auth';
+import { jobMaterials, ofJob } from './jobs';
+import { at, createdAt, updatedAt } from './columns';
 
 /** A labor line of a job: one of the estimate's tasks (merged by name), or one added on site. */
 export const jobTasks = pgTable(
 	'job_tasks',
 	{
 		id: text('id').primaryKey(),
-		jobId: text('job_id')
-			.notNull()
-			.references(() => jobs.id, { onDelete: 'cascade' }),
+		jobId: ofJob(),
 		name: text('name').notNull(),
 		/** The task-hours setting the estimate's hours came from ('basinHours', 'stoneHours.cart'…). */
 		rateKey: text('rate_key'),
 		/** Crew-hours the sold estimate allowed; 0 for a task added on site. */
 		estimatedHours: doublePrecision('estimated_hours').notNull().default(0),
 		sortOrder: integer('sort_order').notNull().default(0),
-		createdBy: text('created_by').references(() => users.id),
+		createdBy: byUser('created_by'),
 		createdAt: createdAt()
 	},
 	(t) => [uniqueIndex('job_tasks_job_name_idx').on(t.jobId, t.name)]
@@ -43,9 +40,7 @@ export const timeEntries = pgTable(
 	'time_entries',
 	{
 		id: text('id').primaryKey(),
-		jobId: text('job_id')
-			.notNull()
-			.references(() => jobs.id, { onDelete: 'cascade' }),
+		jobId: ofJob(),
 		taskId: text('task_id')
 			.notNull()
 			.references(() => jobTasks.id, { onDelete: 'cascade' }),
@@ -53,14 +48,14 @@ export const timeEntries = pgTable(
 		workDate: date('work_date').notNull(),
 		minutes: integer('minutes').notNull(),
 		/** Set when the entry was timed with start and stop on the phone. */
-		startedAt: timestamp('started_at', { withTimezone: true }),
-		endedAt: timestamp('ended_at', { withTimezone: true }),
+		startedAt: at('started_at'),
+		endedAt: at('ended_at'),
 		note: text('note').notNull().default(''),
 		/** Made on the device when the entry is typed: a replay of the same entry stores nothing. */
 		clientKey: text('client_key').notNull().unique(),
 		/** Set when the hours were spent on a warranty callback (they count against the margin). */
 		callbackId: text('callback_id'),
-		recordedBy: text('recorded_by').references(() => users.id),
+		recordedBy: byUser('recorded_by'),
 		createdAt: createdAt()
 	},
 	(t) => [
@@ -74,15 +69,13 @@ export const materialUsage = pgTable('material_usage', {
 	materialId: text('material_id')
 		.primaryKey()
 		.references(() => jobMaterials.id, { onDelete: 'cascade' }),
-	jobId: text('job_id')
-		.notNull()
-		.references(() => jobs.id, { onDelete: 'cascade' }),
+	jobId: ofJob(),
 	pickedQuantity: doublePrecision('picked_quantity').notNull().default(0),
 	returnedQuantity: doublePrecision('returned_quantity').notNull().default(0),
 	/** The supplier's invoice cost of this line, when it has arrived. */
 	invoiceCostCents: integer('invoice_cost_cents'),
 	invoiceReference: text('invoice_reference').notNull().default(''),
-	updatedBy: text('updated_by').references(() => users.id),
+	updatedBy: byUser('updated_by'),
 	createdAt: createdAt(),
 	updatedAt: updatedAt()
 });
@@ -92,14 +85,12 @@ export const jobCosts = pgTable(
 	'job_costs',
 	{
 		id: text('id').primaryKey(),
-		jobId: text('job_id')
-			.notNull()
-			.references(() => jobs.id, { onDelete: 'cascade' }),
+		jobId: ofJob(),
 		kind: text('kind', { enum: ['equipment', 'other'] }).notNull(),
 		description: text('description').notNull(),
 		amountCents: integer('amount_cents').notNull(),
 		incurredOn: date('incurred_on').notNull(),
-		recordedBy: text('recorded_by').references(() => users.id),
+		recordedBy: byUser('recorded_by'),
 		createdAt: createdAt()
 	},
 	(t) => [index('job_costs_job_idx').on(t.jobId)]
@@ -124,7 +115,7 @@ export const laborRateChanges = pgTable('labor_rate_changes', {
 	toHours: doublePrecision('to_hours').notNull(),
 	ratio: doublePrecision('ratio').notNull(),
 	jobsCount: integer('jobs_count').notNull(),
-	confirmedBy: text('confirmed_by').references(() => users.id),
+	confirmedBy: byUser('confirmed_by'),
 	createdAt: createdAt()
 });
 

@@ -12,6 +12,7 @@ import {
 	timestamp,
 	uniqueIndex
 } from 'drizzle-orm/pg-core';
+import { ESTIMATE_STATUSES } from '../../../../stages';
 import { createdAt, updatedAt } from './columns';
 import { users } from './auth';
 import { leads } from './leads';
@@ -72,12 +73,7 @@ export const estimatingSettings = pgTable('estimating_settings', {
 	updatedAt: updatedAt()
 });
 
-export const estimateStatusEnum = pgEnum('estimate_status', [
-	'draft',
-	'sent',
-	'accepted',
-	'declined'
-]);
+export const estimateStatusEnum = pgEnum('estimate_status', ESTIMATE_STATUSES);
 export type EstimateStatus = (typeof estimateStatusEnum.enumValues)[number];
 
 export interface EstimateOverrideRow {

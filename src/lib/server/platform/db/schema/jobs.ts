@@ -14,18 +14,13 @@ import {
 	timestamp,
 	uniqueIndex
 } from 'drizzle-orm/pg-core';
+import { JOB_STAGES } from '../../../../stages';
 import { createdAt, updatedAt } from './columns';
 import { users } from './auth';
 import { contacts, leads, properties } from './leads';
 import { estimates } from './estimates';
 
-export const jobStageEnum = pgEnum('job_stage', [
-	'scheduled',
-	'underway',
-	'punch_list',
-	'complete',
-	'paid'
-]);
+export const jobStageEnum = pgEnum('job_stage', JOB_STAGES);
 export type JobStage = (typeof jobStageEnum.enumValues)[number];
 
 /** What the job was sold as, frozen at conversion: the estimate, the choices and the acceptance. */
@@ -109,6 +104,12 @@ export const jobDays = pgTable(
 		index('job_days_day_idx').on(t.day)
 	]
 );
+
+/** The job a row belongs to, deleted with it. */
+export const ofJob = () =>
+	text('job_id')
+		.notNull()
+		.references(() => jobs.id, { onDelete: 'cascade' });
 
 export const jobMaterials = pgTable(
 	'job_materials',

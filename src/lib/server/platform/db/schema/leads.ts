@@ -12,6 +12,7 @@ import {
 	timestamp,
 	uniqueIndex
 } from 'drizzle-orm/pg-core';
+import { CLOSE_REASONS, LEAD_STAGES } from '../../../../stages';
 import { createdAt, updatedAt } from './columns';
 import { users } from './auth';
 
@@ -59,25 +60,10 @@ export const properties = pgTable(
 	(t) => [index('properties_contact_idx').on(t.contactId)]
 );
 
-export const leadStageEnum = pgEnum('lead_stage', [
-	'new',
-	'contacted',
-	'visit_booked',
-	'estimating',
-	'estimate_sent',
-	'sold',
-	'closed'
-]);
+export const leadStageEnum = pgEnum('lead_stage', LEAD_STAGES);
 export type LeadStage = (typeof leadStageEnum.enumValues)[number];
 
-export const closeReasonEnum = pgEnum('close_reason', [
-	'not_a_fit',
-	'no_reply',
-	'budget',
-	'timing',
-	'chose_another_firm',
-	'other'
-]);
+export const closeReasonEnum = pgEnum('close_reason', CLOSE_REASONS);
 export const priorityEnum = pgEnum('priority', ['low', 'normal', 'high']);
 
 export const leads = pgTable(

@@ -7,12 +7,11 @@ import {
 	integer,
 	pgTable,
 	text,
-	timestamp,
 	uniqueIndex
 } from 'drizzle-orm/pg-core';
-import { users } from './auth';
-import { jobMaterials, jobs } from './jobs';
-import { createdAt, updatedAt } from './columns';
+import { byUser } from './auth';
+import { jobMaterials, ofJob } from './jobs';
+import { at, createdAt, updatedAt } from './columns';
 
 export const suppliers = pgTable('suppliers', {
 	id: text('id').primaryKey(),
@@ -38,9 +37,7 @@ export const purchaseOrders = pgTable(
 		id: text('id').primaryKey(),
 		/** PO-1001 … */
 		number: integer('number').generatedAlwaysAsIdentity({ startWith: 1001 }).notNull().unique(),
-		jobId: text('job_id')
-			.notNull()
-			.references(() => jobs.id, { onDelete: 'cascade' }),
+		jobId: ofJob(),
 		supplierId: text('supplier_id')
 			.notNull()
 			.references(() => suppliers.id),
@@ -50,9 +47,9 @@ export const purchaseOrders = pgTable(
 		expectedOn: date('expected_on'),
 		deliveryNote: text('delivery_note').notNull().default(''),
 		totalCents: integer('total_cents').notNull().default(0),
-		sentAt: timestamp('sent_at', { withTimezone: true }),
-		receivedAt: timestamp('received_at', { withTimezone: true }),
-		createdBy: text('created_by').references(() => users.id),
+		sentAt: at('sent_at'),
+		receivedAt: at('received_at'),
+		createdBy: byUser('created_by'),
 		createdAt: createdAt(),
 		updatedAt: updatedAt()
 	},

@@ -1,5 +1,6 @@
 import { error } from '@sveltejs/kit';
-import { confirmCareReturn, subscriptionForLink } from '$lib/server/care/subscriptions';
+import { confirmCareReturn } from '$lib/server/care/plan-checkout';
+import { subscriptionForLink } from '$lib/server/care/subscriptions';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ params, url }) => {

@@ -10,6 +10,7 @@ import {
 	visitForLink
 } from '$lib/server/care/service';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 const NOT_FOUND = 'This link does not open a visit. Ask us for a new one.';
 
@@ -31,18 +32,21 @@ export const load: PageServerLoad = async ({ params, url }) => {
 export const actions: Actions = {
 	another: async ({ params, request }) => {
 		const v = await visitOf(params.token);
-		const parsed = z
-			.object({
+		const parsed = await parseForm(
+			request,
+			z.object({
 				message: z
 					.string()
 					.trim()
 					.min(3, 'Tell us which days suit you')
 					.max(1000, 'At most 1000 characters')
-			})
-			.safeParse(Object.fromEntries(await request.formData()));
-		if (!parsed.success) {
-			return fail(400, { form: 'another', message: parsed.error.issues[0].message });
-		}
+			}),
+			{
+				extra: { form: 'another' },
+				message: true
+			}
+		);
+		if (!parsed.ok) return parsed.failure;
 		const r = await domainAction(() => requestAnotherDay(v, parsed.data.message), 'another');
 		return r ?? { form: 'another', sent: true };
 	},

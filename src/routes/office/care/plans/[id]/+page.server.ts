@@ -1,5 +1,4 @@
-import { error, fail, redirect } from '@sveltejs/kit';
-import { fieldErrors } from '$lib/schema/auth';
+import { error, redirect } from '@sveltejs/kit';
 import { planSchema } from '$lib/schema/care';
 import { FEATURE_KINDS, FEATURE_SIZES, VISIT_KINDS } from '$lib/care/kinds';
 import { requireRole } from '$lib/server/auth/access';
@@ -7,6 +6,7 @@ import { domainAction } from '$lib/server/http/domain';
 import { planById, savePlan } from '$lib/server/care/plans';
 import { CareError } from '$lib/server/care/db';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 export const load: PageServerLoad = async (event) => {
 	requireRole(event, 'owner');
@@ -49,14 +49,8 @@ function fromForm(data: FormData) {
 export const actions: Actions = {
 	default: async (event) => {
 		requireRole(event, 'owner');
-		const data = await event.request.formData();
-		const parsed = planSchema.safeParse(fromForm(data));
-		if (!parsed.success) {
-			return fail(400, {
-				errors: fieldErrors(parsed.error),
-				values: Object.fromEntries([...data.keys()].map((k) => [k, String(data.get(k))]))
-			});
-		}
+		const parsed = await parseForm(event.request, planSchema, { read: fromForm });
+		if (!parsed.ok) return parsed.failure;
 		const id = await domainAction(() =>
 			savePlan(event.params.id === 'new' ? null : event.params.id, parsed.data)
 		);

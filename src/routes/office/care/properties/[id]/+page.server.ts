@@ -1,6 +1,5 @@
 import { error, fail } from '@sveltejs/kit';
 import { z } from 'zod';
-import { fieldErrors } from '$lib/schema/auth';
 import { featureSchema, pinSchema } from '$lib/schema/care';
 import { requireRole } from '$lib/server/auth/access';
 import { CareError } from '$lib/server/care/db';
@@ -24,6 +23,7 @@ import { visitsOfSubscription } from '$lib/server/care/service';
 import { PhotoError } from '$lib/server/platform/images';
 import { StorageUnavailableError } from '$lib/server/platform/storage';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 async function record(id: string) {
 	try {
@@ -62,23 +62,18 @@ export const actions: Actions = {
 	addFeature: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
 		await record(event.params.id);
-		const values = Object.fromEntries(await event.request.formData());
-		const parsed = featureSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'feature', errors: fieldErrors(parsed.error), values });
-		}
+		const parsed = await parseForm(event.request, featureSchema, { extra: { form: 'feature' } });
+		if (!parsed.ok) return parsed.failure;
 		await addFeature(event.params.id, parsed.data, user.id);
 		return { form: 'feature', saved: true };
 	},
 	editFeature: async (event) => {
 		requireRole(event, 'owner', 'sales');
 		await record(event.params.id);
-		const values = Object.fromEntries(await event.request.formData());
-		const featureId = String(values.featureId ?? '');
-		const parsed = featureSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'edit', featureId, errors: fieldErrors(parsed.error), values });
-		}
+		const data = await event.request.formData();
+		const featureId = String(data.get('featureId') ?? '');
+		const parsed = await parseForm(data, featureSchema, { extra: { form: 'edit', featureId } });
+		if (!parsed.ok) return parsed.failure;
 		const done = await domainAction(async () => {
 			await updateFeature(event.params.id, featureId, parsed.data);
 		}, 'edit');
@@ -87,10 +82,11 @@ export const actions: Actions = {
 	},
 	removeFeature: async (event) => {
 		requireRole(event, 'owner', 'sales');
-		const parsed = z
-			.object({ featureId: z.string().min(1) })
-			.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) return fail(400, { form: 'remove', message: 'Pick a feature' });
+		const parsed = await parseForm(event.request, z.object({ featureId: z.string().min(1) }), {
+			extra: { form: 'remove' },
+			message: 'Pick a feature'
+		});
+		if (!parsed.ok) return parsed.failure;
 		await removeFeature(event.params.id, parsed.data.featureId);
 		return { form: 'remove', saved: true };
 	},
@@ -126,11 +122,8 @@ export const actions: Actions = {
 	pin: async (event) => {
 		requireRole(event, 'owner', 'sales');
 		await record(event.params.id);
-		const values = Object.fromEntries(await event.request.formData());
-		const parsed = pinSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'pin', errors: fieldErrors(parsed.error), values });
-		}
+		const parsed = await parseForm(event.request, pinSchema, { extra: { form: 'pin' } });
+		if (!parsed.ok) return parsed.failure;
 		await setPin(event.params.id, parsed.data.lat, parsed.data.lng);
 		return { form: 'pin', saved: true };
 	},

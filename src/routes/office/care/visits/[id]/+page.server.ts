@@ -16,6 +16,7 @@ import {
 import { PhotoError } from '$lib/server/platform/images';
 import { StorageUnavailableError } from '$lib/server/platform/storage';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 const STAFF = ['owner', 'sales', 'crew'] as const;
 
@@ -39,8 +40,11 @@ const partSchema = z.object({
 export const actions: Actions = {
 	tick: async (event) => {
 		const user = requireRole(event, ...STAFF);
-		const parsed = tickSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) return fail(400, { form: 'tick', message: 'Pick a checklist item' });
+		const parsed = await parseForm(event.request, tickSchema, {
+			extra: { form: 'tick' },
+			message: 'Pick a checklist item'
+		});
+		if (!parsed.ok) return parsed.failure;
 		return domainAction(
 			() => tickChecklist(user, event.params.id, parsed.data.index, parsed.data.done === '1'),
 			'tick'
@@ -48,12 +52,15 @@ export const actions: Actions = {
 	},
 	notes: async (event) => {
 		const user = requireRole(event, ...STAFF);
-		const parsed = z
-			.object({ notes: z.string().max(4000, 'At most 4000 characters') })
-			.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) {
-			return fail(400, { form: 'notes', message: parsed.error.issues[0].message });
-		}
+		const parsed = await parseForm(
+			event.request,
+			z.object({ notes: z.string().max(4000, 'At most 4000 characters') }),
+			{
+				extra: { form: 'notes' },
+				message: true
+			}
+		);
+		if (!parsed.ok) return parsed.failure;
 		const r = await domainAction(
 			() => saveServiceNotes(user, event.params.id, parsed.data.notes),
 			'notes'
@@ -62,11 +69,11 @@ export const actions: Actions = {
 	},
 	part: async (event) => {
 		const user = requireRole(event, ...STAFF);
-		const values = Object.fromEntries(await event.request.formData());
-		const parsed = partSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'part', message: parsed.error.issues[0].message, values });
-		}
+		const parsed = await parseForm(event.request, partSchema, {
+			extra: { form: 'part' },
+			message: true
+		});
+		if (!parsed.ok) return parsed.failure;
 		const r = await domainAction(
 			() => addPart(user, event.params.id, parsed.data.sku, parsed.data.quantity),
 			'part'

@@ -1,5 +1,5 @@
 import { fail } from '@sveltejs/kit';
-import { fieldErrors, formValues } from '$lib/schema/auth';
+import { fieldErrors } from '$lib/schema/auth';
 import {
 	itemSupplierSchema,
 	orderIdSchema,
@@ -22,6 +22,7 @@ import {
 	updateOrder
 } from '$lib/server/purchasing/orders';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'owner', 'sales');
@@ -38,11 +39,8 @@ export const actions: Actions = {
 	supplier: async (event) => {
 		requireRole(event, 'owner', 'sales');
 		const data = await event.request.formData();
-		const values = formValues(data);
-		const parsed = supplierSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, { form: 'supplier', values, errors: fieldErrors(parsed.error) });
-		}
+		const parsed = await parseForm(data, supplierSchema, { extra: { form: 'supplier' } });
+		if (!parsed.ok) return parsed.failure;
 		return jobAction(async () => {
 			await addSupplier(parsed.data);
 			return { form: 'supplier', saved: true };
@@ -51,13 +49,11 @@ export const actions: Actions = {
 	itemSupplier: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
 		await orHttp(() => jobFor(user, event.params.id));
-		const parsed = itemSupplierSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) {
-			return fail(400, {
-				form: 'itemSupplier',
-				message: Object.values(fieldErrors(parsed.error))[0]
-			});
-		}
+		const parsed = await parseForm(event.request, itemSupplierSchema, {
+			extra: { form: 'itemSupplier' },
+			message: true
+		});
+		if (!parsed.ok) return parsed.failure;
 		return jobAction(
 			() => setItemSupplier(parsed.data.sku, parsed.data.supplierId),
 			'itemSupplier'
@@ -73,16 +69,10 @@ export const actions: Actions = {
 	update: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
 		const data = await event.request.formData();
-		const values = formValues(data);
-		const parsed = orderUpdateSchema.safeParse(values);
-		if (!parsed.success) {
-			return fail(400, {
-				form: 'update',
-				orderId: values.orderId,
-				values,
-				errors: fieldErrors(parsed.error)
-			});
-		}
+		const parsed = await parseForm(data, orderUpdateSchema, {
+			extra: { form: 'update', orderId: String(data.get('orderId') ?? '') }
+		});
+		if (!parsed.ok) return parsed.failure;
 		const { orderId, ...input } = parsed.data;
 		return jobAction(async () => {
 			await updateOrder(user, event.params.id, orderId, input);
@@ -91,8 +81,11 @@ export const actions: Actions = {
 	},
 	send: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
-		const parsed = orderIdSchema.safeParse(Object.fromEntries(await event.request.formData()));
-		if (!parsed.success) return fail(400, { form: 'send', message: 'Pick an order' });
+		const parsed = await parseForm(event.request, orderIdSchema, {
+			extra: { form: 'send' },
+			message: 'Pick an order'
+		});
+		if (!parsed.ok) return parsed.failure;
 		return jobAction(async () => {
 			await sendOrder(user, event.params.id, parsed.data.orderId);
 			return { form: 'send', orderId: parsed.data.orderId, sent: true };

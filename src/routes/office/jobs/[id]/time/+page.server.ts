@@ -1,5 +1,4 @@
 import { fail } from '@sveltejs/kit';
-import { fieldErrors, formValues } from '$lib/schema/auth';
 import { timeFormSchema } from '$lib/schema/costing';
 import { requireRole } from '$lib/server/auth/access';
 import { orHttp } from '$lib/server/http/domain';
@@ -10,6 +9,7 @@ import { ensureJobTasks } from '$lib/server/costing/tasks';
 import { recordTimeEntries, timeEntriesOf } from '$lib/server/costing/time';
 import { newToken } from '$lib/server/platform/crypto';
 import type { Actions, PageServerLoad } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 export const load: PageServerLoad = async (event) => {
 	const user = requireRole(event, 'owner', 'sales', 'crew');
@@ -36,9 +36,9 @@ export const actions: Actions = {
 	add: async (event) => {
 		const user = requireRole(event, 'owner', 'sales', 'crew');
 		const data = await event.request.formData();
-		const values = formValues(data);
-		const parsed = timeFormSchema.safeParse(values);
-		if (!parsed.success) return fail(400, { values, errors: fieldErrors(parsed.error) });
+		const parsed = await parseForm(data, timeFormSchema);
+		if (!parsed.ok) return parsed.failure;
+		const { values } = parsed;
 		const f = parsed.data;
 		const isNew = f.task === 'new';
 		if (isNew && !f.newTask) {

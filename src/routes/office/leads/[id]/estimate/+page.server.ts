@@ -12,11 +12,12 @@ import { estimatingConfig, loadCatalog } from '$lib/server/pricelist/catalog';
 import { estimateActionSchema } from '$lib/schema/estimates';
 import { firmSettings } from '$lib/server/platform/settings';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
+import { parseForm } from '$lib/server/platform/forms';
 
 /** The estimate a button names, only when it is one of this lead's versions. */
 async function estimateOfThisLead(event: RequestEvent): Promise<string | null> {
-	const parsed = estimateActionSchema.safeParse(Object.fromEntries(await event.request.formData()));
-	if (!parsed.success) return null;
+	const parsed = await parseForm(event.request, estimateActionSchema);
+	if (!parsed.ok) return null;
 	const estimate = await getEstimate(parsed.data.estimateId);
 	return estimate && estimate.leadId === event.params.id ? estimate.id : null;
 }

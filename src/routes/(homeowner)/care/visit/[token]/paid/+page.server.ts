@@ -1,5 +1,5 @@
 import { error } from '@sveltejs/kit';
-import { confirmCareReturn } from '$lib/server/care/subscriptions';
+import { confirmCareReturn } from '$lib/server/care/plan-checkout';
 import { visitForLink } from '$lib/server/care/service';
 import type { PageServerLoad } from './$types';
 

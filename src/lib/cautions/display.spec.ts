@@ -3,16 +3,49 @@ import {
 	changeOrderCautions,
 	CREW_LOCAL_CODES_ITEM,
 	CREW_WALL_ITEM,
-	crewCautions
-} from './job-cautions';
+	crewCautions,
+	visitCautions
+} from './display';
 
-const ids = (lines: { category: string; quantity: number }[]) =>
+const visitIds = (n: Parameters<typeof visitCautions>[0]) => visitCautions(n).map((c) => c.id);
+
+describe('the cautions the visit notes call for', () => {
+	it('always ends with local codes and licensed practice', () => {
+		expect(visitIds({})).toEqual(['local-codes']);
+		expect(visitCautions({}).at(-1)?.title).toBe('Local codes and licensed practice come first');
+	});
+
+	it('adds the wall-height caution for a moderate or steep slope only', () => {
+		expect(visitIds({ slope: 'flat' })).toEqual(['local-codes']);
+		expect(visitIds({ slope: 'gentle' })).toEqual(['local-codes']);
+		expect(visitIds({ slope: 'moderate' })).toEqual(['wall-height', 'local-codes']);
+		const [wall] = visitCautions({ slope: 'steep' });
+		expect(wall.title).toBe('Retaining wall height: permit or engineered design');
+		expect(wall.reason).toContain('A steep slope is levelled with a retaining wall');
+		expect(wall.reference).toContain('IRC R404.4');
+	});
+
+	it('adds the heavy-stone caution with the access width once it is recorded', () => {
+		expect(visitIds({ accessWidthIn: 36, slope: 'steep' })).toEqual([
+			'wall-height',
+			'heavy-lifting',
+			'local-codes'
+		]);
+		const [stones] = visitCautions({ accessWidthIn: 36 });
+		expect(stones.title).toBe('Heavy stones: lift safely');
+		expect(stones.reason).toMatch(/^Stones and boulders brought in through the 36 in access weigh/);
+		expect(stones.reference).toContain('NIOSH');
+		expect(visitIds({ accessWidthIn: 0 })).toContain('heavy-lifting');
+	});
+});
+
+const changeIds = (lines: { category: string; quantity: number }[]) =>
 	changeOrderCautions(lines).map((c) => c.id);
 
 describe('cautions of a change order', () => {
 	it('gives only the local-codes line for stone or labor', () => {
 		expect(
-			ids([
+			changeIds([
 				{ category: 'stone', quantity: 2 },
 				{ category: 'labor', quantity: 4 }
 			])
@@ -21,13 +54,13 @@ describe('cautions of a change order', () => {
 
 	it('adds GFCI and electrician for an added light, pump or electrical line, not a removed one', () => {
 		for (const category of ['lighting', 'electrical', 'pump', 'Lighting']) {
-			expect(ids([{ category, quantity: 1 }])).toEqual([
+			expect(changeIds([{ category, quantity: 1 }])).toEqual([
 				'ground-fault-protection',
 				'licensed-electrician',
 				'local-codes'
 			]);
 		}
-		expect(ids([{ category: 'lighting', quantity: -1 }])).toEqual(['local-codes']);
+		expect(changeIds([{ category: 'lighting', quantity: -1 }])).toEqual(['local-codes']);
 	});
 
 	it('adds the wall-height caution for an added wall', () => {

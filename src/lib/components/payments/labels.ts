@@ -1,6 +1,4 @@
-export const money = (cents: number) =>
-	new Intl.NumberFormat('en-US', { style: 'currency', currency: 'USD' }).format(cents / 100);
-
+// How the payment methods and kinds read on pages.
 export const METHOD_LABELS: Record<string, string> = {
 	card: 'Card',
 	cheque: 'Cheque',
