@@ -50,22 +50,24 @@ END $$;
 CREATE TRIGGER leads_list_changes AFTER INSERT OR UPDATE OR DELETE OR TRUNCATE ON "leads"
 	FOR EACH STATEMENT EXECUTE FUNCTION rillstone_lead_list_changes_trg();
 --> statement-breakpoint
--- 3. `lead_words`: every word of search_words once (not the `~` lexemes), kept by statement-level
+-- 3. `lead_words`: every word of search_words (not the `~` lexemes), kept by statement-level
 --    triggers on leads (new words only; a word no lead holds any more stays, harmlessly). A word
 --    searched for matches by its start; a prefix match in the GIN index ("patio:*") collects every
 --    posting of every matching word into a bitmap before it can intersect anything, several times
 --    the cost of exact words. `rillstone_words_query` looks the starts up here first and asks the
 --    index for those exact words (`'patio' | 'patios'`), keeping the prefix match only for a start
---    shared by more than 32 words.
-CREATE TABLE IF NOT EXISTS "lead_words" ("word" text COLLATE "C" PRIMARY KEY);
+--    shared by more than 32 words. No unique key: a writer adds the words it does not see, never
+--    waiting on another writer's uncommitted words, so two writers may add the same new word
+--    twice, which the lookup's DISTINCT absorbs.
+CREATE TABLE IF NOT EXISTS "lead_words" ("word" text COLLATE "C" NOT NULL);
+--> statement-breakpoint
+CREATE INDEX IF NOT EXISTS "lead_words_word_idx" ON "lead_words" ("word");
 --> statement-breakpoint
 CREATE OR REPLACE FUNCTION rillstone_lead_words_trg() RETURNS trigger LANGUAGE plpgsql AS $$
 BEGIN
 	INSERT INTO lead_words (word)
 	SELECT DISTINCT w FROM new_rows n, unnest(tsvector_to_array(n.search_words)) w
-	WHERE left(w, 1) <> '~'
-	ORDER BY 1
-	ON CONFLICT DO NOTHING;
+	WHERE left(w, 1) <> '~' AND NOT EXISTS (SELECT 1 FROM lead_words x WHERE x.word = w);
 	RETURN NULL;
 END $$;
 --> statement-breakpoint
@@ -79,8 +81,7 @@ CREATE TRIGGER leads_words_update AFTER UPDATE ON "leads"
 --> statement-breakpoint
 INSERT INTO lead_words (word)
 SELECT DISTINCT w FROM leads, unnest(tsvector_to_array(search_words)) w
-WHERE left(w, 1) <> '~'
-ON CONFLICT DO NOTHING;
+WHERE left(w, 1) <> '~';
 --> statement-breakpoint
 -- Each part must begin a word: the tsquery of all parts (AND), each part the OR of the words it
 -- begins, or its prefix match when it begins more than 32 (or does not make exactly one lexeme).
@@ -97,7 +98,7 @@ BEGIN
 		lexemes := tsvector_to_array(to_tsvector('public.rillstone_names'::regconfig, part));
 		IF cardinality(lexemes) = 1 THEN
 			words := array(
-				SELECT word FROM lead_words
+				SELECT DISTINCT word FROM lead_words
 				WHERE word >= lexemes[1] AND word < lexemes[1] || chr(1114111)
 				ORDER BY word LIMIT 33
 			);
