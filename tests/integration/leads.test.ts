@@ -201,6 +201,69 @@ describe('GET /api/leads: stage counts kept by triggers', () => {
 		expect(searched.facets).toMatchObject({ new: 1, contacted: 0 });
 	});
 
+	it('keep the counts of a searched view between its pages and stage chips until a lead changes', async () => {
+		for (let i = 0; i < 30; i++) {
+			await makeLead({
+				message: 'A fountain by the patio',
+				services: ['water-feature'],
+				createdAt: ago(100 + i)
+			});
+		}
+		const view = 'q=patio&service=water-feature';
+		const first = await list(view);
+		expect(first.facets).toMatchObject({ new: 31, contacted: 0 });
+		expect(first.total).toBe(31);
+		const second = await list(`${view}&page=2`);
+		expect(second.rows).toHaveLength(6);
+		expect(second.facets).toEqual(first.facets);
+		expect((await list(`${view}&stage=contacted`)).rows).toEqual([]);
+
+		await changeStage(owner.id, set.ada.id, { version: set.ada.version, stage: 'contacted' });
+		const moved = await list(`${view}&stage=contacted`);
+		expect(names(moved)).toEqual(['Ada']);
+		expect(moved.facets).toMatchObject({ new: 30, contacted: 1 });
+
+		// A change not yet committed is not counted; once committed, it is.
+		const [other] =
+			await client`select id from leads where stage = 'new' and message like '%fountain%' limit 1`;
+		await client.begin(async (tx) => {
+			await tx`update leads set stage = 'sold' where id = ${other.id}`;
+			expect((await list(`${view}&page=2`)).facets).toMatchObject({ new: 30, sold: 0 });
+		});
+		const sold = await list(`${view}&page=2`);
+		expect(sold.facets).toMatchObject({ new: 29, contacted: 1, sold: 1 });
+		expect(sold.total).toBe(31);
+
+		// A renamed contact changes what the words find.
+		await client`update contacts set name = 'Ada Patio' where id = ${set.ada.contactId}`;
+		await client`update leads set message = 'A boulder' where id = ${set.ada.id}`;
+		expect((await list(`${view}&stage=contacted`)).total).toBe(1);
+		await client`update contacts set name = 'Ada Brookstone' where id = ${set.ada.contactId}`;
+		const gone = await list(`${view}&stage=contacted`);
+		expect(gone.rows).toEqual([]);
+		expect(gone.facets).toMatchObject({ new: 29, contacted: 0, sold: 1 });
+	});
+
+	it('read only the page while the counts of the view are kept', async () => {
+		const q = parseLeadQuery(new URLSearchParams('q=patio&service=water-feature&stage=new')).data!;
+		const run = (kept: string | null) => {
+			const s = listSql(q, ctxOf(owner), false, kept);
+			return client.unsafe(s.text, s.params as never[]);
+		};
+		const cold = await run(null);
+		expect(cold[0]._counted).toBe(true);
+		expect(cold[0]._facets).toEqual({ new: 1 });
+		const warm = await run(cold[0]._snapshot);
+		expect(warm[0]._counted).toBe(false);
+		expect(warm[0]._facets).toEqual({});
+		expect(warm.map((r) => r.id)).toEqual([set.ada.id]);
+		await makeLead({ name: 'Eli Fenn', message: 'patio pool', services: ['water-feature'] });
+		const after = await run(cold[0]._snapshot);
+		expect(after[0]._counted).toBe(true);
+		expect(after[0]._facets).toEqual({ new: 2 });
+		expect(after.map((r) => r.name)).toEqual(['Eli Fenn', 'Ada Brookstone']);
+	});
+
 	it('sort by a renamed contact and a moved property at once (sort keys kept by triggers)', async () => {
 		await client`update contacts set name = 'Zora Brookstone' where id = ${set.ada.contactId}`;
 		await client`update properties set town = 'Yellow Pine' where id = ${set.ada.propertyId}`;
@@ -250,6 +313,21 @@ describe('GET /api/leads: search', () => {
 		expect(names(await list('q=lefèvre&service=pond'))).toEqual(['Zoë']);
 		expect(names(await list('q=lefèvre&service=patio&service=lighting'))).toEqual([]);
 		expect(names(await list('q=brookstone&service=pond&service=water-feature'))).toEqual(['Ada']);
+	});
+
+	it('finds a word by its start when edits bring new words, and when many words share the start', async () => {
+		await makeLead({ name: 'Gil Quarryman' });
+		expect(names(await list('q=quarry'))).toEqual(['Gil']);
+		await client`update contacts set name = 'Ada Quarrystone' where id = ${set.ada.contactId}`;
+		expect(names(await list('q=quarry'))).toEqual(['Gil', 'Ada']);
+		await client`update leads set message = 'A quarrying question' where id = ${set.ben.id}`;
+		expect(names(await list('q=quarry'))).toEqual(['Gil', 'Ben', 'Ada']);
+		const letter = (i: number) => String.fromCharCode(97 + i);
+		for (let i = 0; i < 40; i++) {
+			await makeLead({ message: `A zz${letter(i % 26)}${letter(Math.floor(i / 26))} pond` });
+		}
+		expect((await list('q=zz')).total).toBe(40);
+		expect((await list('q=zzb pond')).total).toBe(2);
 	});
 
 	it('finds a word that is only part of an e-mail address, such as its mail domain', async () => {

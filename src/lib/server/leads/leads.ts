@@ -5,7 +5,14 @@
 import { DomainError } from '../platform/errors';
 import { and, asc, eq, inArray, isNull, sql } from 'drizzle-orm';
 import { STAGES, type LeadQuery, type Stage } from '$lib/schema/leads';
-import { assembleList, listSql, searchParts, type LeadList, type ListContext } from './list-sql';
+import {
+	KeptFacets,
+	runList,
+	searchParts,
+	type LeadList,
+	type ListContext,
+	type RunStatement
+} from './list-sql';
 import { inZone } from '$lib/firm-time';
 import { client, db, type Tx } from '../platform/db';
 import {
@@ -33,11 +40,14 @@ export {
 
 type Param = Parameters<typeof client.unsafe>[1];
 
+/** Facets counted exactly, kept per view while no lead changes (see listSql). */
+const keptFacets = new KeptFacets();
+
+const runStatement: RunStatement = (s) =>
+	client.unsafe(s.text, s.params as Param, { prepare: true });
+
 export async function listLeads(q: LeadQuery, ctx: ListContext): Promise<LeadList> {
-	const run = async (asTyped: boolean) => {
-		const s = listSql(q, ctx, asTyped);
-		return assembleList(q, await client.unsafe(s.text, s.params as Param, { prepare: true }));
-	};
+	const run = (asTyped: boolean) => runList(q, ctx, keptFacets, runStatement, asTyped);
 	const list = await run(false);
 	// The word search knows whole tokens only, and keeps an e-mail address as one: the "gmail"
 	// of "ada@gmail.example" is no word of it. When the words find

@@ -11,7 +11,13 @@
 // - a search first collects its matches once (a materialised CTE, so the planner cannot turn it
 //   into a walk of the newest leads): words through the full-text GIN index of search_words, other
 //   fragments through the trigram index of search_text (searchParts); both the page and the
-//   facets are taken from that set.
+//   facets are taken from that set;
+// - facets counted exactly (service, dates, search) are kept by the caller with the snapshot they
+//   were counted in (KeptFacets): the next page or stage chip of the same view passes that
+//   snapshot back, and the statement counts again only if a transaction it could not see has
+//   since changed leads (`lead_list_changes`). Otherwise it reads only the page: for a search,
+//   the GIN scan then takes the stage too (the `~stage:` lexemes of search_words), so it reads
+//   the page's stages only, not every match.
 import { BUDGETS, STAGES, type LeadQuery, type Stage } from '../../schema/leads';
 
 /** Days are the firm's days: the time zone comes from the settings row, inside the query. */
@@ -85,13 +91,28 @@ export function searchTerms(q: string | undefined): string[] {
 const serviceQuery = (services: string[]) =>
 	services.map((s) => `'~service:${s.replace(/\\/g, '\\\\').replace(/'/g, "''")}'`).join(' | ');
 
+/** Any of these stages, as a tsquery of the lexemes `~stage:<stage>` in search_words. */
+const stageQuery = (stages: readonly Stage[]) => stages.map((s) => `'~stage:${s}'`).join(' | ');
+
+/**
+ * Any of these services in any of these stages, as a tsquery of the lexemes
+ * `~service-stage:<key>:<stage>` in search_words (far rarer than either alone).
+ */
+const serviceStageQuery = (services: string[], stages: readonly Stage[]) =>
+	services
+		.flatMap((s) => {
+			const key = s.replace(/\\/g, '\\\\').replace(/'/g, "''");
+			return stages.map((st) => `'~service-stage:${key}:${st}'`);
+		})
+		.join(' | ');
+
 /** A word of a name, town or message: letters, maybe joined by apostrophes or hyphens. */
 const WORD = /^[\p{L}\p{M}]+(?:['’-][\p{L}\p{M}]+)*$/u;
 
 /**
  * How each term is searched. A word ("brookstone", "o'rourke", "saint-étienne") goes to full-text
- * search: each of its parts must begin a word of the lead (`search_words`, accents ignored), all
- * of them in one tsquery. Anything else (digits, "@", ".", "%"…: phone numbers and e-mail
+ * search: each of its parts (`words`) must begin a word of the lead (`search_words`, accents
+ * ignored), all of them in one tsquery. Anything else (digits, "@", ".", "%"…: phone numbers and e-mail
  * fragments) must appear as typed in `search_text`, through the trigram index.
  * With `asTyped`, every term is a fragment: the second try of a word search that found nothing,
  * for words that are only part of a token of the simple parser, such as the "gmail" of an
@@ -100,14 +121,14 @@ const WORD = /^[\p{L}\p{M}]+(?:['’-][\p{L}\p{M}]+)*$/u;
 export function searchParts(
 	q: string | undefined,
 	asTyped = false
-): { words: string | null; fragments: string[] } {
+): { words: string[] | null; fragments: string[] } {
 	const words: string[] = [];
 	const fragments: string[] = [];
 	for (const term of searchTerms(q)) {
-		if (!asTyped && WORD.test(term)) words.push(...term.split(/['’-]/).map((part) => `${part}:*`));
+		if (!asTyped && WORD.test(term)) words.push(...term.split(/['’-]/));
 		else fragments.push(term);
 	}
-	return { words: words.length ? words.join(' & ') : null, fragments };
+	return { words: words.length ? words : null, fragments };
 }
 
 /** Numbered parameters shared by every part of one statement. */
@@ -122,13 +143,17 @@ class Params {
 const stageClause = (q: LeadQuery, p: Params, alias: string) =>
 	`${alias}.stage = any(${p.add(q.stage)}::lead_stage[])`;
 
-/** The filters other than stage, on leads `l`. */
+/**
+ * The filters other than stage, on leads `l`. With `stageInWords`, a word search also takes the
+ * stage filter into its tsquery (the caller then adds no stage clause when `words` is set).
+ */
 function filterClauses(
 	q: LeadQuery,
 	ctx: ListContext,
 	p: Params,
 	search = true,
-	asTyped = false
+	asTyped = false,
+	stageInWords = false
 ): string[] {
 	const clauses: string[] = [];
 	const words = search ? searchParts(q.q, asTyped).words : null;
@@ -148,12 +173,16 @@ function filterClauses(
 		if (words) {
 			// With words to look for, the service filter joins the same tsquery (the services are
 			// lexemes of search_words too), so one GIN scan answers both.
-			const tsquery = `to_tsquery('public.rillstone_names', ${p.add(words)})`;
-			clauses.push(
-				q.service.length
-					? `l.search_words @@ (${tsquery} && ${p.add(serviceQuery(q.service))}::tsquery)`
-					: `l.search_words @@ ${tsquery}`
-			);
+			// rillstone_words_query: each part must begin a word, asked as the exact words it begins
+			// (from `lead_words`), far cheaper in the GIN index than a prefix match. In a sub-select,
+			// so that it runs once per statement, never once per row.
+			const parts = [`rillstone_words_query(${p.add(words)}::text[])`];
+			const stages = stageInWords && q.stage.length > 0;
+			if (q.service.length && stages) {
+				parts.push(`${p.add(serviceStageQuery(q.service, q.stage))}::tsquery`);
+			} else if (q.service.length) parts.push(`${p.add(serviceQuery(q.service))}::tsquery`);
+			else if (stages) parts.push(`${p.add(stageQuery(q.stage))}::tsquery`);
+			clauses.push(`l.search_words @@ (select ${parts.join(' && ')})`);
 		}
 		for (const term of searchParts(q.q, asTyped).fragments) {
 			clauses.push(`l.search_text like ${p.add(`%${escapeLike(term)}%`)}`);
@@ -177,44 +206,178 @@ function countedFacets(q: LeadQuery, ctx: ListContext, p: Params): string | null
 }
 
 /**
+ * Whether the stage facets of a view are counted exactly (service, dates or search filter it)
+ * rather than summed from `lead_counts`.
+ */
+const countsExactly = (q: LeadQuery) =>
+	q.service.length > 0 || !!q.from || !!q.to || searchTerms(q.q).length > 0;
+
+/**
+ * True when the facets must be counted: no snapshot was kept, or a transaction that the kept
+ * snapshot could not see has since committed a change to leads (one row of `lead_list_changes`
+ * per writing transaction, kept by a trigger).
+ */
+function recountSql(p: Params, kept: string | null): string {
+	const s = `${p.add(kept)}::pg_snapshot`;
+	return `(${s} is null or exists (
+		select 1 from lead_list_changes x
+		where x.xid >= pg_snapshot_xmin(${s}) and not pg_visible_in_snapshot(x.xid, ${s})
+	))`;
+}
+
+/**
  * The one statement of a list page: a row per lead of the page, each carrying the stage facets
  * (`_facets`) and its sort key (`_k`); a single row of nulls with the facets when the page is empty.
  * Facets count every stage under the other filters, so the stage chips show what a click gives.
+ *
+ * `kept` is the snapshot (`_snapshot` of an earlier answer of the same view, see facetsKey) in
+ * which the caller counted the facets it still holds. When no lead has changed since, the
+ * statement leaves the facets out (`_counted` false, `_facets` empty) and reads only the page.
  */
-export function listSql(q: LeadQuery, ctx: ListContext, asTyped = false): Statement {
+export function listSql(
+	q: LeadQuery,
+	ctx: ListContext,
+	asTyped = false,
+	kept: string | null = null
+): Statement {
 	const p = new Params();
 	const dir = q.dir === 'asc' ? 'asc' : 'desc';
 	// Parameters, not literals: the statement's text stays the same from page to page, so one
 	// prepared statement (and its plan) serves every page of a view.
 	const paging = `limit ${p.add(q.size)}::int offset ${p.add((q.page - 1) * q.size)}::int`;
 	const key = SORT_SQL[q.sort];
+	const exact = countsExactly(q);
+	// `c` is evaluated once (an InitPlan); `(select recount from c)` in a WHERE is a one-time
+	// filter, so the branch it turns off is never run.
+	const recount = exact ? `c as materialized (select ${recountSql(p, kept)} as recount),` : '';
 	let ctes: string;
 	if (searchTerms(q.q).length) {
 		const matches = filterClauses(q, ctx, p, true, asTyped);
+		matches.push('(select recount from c)');
 		const stage = q.stage.length ? `where ${stageClause(q, p, 'm')}` : '';
-		ctes = `m as materialized (
+		// The page alone, when the facets are kept: the stage filter joins the tsquery of a word
+		// search, so the GIN scan yields the page's stages only.
+		const alone = filterClauses(q, ctx, p, true, asTyped, true);
+		if (q.stage.length && !searchParts(q.q, asTyped).words) alone.push(stageClause(q, p, 'l'));
+		alone.push('not (select recount from c)');
+		ctes = `${recount}
+	m as materialized (
 		select l.id, l.stage, l.number, ${key} as k from leads l ${where(matches)}
 	),
 	f as (select stage, count(*)::int as n from m group by stage),
-	pg as (select id, k, number from m ${stage} order by k ${dir}, number ${dir} ${paging})`;
+	pg as (
+		select id, k, number from (
+			select id, k, number from m ${stage}
+			union all
+			select l.id, ${key}, l.number from leads l ${where(alone)}
+		) x
+		order by k ${dir}, number ${dir} ${paging}
+	)`;
 	} else {
-		const facets =
-			countedFacets(q, ctx, p) ??
-			`select l.stage, count(*)::int as n from leads l ${where(filterClauses(q, ctx, p))} group by l.stage`;
+		let facets = countedFacets(q, ctx, p);
+		if (!facets) {
+			const clauses = filterClauses(q, ctx, p);
+			clauses.push('(select recount from c)');
+			facets = `select l.stage, count(*)::int as n from leads l ${where(clauses)} group by l.stage`;
+		}
 		const clauses = filterClauses(q, ctx, p);
 		if (q.stage.length) clauses.unshift(stageClause(q, p, 'l'));
-		ctes = `f as (${facets}),
+		ctes = `${recount}
+	f as (${facets}),
 	pg as (
 		select l.id, ${key} as k, l.number from leads l ${where(clauses)}
 		order by ${key} ${dir}, l.number ${dir} ${paging}
 	)`;
 	}
+	const counted = exact ? '(select recount from c)' : 'true';
 	const text = `with ${ctes},
-	fx as (select coalesce(json_object_agg(stage, n), '{}'::json) as "_facets" from f),
+	fx as (
+		select coalesce(json_object_agg(stage, n), '{}'::json) as "_facets",
+			${counted} as "_counted", pg_current_snapshot()::text as "_snapshot"
+		from f
+	),
 	r as (select pg.k as "_k", ${ROW_COLUMNS} from pg join leads l on l.id = pg.id ${ROW_JOINS})
-	select fx."_facets", r.* from fx left join r on true
+	select fx."_facets", fx."_counted", fx."_snapshot", r.* from fx left join r on true
 	order by r."_k" ${dir}, r.number ${dir}`;
 	return { text, params: p.values };
+}
+
+/**
+ * The key under which the facets of a view may be kept between its pages and stage chips: every
+ * filter but stage (and sort and paging, which do not change the counts). Null when the facets
+ * come from `lead_counts` anyway, or depend on the firm's time zone (dates), which a change of
+ * the settings could move without touching a lead.
+ */
+export function facetsKey(q: LeadQuery, ctx: ListContext, asTyped = false): string | null {
+	if (!countsExactly(q) || q.from || q.to) return null;
+	return JSON.stringify([
+		[...q.service].sort(),
+		[...q.budget].sort(),
+		q.assignee === 'mine' ? ctx.userId : (q.assignee ?? null),
+		q.awaiting,
+		searchTerms(q.q),
+		asTyped
+	]);
+}
+
+interface KeptEntry {
+	snapshot: string;
+	facets: Record<Stage, number>;
+	at: number;
+}
+
+/**
+ * Facets counted exactly, each with the snapshot it was counted in, for the views seen lately
+ * (at most `max`, each for at most `ttlMs`; `lead_list_changes` keeps a day of changes, far more).
+ */
+export class KeptFacets {
+	readonly #entries = new Map<string, KeptEntry>();
+	constructor(
+		readonly max = 200,
+		readonly ttlMs = 10 * 60_000
+	) {}
+
+	get(key: string | null): KeptEntry | undefined {
+		if (key === null) return undefined;
+		const entry = this.#entries.get(key);
+		if (!entry) return undefined;
+		this.#entries.delete(key);
+		if (Date.now() - entry.at > this.ttlMs) return undefined;
+		this.#entries.set(key, entry); // most recently used last
+		return entry;
+	}
+
+	set(key: string | null, snapshot: string | null, facets: Record<Stage, number>): void {
+		if (key === null || !snapshot) return;
+		this.#entries.delete(key);
+		this.#entries.set(key, { snapshot, facets, at: Date.now() });
+		while (this.#entries.size > this.max) {
+			this.#entries.delete(this.#entries.keys().next().value!);
+		}
+	}
+}
+
+export type RunStatement = (s: Statement) => Promise<readonly Record<string, unknown>[]>;
+
+/**
+ * One list page through `run` (the app's client or the benchmark's), reusing the facets of the
+ * same view kept in `kept` while no lead has changed, and keeping those it counts.
+ */
+export async function runList(
+	q: LeadQuery,
+	ctx: ListContext,
+	kept: KeptFacets,
+	run: RunStatement,
+	asTyped = false
+): Promise<LeadList> {
+	const key = facetsKey(q, ctx, asTyped);
+	const held = kept.get(key);
+	const result = await run(listSql(q, ctx, asTyped, held?.snapshot ?? null));
+	const counted = result[0]?._counted !== false;
+	if (!counted && held) return assembleList(q, result, held.facets);
+	const list = assembleList(q, result);
+	kept.set(key, (result[0]?._snapshot as string | undefined) ?? null, list.facets);
+	return list;
 }
 
 /** The export's columns, in the file's order; times are formatted by PostgreSQL (see exportSql). */
@@ -367,10 +530,17 @@ export function leadRow(r: Record<string, unknown>): LeadRow {
 	};
 }
 
-/** The API's answer from the rows of listSql: the page, the facets per stage and the total. */
-export function assembleList(q: LeadQuery, result: readonly Record<string, unknown>[]): LeadList {
+/**
+ * The API's answer from the rows of listSql: the page, the facets per stage (`keptFacets` when
+ * the statement left them out) and the total.
+ */
+export function assembleList(
+	q: LeadQuery,
+	result: readonly Record<string, unknown>[],
+	keptFacets?: Record<Stage, number>
+): LeadList {
 	const facets = Object.fromEntries(STAGES.map((st) => [st, 0])) as Record<Stage, number>;
-	const counted = (result[0]?._facets ?? {}) as Partial<Record<Stage, number>>;
+	const counted = (keptFacets ?? result[0]?._facets ?? {}) as Partial<Record<Stage, number>>;
 	for (const st of STAGES) facets[st] = counted[st] ?? 0;
 	const inView: readonly Stage[] = q.stage.length ? q.stage : STAGES;
 	return {
