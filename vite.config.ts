@@ -17,7 +17,10 @@ export default defineConfig({
 				test: {
 					name: 'unit',
 					environment: 'node',
-					include: ['src/**/*.{spec,test}.ts', 'scripts/**/*.{spec,test}.ts']
+					include: ['src/**/*.{spec,test}.ts', 'scripts/**/*.{spec,test}.ts'],
+					// The engine's property tests try hundreds of random designs each: a few seconds on
+					// an idle machine, more on a shared one, which is not a failure of the engine.
+					testTimeout: 30_000
 				}
 			},
 			{
