@@ -15,6 +15,9 @@ describe('firm time', () => {
 		const evening = new Date('2027-05-15T03:00:00Z');
 		expect(inZone(evening, 'America/Denver', 'date')).toBe('May 14, 2027');
 		expect(inZone(evening, 'UTC', 'date')).toBe('May 15, 2027');
+		// The office's tables: an acceptance at 9 PM in Denver is dated that day, not the next.
+		expect(inZone(evening, 'America/Denver', 'numericDay')).toBe('5/14/2027');
+		expect(inZone(evening, 'America/Denver', 'numericWhen')).toBe('5/14/2027, 9:00 PM');
 	});
 	it('reads a calendar day as the date it names, whatever the zone', () => {
 		expect(calendarDay('2027-05-14')).toBe('Fri, May 14');

@@ -57,6 +57,16 @@ const STYLES = {
 	dateFull: { dateStyle: 'full' },
 	/** "9:30 AM" */
 	clock: { hour: 'numeric', minute: '2-digit' },
+	/** "5/14/2027" (tables and short notes) */
+	numericDay: { month: 'numeric', day: 'numeric', year: 'numeric' },
+	/** "5/14/2027, 9:30 AM" */
+	numericWhen: {
+		month: 'numeric',
+		day: 'numeric',
+		year: 'numeric',
+		hour: 'numeric',
+		minute: '2-digit'
+	},
 	/** "Fri, May 14, 9:30 AM MDT" */
 	whenShort: {
 		weekday: 'short',
