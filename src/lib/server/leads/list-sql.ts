@@ -427,16 +427,17 @@ function csvCellSql(v: string): string {
 
 /**
  * Every row of a filtered view (no paging, no facets), for the CSV export: one column, `line`,
- * each lead's CSV line (columns of EXPORT_COLUMNS, CRLF at the end), in the view's order. PostgreSQL writes the times as the office reads them
- * ("Dec 3, 5:14 PM" in the firm's time zone, as `formatWhen` writes them) and the labels from the
- * maps given, quoting and formula neutralising as `csvLine`. Streaming 100,000 rows then costs
- * the app one string per row, no Date object and no formatter. Times always hold a comma and
- * start with a month, so they come quoted without the cell rules.
+ * each lead's CSV line (columns of EXPORT_COLUMNS, CRLF at the end), in the view's order.
+ * PostgreSQL writes the times as the office reads them ("Dec 3, 5:14 PM" in the firm's time zone,
+ * as `formatWhen` writes them) and the labels from the maps given, quoting and formula
+ * neutralising as `csvLine`. Streaming 100,000 rows then costs the app one string per row, no
+ * Date object and no formatter. Times always hold a comma and start with a month, so they come
+ * quoted without the cell rules.
  *
  * The inner query joins, filters and sorts the raw columns only; the middle one makes the cells
- * (a fence, so that each is made once) and the outer one the line.
- * Sorting first lets PostgreSQL hand out the first batch as soon as the sort is done and make the
- * next batch while the app writes the previous one, instead of making every cell before sorting.
+ * (a fence, so that each is made once) and the outer one the line. Sorting first lets PostgreSQL
+ * hand out the first batch as soon as the sort is done and make the next batch while the app
+ * writes the previous one, instead of making every cell before sorting.
  */
 export function exportSql(
 	q: LeadQuery,
@@ -468,30 +469,36 @@ export function exportSql(
 		lastTouch: 'l.last_touch_at'
 	};
 	const x = (key: keyof typeof raw) => `x."${key}"`;
+	// A cell is SQL for its text, and whether that text is already CSV (else the cell rules apply).
+	const asCsv = (sql: string) => ({ sql, isCsv: true });
+	const asText = (sql: string) => ({ sql, isCsv: false });
 	const quotedWhen = (key: keyof typeof raw) =>
-		`case when ${x(key)} is null then '' else '"' || to_char(${x(key)} at time zone ${tz}::text, 'Mon FMDD, FMHH12:MI AM') || '"' end`;
+		asCsv(
+			`case when ${x(key)} is null then '' else '"' || to_char(${x(key)} at time zone ${tz}::text, 'Mon FMDD, FMHH12:MI AM') || '"' end`
+		);
 	const cells = [
-		`'R-' || ${x('number')}`,
+		asCsv(`'R-' || ${x('number')}`),
 		quotedWhen('created'),
-		x('name'),
-		x('email'),
-		x('phone'),
-		x('town'),
-		`array_to_string(array(select ${service} from unnest(${x('services')}) with ordinality as u(s, i) order by i), '; ')`,
-		labelSql(x('budget'), labels.budgets, p),
-		labelSql(x('stage'), labels.stages, p),
-		x('close'),
-		x('assignee'),
-		x('priority'),
-		x('source'),
+		asText(x('name')),
+		asText(x('email')),
+		asText(x('phone')),
+		asText(x('town')),
+		asText(
+			`array_to_string(array(select ${service} from unnest(${x('services')}) with ordinality as u(s, i) order by i), '; ')`
+		),
+		asText(labelSql(x('budget'), labels.budgets, p)),
+		asText(labelSql(x('stage'), labels.stages, p)),
+		asText(x('close')),
+		asText(x('assignee')),
+		asText(x('priority')),
+		asText(x('source')),
 		quotedWhen('firstReply'),
 		quotedWhen('lastTouch')
 	];
-	const isCsv = [0, 1, 13, 14];
-	const line = cells.map((_, i) => (isCsv.includes(i) ? `y.c${i}` : csvCellSql(`y.c${i}`)));
+	const line = cells.map((c, i) => (c.isCsv ? `y.c${i}` : csvCellSql(`y.c${i}`)));
 	const text = `/* leads export */ select ${line.join(` || ',' || `)} || chr(13) || chr(10) as line
 	from (
-		select ${cells.map((c, i) => `${c} as c${i}`).join(', ')}
+		select ${cells.map((c, i) => `${c.sql} as c${i}`).join(', ')}
 		from (
 			select ${Object.entries(raw)
 				.map(([key, column]) => `${column} as "${key}"`)
