@@ -24,7 +24,8 @@ import { appEnv, databaseUrl } from '../lib/config';
 import { buildIfNeeded } from '../lib/build';
 import { DEMO_STAFF } from '../seed/demo-data';
 import { parseLeadQuery } from '../../src/lib/schema/leads';
-import { facetsKey, KeptFacets, listSql, runList } from '../../src/lib/server/leads/list-sql';
+import { facetsKey, listSql } from '../../src/lib/server/leads/list-sql';
+import { KeptFacets, runList } from '../../src/lib/server/leads/kept-facets';
 
 const url = process.env.DATABASE_URL ?? databaseUrl('dev');
 const POOL = 10;

@@ -12,7 +12,8 @@
 import { csvLine } from '$lib/csv';
 import { BUDGET_LABELS, SERVICE_LABELS, STAGE_LABELS, type LeadQuery } from '$lib/schema/leads';
 import { client } from '../platform/db';
-import { EXPORT_COLUMNS, exportSql, type ListContext } from './list-sql';
+import { EXPORT_COLUMNS, exportSql } from './export-sql';
+import type { ListContext } from './list-sql';
 
 /** Rows per cursor batch: about 400 KB of CSV, one round trip per batch. */
 export const EXPORT_BATCH_ROWS = 2000;

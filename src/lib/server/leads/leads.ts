@@ -5,14 +5,8 @@
 import { DomainError } from '../platform/errors';
 import { and, asc, eq, inArray, isNull, sql } from 'drizzle-orm';
 import { STAGES, type LeadQuery, type Stage } from '$lib/schema/leads';
-import {
-	KeptFacets,
-	runList,
-	searchParts,
-	type LeadList,
-	type ListContext,
-	type RunStatement
-} from './list-sql';
+import { searchParts, type LeadList, type ListContext } from './list-sql';
+import { KeptFacets, runList, type RunStatement } from './kept-facets';
 import { inZone } from '$lib/firm-time';
 import { client, db, type Tx } from '../platform/db';
 import {
@@ -29,14 +23,8 @@ import { firmSettings } from '../platform/settings';
 
 // --- the list ----------------------------------------------------------------------------------
 
-export {
-	exportSql,
-	listSql,
-	searchTerms,
-	type LeadList,
-	type LeadRow,
-	type ListContext
-} from './list-sql';
+export { exportSql } from './export-sql';
+export { listSql, searchTerms, type LeadList, type LeadRow, type ListContext } from './list-sql';
 
 type Param = Parameters<typeof client.unsafe>[1];
 

@@ -61,7 +61,7 @@ export interface LeadList {
 }
 
 /** Each sort key is a column of leads (name and town are kept there by triggers) with an index. */
-const SORT_SQL: Record<LeadQuery['sort'], string> = {
+export const SORT_SQL: Record<LeadQuery['sort'], string> = {
 	received: 'l.created_at',
 	name: 'l.sort_name',
 	town: 'l.sort_town',
@@ -75,7 +75,7 @@ const ROW_COLUMNS = `l.id, l.number, l.created_at as "createdAt", l.stage, l.ser
 		l.close_reason as "closeReason", l.assignee_id as "assigneeId", u.name as "assigneeName",
 		c.name, c.email, c.phone, p.town`;
 
-const ROW_JOINS = `join contacts c on c.id = l.contact_id
+export const ROW_JOINS = `join contacts c on c.id = l.contact_id
 	left join properties p on p.id = l.property_id
 	left join users u on u.id = l.assignee_id`;
 
@@ -132,7 +132,7 @@ export function searchParts(
 }
 
 /** Numbered parameters shared by every part of one statement. */
-class Params {
+export class Params {
 	readonly values: unknown[] = [];
 	add(v: unknown): string {
 		this.values.push(v);
@@ -140,14 +140,14 @@ class Params {
 	}
 }
 
-const stageClause = (q: LeadQuery, p: Params, alias: string) =>
+export const stageClause = (q: LeadQuery, p: Params, alias: string) =>
 	`${alias}.stage = any(${p.add(q.stage)}::lead_stage[])`;
 
 /**
  * The filters other than stage, on leads `l`. With `stageInWords`, a word search also takes the
  * stage filter into its tsquery (the caller then adds no stage clause when `words` is set).
  */
-function filterClauses(
+export function filterClauses(
 	q: LeadQuery,
 	ctx: ListContext,
 	p: Params,
@@ -191,7 +191,8 @@ function filterClauses(
 	return clauses;
 }
 
-const where = (clauses: string[]) => (clauses.length ? `where ${clauses.join(' and ')}` : '');
+export const where = (clauses: string[]) =>
+	clauses.length ? `where ${clauses.join(' and ')}` : '';
 
 /** Facets from the counter table: possible when every filter but stage is one of its keys. */
 function countedFacets(q: LeadQuery, ctx: ListContext, p: Params): string | null {
@@ -320,201 +321,9 @@ export function facetsKey(q: LeadQuery, ctx: ListContext, asTyped = false): stri
 	]);
 }
 
-interface KeptEntry {
-	snapshot: string;
-	facets: Record<Stage, number>;
-	at: number;
-}
-
-/**
- * Facets counted exactly, each with the snapshot it was counted in, for the views seen lately
- * (at most `max`, each for at most `ttlMs`; `lead_list_changes` keeps a day of changes, far more).
- */
-export class KeptFacets {
-	readonly #entries = new Map<string, KeptEntry>();
-	constructor(
-		readonly max = 200,
-		readonly ttlMs = 10 * 60_000
-	) {}
-
-	get(key: string | null): KeptEntry | undefined {
-		if (key === null) return undefined;
-		const entry = this.#entries.get(key);
-		if (!entry) return undefined;
-		this.#entries.delete(key);
-		if (Date.now() - entry.at > this.ttlMs) return undefined;
-		this.#entries.set(key, entry); // most recently used last
-		return entry;
-	}
-
-	set(key: string | null, snapshot: string | null, facets: Record<Stage, number>): void {
-		if (key === null || !snapshot) return;
-		this.#entries.delete(key);
-		this.#entries.set(key, { snapshot, facets, at: Date.now() });
-		while (this.#entries.size > this.max) {
-			this.#entries.delete(this.#entries.keys().next().value!);
-		}
-	}
-}
-
-export type RunStatement = (s: Statement) => Promise<readonly Record<string, unknown>[]>;
-
-/**
- * One list page through `run` (the app's client or the benchmark's), reusing the facets of the
- * same view kept in `kept` while no lead has changed, and keeping those it counts.
- */
-export async function runList(
-	q: LeadQuery,
-	ctx: ListContext,
-	kept: KeptFacets,
-	run: RunStatement,
-	asTyped = false
-): Promise<LeadList> {
-	const key = facetsKey(q, ctx, asTyped);
-	const held = kept.get(key);
-	const result = await run(listSql(q, ctx, asTyped, held?.snapshot ?? null));
-	const counted = result[0]?._counted !== false;
-	if (!counted && held) return assembleList(q, result, held.facets);
-	const list = assembleList(q, result);
-	kept.set(key, (result[0]?._snapshot as string | undefined) ?? null, list.facets);
-	return list;
-}
-
-/** The export's columns, in the file's order; times are formatted by PostgreSQL (see exportSql). */
-export const EXPORT_COLUMNS = [
-	'Number',
-	'Received',
-	'Name',
-	'E-mail',
-	'Phone',
-	'Town',
-	'Services',
-	'Budget',
-	'Stage',
-	'Close reason',
-	'Assignee',
-	'Priority',
-	'Source',
-	'First reply',
-	'Last touch'
-] as const;
-
-/** A key's label from two parallel arrays (parameters), as `label()` in $lib/schema/leads.ts. */
-function labelSql(v: string, map: Record<string, string>, p: Params): string {
-	const keys = p.add(Object.keys(map));
-	const labels = p.add(Object.values(map));
-	return `case when ${v} is null or ${v} = '' then '' else coalesce((${labels}::text[])[array_position(${keys}::text[], ${v})], replace(${v}, '_', ' ')) end`;
-}
-
-export interface ExportLabels {
-	services: Record<string, string>;
-	budgets: Record<string, string>;
-	stages: Record<string, string>;
-}
-
-/**
- * A CSV cell in SQL, exactly as `csvCell` ($lib/csv.ts) writes a text value: a leading =, +, -,
- * @, tab or CR gets an apostrophe; a value with a quote, comma, CR or LF is quoted, quotes
- * doubled; null is empty. Most values need neither, so one regular expression lets them through
- * as they are. `v` must be cheap to repeat (a column).
- */
-function csvCellSql(v: string): string {
-	const safe = `case when left(${v}, 1) in ('=', '+', '-', '@', chr(9), chr(13)) then '''' || ${v} else ${v} end`;
-	const needsQuotes = `strpos(${v}, '"') > 0 or strpos(${v}, ',') > 0 or strpos(${v}, chr(13)) > 0 or strpos(${v}, chr(10)) > 0`;
-	const special = `${v} ~ '^[-=+@\\t\\r]|[",\\r\\n]'`;
-	return `case when ${v} is null then '' when not (${special}) then ${v} when ${needsQuotes} then '"' || replace(${safe}, '"', '""') || '"' else ${safe} end`;
-}
-
-/**
- * Every row of a filtered view (no paging, no facets), for the CSV export: one column, `line`,
- * each lead's CSV line (columns of EXPORT_COLUMNS, CRLF at the end), in the view's order.
- * PostgreSQL writes the times as the office reads them ("Dec 3, 5:14 PM" in the firm's time zone,
- * as `formatWhen` writes them) and the labels from the maps given, quoting and formula
- * neutralising as `csvLine`. Streaming 100,000 rows then costs the app one string per row, no
- * Date object and no formatter. Times always hold a comma and start with a month, so they come
- * quoted without the cell rules.
- *
- * The inner query joins, filters and sorts the raw columns only; the middle one makes the cells
- * (a fence, so that each is made once) and the outer one the line. Sorting first lets PostgreSQL
- * hand out the first batch as soon as the sort is done and make the next batch while the app
- * writes the previous one, instead of making every cell before sorting.
- */
-export function exportSql(
-	q: LeadQuery,
-	ctx: ListContext,
-	timeZone: string,
-	labels: ExportLabels
-): Statement {
-	const p = new Params();
-	const clauses = filterClauses(q, ctx, p);
-	if (q.stage.length) clauses.unshift(stageClause(q, p, 'l'));
-	const dir = q.dir === 'asc' ? 'asc' : 'desc';
-	const tz = p.add(timeZone);
-	const service = labelSql('s', labels.services, p);
-	const raw = {
-		number: 'l.number',
-		created: 'l.created_at',
-		name: 'c.name',
-		email: 'c.email',
-		phone: 'c.phone',
-		town: 'p.town',
-		services: 'l.services',
-		budget: 'l.budget',
-		stage: 'l.stage::text',
-		close: 'l.close_reason::text',
-		assignee: 'u.name',
-		priority: 'l.priority::text',
-		source: 'l.source',
-		firstReply: 'l.first_reply_at',
-		lastTouch: 'l.last_touch_at'
-	};
-	const x = (key: keyof typeof raw) => `x."${key}"`;
-	// A cell is SQL for its text, and whether that text is already CSV (else the cell rules apply).
-	const asCsv = (sql: string) => ({ sql, isCsv: true });
-	const asText = (sql: string) => ({ sql, isCsv: false });
-	const quotedWhen = (key: keyof typeof raw) =>
-		asCsv(
-			`case when ${x(key)} is null then '' else '"' || to_char(${x(key)} at time zone ${tz}::text, 'Mon FMDD, FMHH12:MI AM') || '"' end`
-		);
-	const cells = [
-		asCsv(`'R-' || ${x('number')}`),
-		quotedWhen('created'),
-		asText(x('name')),
-		asText(x('email')),
-		asText(x('phone')),
-		asText(x('town')),
-		asText(
-			`array_to_string(array(select ${service} from unnest(${x('services')}) with ordinality as u(s, i) order by i), '; ')`
-		),
-		asText(labelSql(x('budget'), labels.budgets, p)),
-		asText(labelSql(x('stage'), labels.stages, p)),
-		asText(x('close')),
-		asText(x('assignee')),
-		asText(x('priority')),
-		asText(x('source')),
-		quotedWhen('firstReply'),
-		quotedWhen('lastTouch')
-	];
-	const line = cells.map((c, i) => (c.isCsv ? `y.c${i}` : csvCellSql(`y.c${i}`)));
-	const text = `/* leads export */ select ${line.join(` || ',' || `)} || chr(13) || chr(10) as line
-	from (
-		select ${cells.map((c, i) => `${c.sql} as c${i}`).join(', ')}
-		from (
-			select ${Object.entries(raw)
-				.map(([key, column]) => `${column} as "${key}"`)
-				.join(', ')}
-			from leads l ${ROW_JOINS} ${where(clauses)}
-			order by ${SORT_SQL[q.sort]} ${dir}, l.number ${dir}
-			offset 0
-		) x
-		offset 0
-	) y`;
-	return { text, params: p.values };
-}
-
 const iso = (v: unknown) => new Date(v as string).toISOString();
 
-/** A result row of listSql or exportSql as the API's row (times as ISO strings). */
+/** A result row of listSql as the API's row (times as ISO strings). */
 export function leadRow(r: Record<string, unknown>): LeadRow {
 	return {
 		id: r.id as string,
