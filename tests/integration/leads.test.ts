@@ -425,10 +425,12 @@ describe('GET /api/leads: paging', () => {
 	it('reads a deep page from the start an earlier answer found while no lead has changed', async () => {
 		for (let i = 0; i < 30; i++) await makeLead({ createdAt: ago(100 + i) });
 		const q = parseLeadQuery(new URLSearchParams('size=25&page=2')).data!;
-		const run = async (start: PageStart | null) => {
+		const answer = (start: PageStart | null) => {
 			const s = listSql(q, ctxOf(owner), false, null, { start });
-			return (await client.unsafe(s.text, s.params as never[])).filter((r) => r.id != null);
+			return client.unsafe(s.text, s.params as never[]);
 		};
+		const run = async (start: PageStart | null) =>
+			(await answer(start)).filter((r) => r.id != null);
 		const byOffset = await run(null);
 		expect(byOffset).toHaveLength(9);
 		// A start one row into the page is followed as given: the page was sought, not skipped to.
@@ -441,9 +443,12 @@ describe('GET /api/leads: paging', () => {
 		const sought = await run(start);
 		expect(sought.map((r) => r.id)).toEqual(byOffset.slice(1).map((r) => r.id));
 		expect(await run({ ...start, inclusive: false })).toHaveLength(7);
-		// Once a lead has changed, the start is not trusted: the page is found by offset again.
+		expect((await answer(start))[0]._sought).toBe(true);
+		// Once a lead has changed, the start is not trusted: no rows, and the caller is told so.
 		await changeStage(owner.id, set.dev.id, { version: set.dev.version, stage: 'contacted' });
-		expect((await run(start)).map((r) => r.id)).toEqual(byOffset.map((r) => r.id));
+		const stale = await answer(start);
+		expect(stale[0]._sought).toBe(false);
+		expect(stale.filter((r) => r.id != null)).toEqual([]);
 	});
 });
 

@@ -140,7 +140,11 @@ export async function runList(
 	const startOf = (page: number) => (pages === null ? null : `${page} ${pages}`);
 	const start = q.page > 1 ? kept.starts.get(startOf(q.page)) : undefined;
 	const page = pickPage(q, held?.matches);
-	const result = await run(listSql(q, ctx, asTyped, held?.snapshot ?? null, { start, page }));
+	let result = await run(listSql(q, ctx, asTyped, held?.snapshot ?? null, { start, page }));
+	if (start && result[0]?._sought === false) {
+		// A lead has changed since the page's start was found: the page by offset instead.
+		result = await run(listSql(q, ctx, asTyped, held?.snapshot ?? null, { page }));
+	}
 	const snapshot = result[0]?._snapshot as string | undefined;
 	const rows = result.filter((r) => r.id != null);
 	if (snapshot && rows.length) {

@@ -265,7 +265,8 @@ function recountSql(p: Params, kept: string | null): string {
  * which the caller counted the facets it still holds. When no lead has changed since, the
  * statement leaves the facets out (`_counted` false, `_facets` empty) and reads only the page.
  * `known.start` (unsearched views only, see pagesKey) is where an earlier answer found the page to
- * begin: while no lead has changed since, the page is read from there instead of by offset.
+ * begin: while no lead has changed since, the page is read from there instead of by offset;
+ * otherwise the answer has no rows and `_sought` false, and the page must be asked by offset.
  * A search's counting answer also lists every match in the view's order (`_matches`: lead number
  * and stage, up to KEPT_MATCHES); `known.page`, the numbers of the page's leads picked from that
  * list, is then read instead of searching again while no lead has changed.
@@ -284,7 +285,8 @@ export function listSql(
 	// read, so it plans every request again (custom plans); this way one prepared statement per
 	// view's first page (and one for its deeper pages) keeps its generic plan.
 	const limit = `limit ${Math.trunc(q.size)}`;
-	const paging = q.page > 1 ? `${limit} offset ${p.add((q.page - 1) * q.size)}::int` : limit;
+	const paging = () =>
+		q.page > 1 ? `${limit} offset ${p.add((q.page - 1) * q.size)}::int` : limit;
 	const key = SORT_SQL[q.sort];
 	const exact = countsExactly(q);
 	// `c` is evaluated once (an InitPlan); `(select recount from c)` in a WHERE is a one-time
@@ -307,7 +309,7 @@ export function listSql(
 			if (q.stage.length && !searchParts(q.q, asTyped).words) clauses.push(stageClause(q, p, 'l'));
 			clauses.push('not (select recount from c)');
 			alone = `select l.id, ${key} as k, l.number from leads l ${where(clauses)}
-			order by k ${dir}, number ${dir} ${paging}`;
+			order by k ${dir}, number ${dir} ${paging()}`;
 		}
 		// Every match in the view's order, when there are few enough to keep: the next pages and
 		// stage chips of the view then read only their leads, by number. One int per match, the
@@ -325,7 +327,7 @@ export function listSql(
 		) end as matches
 	),
 	pg as (
-		(select id, k, number from m ${stage} order by k ${dir}, number ${dir} ${paging})
+		(select id, k, number from m ${stage} order by k ${dir}, number ${dir} ${paging()})
 		union all
 		(${alone})
 	)`;
@@ -344,24 +346,19 @@ export function listSql(
 		if (start) {
 			// A deep page whose start an earlier answer found: while no lead has changed since, it
 			// is the `size` rows from that key on (a seek in the sort's index), not `offset` rows
-			// skipped; otherwise the offset, as without a start. Both branches are behind a
-			// one-time filter, so only one runs.
+			// skipped. Otherwise no rows, and `_sought` false: the caller asks again by offset.
+			// (An offset branch here would make PostgreSQL plan every execution again, see above.)
 			const op = (dir === 'desc' ? '<' : '>') + (start.inclusive ? '=' : '');
 			const bound = `(${key}, l.number) ${op} (${p.add(start.key)}::${KEY_TYPE[q.sort]}, ${p.add(start.number)}::int)`;
 			const sought = [...clauses, bound, 'not (select stale from s)'];
-			const skipped = [...clauses, '(select stale from s)'];
 			ctes = `${recount}
 	s as materialized (select ${recountSql(p, start.snapshot)} as stale),
 	f as (${facets}),
-	pg as (
-		(${page} ${where(sought)} ${order} ${limit})
-		union all
-		(${page} ${where(skipped)} ${order} ${paging})
-	)`;
+	pg as (${page} ${where(sought)} ${order} ${limit})`;
 		} else {
 			ctes = `${recount}
 	f as (${facets}),
-	pg as (${page} ${where(clauses)} ${order} ${paging})`;
+	pg as (${page} ${where(clauses)} ${order} ${paging()})`;
 		}
 	}
 	const counted = exact ? '(select recount from c)' : 'true';
@@ -371,11 +368,12 @@ export function listSql(
 	fx as (
 		select coalesce(json_object_agg(stage, n), '{}'::json) as "_facets",
 			${counted} as "_counted", pg_current_snapshot()::text as "_snapshot",
-			${matchList} as "_matches"
+			${matchList} as "_matches",
+			${known.start && !searchTerms(q.q).length ? 'not (select stale from s)' : 'null::bool'} as "_sought"
 		from f
 	),
 	r as (select pg.k as "_k", pg.k::text as "_key", ${ROW_COLUMNS} from pg join leads l on l.id = pg.id ${ROW_JOINS})
-	select fx."_facets", fx."_counted", fx."_snapshot",
+	select fx."_facets", fx."_counted", fx."_snapshot", fx."_sought",
 		case when row_number() over w = 1 then fx."_matches" end as "_matches", r.*
 	from fx left join r on true
 	window w as (order by r."_k" ${dir}, r.number ${dir})
