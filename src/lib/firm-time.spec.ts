@@ -45,13 +45,15 @@ describe('firm time', () => {
 		]) {
 			for (let t = start; t < start + 4 * 86_400_000; t += 7 * 60_000) instants.push(t);
 		}
-		for (let t = Date.UTC(1975, 0, 1); t < Date.UTC(2040, 0, 1); t += 3_456_789_123)
+		for (let t = Date.UTC(1975, 0, 1); t < Date.UTC(2040, 0, 1); t += 3_456_789_123) {
 			instants.push(t);
+		}
 		instants.push(Date.UTC(1960, 5, 1, 23, 59, 59, 999));
 		for (const zone of zones) {
 			const write = whenWriter(zone);
-			for (const t of instants)
+			for (const t of instants) {
 				expect(write(t), `${zone} ${new Date(t).toISOString()}`).toBe(inZone(t, zone, 'when'));
+			}
 		}
 	});
 	it('writes midnight and noon as 12, and the minutes with two digits', () => {
