@@ -14,7 +14,8 @@
  * exactly (service, dates, search), or a deep page, is planned twice: counting them or finding
  * the page by offset (a view's first request, or the first after a lead changed) and with the
  * facets or the page's start kept (its next requests, as in the runs, where app and baseline both
- * keep them through runList). Exits 1 when a goal is missed.
+ * keep them through runList; a search's next requests read their page by number from the matches
+ * kept with its facets). Exits 1 when a goal is missed.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { createServer } from 'node:http';
