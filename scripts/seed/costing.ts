@@ -65,8 +65,8 @@ export async function seedCosting(db: Db): Promise<void> {
 	const timeZone = await firmTimeZone(db);
 	const catalog = catalogSchema.parse(demoCatalog());
 	const design = { ...demoDesign(), name: d.title };
-	const priced = priceDesign(design, catalog, 'the demo design no longer estimates');
-	const { totals } = priced;
+	const quote = priceDesign(design, catalog, 'the demo design no longer estimates');
+	const { totals } = quote;
 	const { convertAcceptedEstimate } = await jobsDomain();
 	const { ensureJobTasks } = await import('../../src/lib/server/costing/tasks');
 	const at = new Date(Date.now() - 60 * 86_400_000);
@@ -102,7 +102,7 @@ export async function seedCosting(db: Db): Promise<void> {
 		});
 		const estimateId = newId();
 		await tx.insert(estimates).values(
-			estimateRow(priced, {
+			estimateRow(quote, {
 				id: estimateId,
 				leadId,
 				status: 'accepted',
@@ -111,7 +111,7 @@ export async function seedCosting(db: Db): Promise<void> {
 			})
 		);
 		await tx.insert(estimateAcceptances).values(
-			acceptanceRow(priced, {
+			acceptanceRow(quote, {
 				estimateId,
 				typedName: d.name,
 				acceptedAt: new Date(at.getTime() + 3 * 86_400_000),

@@ -144,7 +144,7 @@ async function sendStarter(
 		services
 	);
 	shape?.(design, catalog);
-	const priced = priceDesign(
+	const quote = priceDesign(
 		design,
 		catalog,
 		`the demo ${services.join('+')} design does not estimate`
@@ -154,7 +154,7 @@ async function sendStarter(
 		const estimateId = newId();
 		await tx.insert(estimates).values(
 			estimateRow(
-				priced,
+				quote,
 				{
 					id: estimateId,
 					leadId,
@@ -174,7 +174,7 @@ async function sendStarter(
 			kind: 'estimate.sent',
 			actorId: salesId,
 			body: `Estimate v1 sent to ${homeowner}`,
-			data: { estimateId, number: 1, totalCents: priced.priced.pricing.totalCents },
+			data: { estimateId, number: 1, totalCents: quote.priced.pricing.totalCents },
 			createdAt: sentAt
 		});
 	});

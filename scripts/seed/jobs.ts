@@ -85,8 +85,8 @@ export async function seedJobs(db: Db): Promise<void> {
 	const catalog = catalogSchema.parse(demoCatalog());
 	// The design's name becomes the job's title.
 	const design = { ...demoDesign(), name: DEMO_JOB_TITLE };
-	const priced = priceDesign(design, catalog, 'the demo design no longer estimates');
-	const { choices, totals } = priced;
+	const quote = priceDesign(design, catalog, 'the demo design no longer estimates');
+	const { choices, totals } = quote;
 	const { convertAcceptedEstimate, jobRef } = await jobsDomain();
 
 	const sentAt = new Date(Date.now() - 6 * 86_400_000);
@@ -95,13 +95,13 @@ export async function seedJobs(db: Db): Promise<void> {
 		const estimateId = newId();
 		await tx.insert(estimates).values(
 			estimateRow(
-				priced,
+				quote,
 				{ id: estimateId, leadId: lead.id, status: 'accepted', scope: DEMO_JOB_SCOPE, sentAt },
 				sales?.id ?? null
 			)
 		);
 		await tx.insert(estimateAcceptances).values(
-			acceptanceRow(priced, {
+			acceptanceRow(quote, {
 				estimateId,
 				typedName: lead.contactName,
 				acceptedAt,
