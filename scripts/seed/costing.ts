@@ -23,14 +23,7 @@ import {
 } from '../../src/lib/server/platform/db/schema';
 import { newId } from '../../src/lib/server/platform/crypto';
 import { jobsDomain } from './jobs';
-import {
-	acceptanceRow,
-	estimateRow,
-	firmDay,
-	firmTimeZone,
-	priceDesign,
-	type Db
-} from './shared';
+import { acceptanceRow, estimateRow, firmDay, firmTimeZone, priceDesign, type Db } from './shared';
 
 export const DEMO_COSTED_JOB = {
 	name: 'Odile Brackenridge',

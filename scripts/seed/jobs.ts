@@ -18,14 +18,7 @@ import {
 	users
 } from '../../src/lib/server/platform/db/schema';
 import { newId } from '../../src/lib/server/platform/crypto';
-import {
-	acceptanceRow,
-	estimateRow,
-	firmDay,
-	firmTimeZone,
-	priceDesign,
-	type Db
-} from './shared';
+import { acceptanceRow, estimateRow, firmDay, firmTimeZone, priceDesign, type Db } from './shared';
 
 export const DEMO_JOB_LEAD_EMAIL = 'felix.marchbank@example.test';
 export const DEMO_JOB_TITLE = 'Basalt columns beside the deck';
