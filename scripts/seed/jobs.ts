@@ -86,13 +86,15 @@ export async function seedJobs(db: Db): Promise<void> {
 	const acceptedAt = new Date(Date.now() - 2 * 86_400_000);
 	await db.transaction(async (tx) => {
 		const estimateId = newId();
-		await tx.insert(estimates).values(
-			estimateRow(
-				quote,
-				{ id: estimateId, leadId: lead.id, status: 'accepted', scope: DEMO_JOB_SCOPE, sentAt },
-				sales?.id ?? null
-			)
-		);
+		await tx
+			.insert(estimates)
+			.values(
+				estimateRow(
+					quote,
+					{ id: estimateId, leadId: lead.id, status: 'accepted', scope: DEMO_JOB_SCOPE, sentAt },
+					sales?.id ?? null
+				)
+			);
 		await tx.insert(estimateAcceptances).values(
 			acceptanceRow(quote, {
 				estimateId,

@@ -8,7 +8,7 @@ describe('formFields', () => {
 		errors: { amount: 'Enter an amount such as 120.50' }
 	};
 
-	it("refills a refused form with what was typed and puts each message by its field", () => {
+	it('refills a refused form with what was typed and puts each message by its field', () => {
 		const f = formFields(refused, 'refund');
 		expect(f.mine).toBe(refused);
 		expect(f.value('amount')).toBe('12x');
@@ -18,7 +18,7 @@ describe('formFields', () => {
 		expect(f.error('reason')).toBeUndefined();
 	});
 
-	it("leaves a form alone when the answer is about another form of the page", () => {
+	it('leaves a form alone when the answer is about another form of the page', () => {
 		const f = formFields(refused, 'record');
 		expect(f.mine).toBeNull();
 		expect(f.value('amount', '0')).toBe('0');
@@ -26,7 +26,10 @@ describe('formFields', () => {
 	});
 
 	it('starts a saved form again from its defaults', () => {
-		const f = formFields({ form: 'record', saved: 'Payment recorded.', values: { amount: '5' } }, 'record');
+		const f = formFields(
+			{ form: 'record', saved: 'Payment recorded.', values: { amount: '5' } },
+			'record'
+		);
 		expect(f.value('amount', '')).toBe('');
 		expect(formFields(null, 'record').value('note', 'x')).toBe('x');
 	});

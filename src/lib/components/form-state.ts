@@ -18,7 +18,8 @@ export function formFields(form: FormState | null | undefined, name: string) {
 	const mine = form?.form === name ? form : null;
 	return {
 		mine,
-		value: (key: string, fallback = '') => (mine?.saved ? undefined : mine?.values?.[key]) ?? fallback,
+		value: (key: string, fallback = '') =>
+			(mine?.saved ? undefined : mine?.values?.[key]) ?? fallback,
 		error: (key: string): string | undefined => mine?.errors?.[key]
 	};
 }
