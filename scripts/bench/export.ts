@@ -11,9 +11,11 @@
  * other in the same app. The app starts as `npm run serve` starts it; EXPORT_NODE_OPTIONS starts it
  * with those Node flags instead (empty: Node's defaults). `--compare DIR` first measures another build
  * (say, one of an older commit) in the same run, for a side-by-side figure; only the build of
- * this checkout decides the exit code.
+ * this checkout decides the exit code. Each download prints the start of its SHA-256, so two
+ * builds can be seen to write the same file.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
+import { createHash } from 'node:crypto';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
 import postgres from 'postgres';
@@ -138,8 +140,11 @@ async function measure(buildDir: string, leads: number): Promise<Run[]> {
 			let bytes = 0;
 			let lineEnds = 0;
 			let tail = '';
+			// A digest of the file, so that two builds can be seen to write the same bytes.
+			const digest = createHash('sha256');
 			for await (const chunk of res.body as unknown as AsyncIterable<Uint8Array>) {
 				bytes += chunk.length;
+				digest.update(chunk);
 				for (let j = 0; j < chunk.length; j++) if (chunk[j] === 10) lineEnds++;
 				tail = Buffer.from(chunk.subarray(-2)).toString('latin1');
 			}
@@ -159,14 +164,15 @@ async function measure(buildDir: string, leads: number): Promise<Run[]> {
 				peakRssMB: mb(peak),
 				riseMB: mb(peak - before),
 				rssAfterMB: mb(after),
-				loadAverage: load()
+				loadAverage: load(),
+				sha256: digest.digest('hex')
 			});
 			const r = runs.at(-1)!;
 			console.log(
 				`  run ${i + 1}: ${r.rows.toLocaleString('en-US')} rows of ${leads.toLocaleString('en-US')}, ` +
 					`${(bytes / MB).toFixed(1)} MB in ${r.seconds} s = ${r.mbPerSecond} MB/s; ` +
 					`RSS before ${r.rssBeforeMB} MB, peak ${r.peakRssMB} MB (+${r.riseMB} MB), ` +
-					`after ${r.rssAfterMB} MB; load average ${r.loadAverage}`
+					`after ${r.rssAfterMB} MB; load average ${r.loadAverage}; sha256 ${r.sha256.slice(0, 12)}`
 			);
 		}
 		return runs;

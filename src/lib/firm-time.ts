@@ -4,6 +4,8 @@
 // using it. Pure: pages, mails and the server share it. Arithmetic on wall-clock time (offsets,
 // midnight in a zone, adding days) lives in $lib/scheduling/zone.
 
+import { offsetMinutes } from './scheduling/zone';
+
 const STYLES = {
 	/** "May 14, 2027" */
 	date: { dateStyle: 'long' },
@@ -103,4 +105,57 @@ export function inZone(value: Date | string | number, timeZone: string, style: D
  */
 export function calendarDay(day: string, style: DateStyle = 'dayShort'): string {
 	return formatter(style, 'UTC').format(new Date(`${day}T12:00:00Z`));
+}
+
+const DAY_MS = 86_400_000;
+const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
+/** From 1973 on every zone's offset is a whole number of minutes (Liberia's -0:44:30 ended 1972). */
+const WHOLE_MINUTE_OFFSETS_FROM = Date.UTC(1973, 0, 1);
+
+/**
+ * The `when` style ("May 14, 9:30 AM") for many instants in one zone, as `inZone` writes it but
+ * about twenty times faster: the zone's offset is asked of Intl once per UTC day, and the text is
+ * made from the day's text and the minute's, each made once. A day whose offset differs at its first and last millisecond holds a
+ * change of offset (daylight saving), and its instants go through Intl itself. For exports of
+ * many rows; a page of 25 has no need for it.
+ */
+export function whenWriter(timeZone: string): (ms: number) => string {
+	const offsets = new Map<number, number | null>();
+	const offsetOfDay = (day: number): number | null => {
+		let offset = offsets.get(day);
+		if (offset === undefined) {
+			const first = offsetMinutes(new Date(day * DAY_MS), timeZone);
+			const last = offsetMinutes(new Date(day * DAY_MS + DAY_MS - 1), timeZone);
+			offset = first === last ? first * 60_000 : null;
+			offsets.set(day, offset);
+		}
+		return offset;
+	};
+	// The space before AM/PM as this platform's Intl writes it (a narrow no-break space in some ICU
+	// versions), so both paths agree.
+	const space = formatter('when', 'UTC')
+		.format(Date.UTC(2000, 0, 1, 9, 5))
+		.slice(-3, -2);
+	const clock = Array.from({ length: 1440 }, (_, m) => {
+		const hour = Math.floor(m / 60);
+		const minute = m % 60;
+		return `${hour % 12 || 12}:${minute < 10 ? '0' : ''}${minute}${space}${hour < 12 ? 'AM' : 'PM'}`;
+	});
+	const days = new Map<number, string>();
+	const dayText = (day: number) => {
+		let text = days.get(day);
+		if (text === undefined) {
+			const date = new Date(day * DAY_MS);
+			text = `${MONTHS[date.getUTCMonth()]} ${date.getUTCDate()}, `;
+			days.set(day, text);
+		}
+		return text;
+	};
+	return (ms) => {
+		const offset = ms >= WHOLE_MINUTE_OFFSETS_FROM ? offsetOfDay(Math.floor(ms / DAY_MS)) : null;
+		if (offset === null) return inZone(ms, timeZone, 'when');
+		const wall = ms + offset;
+		const day = Math.floor(wall / DAY_MS);
+		return dayText(day) + clock[Math.floor((wall - day * DAY_MS) / 60_000)];
+	};
 }
