@@ -13,6 +13,7 @@ import {
 	logActivity,
 	todaySummary
 } from '$lib/server/leads/leads';
+import type { PageStart } from '$lib/server/leads/list-sql';
 import { sendLeadMail } from '$lib/server/leads/mail';
 import { deliverOutboxMessage } from '$lib/server/platform/outbox';
 import type { SessionUser } from '$lib/server/auth/sessions';
@@ -264,6 +265,30 @@ describe('GET /api/leads: stage counts kept by triggers', () => {
 		expect(after.map((r) => r.name)).toEqual(['Eli Fenn', 'Ada Brookstone']);
 	});
 
+	it('read the page of a searched view by the numbers picked from its kept matches', async () => {
+		const fen = await makeLead({ name: 'Eli Fenn', message: 'patio pool', createdAt: ago(80) });
+		const q = parseLeadQuery(new URLSearchParams('q=patio&service=water-feature')).data!;
+		const run = (kept: string | null, page?: number[]) => {
+			const s = listSql(q, ctxOf(owner), false, kept, { page });
+			return client.unsafe(s.text, s.params as never[]);
+		};
+		const cold = await run(null);
+		expect(cold[0]._counted).toBe(true);
+		// Every match, newest first: its number times 8 plus its stage (1 is "new", 2 "contacted").
+		expect(cold[0]._matches).toEqual([set.ada.number * 8 + 1, fen.number * 8 + 1]);
+		expect(cold.map((r) => r.name)).toEqual(['Ada Brookstone', 'Eli Fenn']);
+		// While no lead has changed, the page is the leads it is given, found by number.
+		const warm = await run(cold[0]._snapshot, [fen.number]);
+		expect(warm[0]._counted).toBe(false);
+		expect(warm.map((r) => r.name)).toEqual(['Eli Fenn']);
+		// After a change, the search runs again and the numbers given are ignored.
+		await changeStage(owner.id, set.ada.id, { version: set.ada.version, stage: 'contacted' });
+		const after = await run(cold[0]._snapshot, [fen.number]);
+		expect(after[0]._counted).toBe(true);
+		expect(after.map((r) => r.name)).toEqual(['Ada Brookstone', 'Eli Fenn']);
+		expect(after[0]._matches).toEqual([set.ada.number * 8 + 2, fen.number * 8 + 1]);
+	});
+
 	it('sort by a renamed contact and a moved property at once (sort keys kept by triggers)', async () => {
 		await client`update contacts set name = 'Zora Brookstone' where id = ${set.ada.contactId}`;
 		await client`update properties set town = 'Yellow Pine' where id = ${set.ada.propertyId}`;
@@ -367,6 +392,63 @@ describe('GET /api/leads: paging', () => {
 		const ids = new Set([...first.rows, ...second.rows].map((r) => r.id));
 		expect(ids.size).toBe(34);
 		expect((await list('size=25&page=3')).rows).toHaveLength(0);
+	});
+
+	it('pages on from where the page before ended, and by position again once a lead changes', async () => {
+		for (let i = 0; i < 30; i++) await makeLead({ createdAt: ago(100 + i) });
+		const first = await list('size=25');
+		const second = await list('size=25&page=2');
+		expect(second.rows.map((r) => r.id)).toEqual(
+			(await client`select id from leads order by created_at desc, number desc offset 25`).map(
+				(r) => r.id
+			)
+		);
+		// A new lead comes first: every later page begins one lead earlier.
+		await makeLead({ name: 'Gus Heath' });
+		const shifted = await list('size=25&page=2');
+		expect(shifted.rows[0].id).toBe(first.rows[24].id);
+		expect(shifted.rows.map((r) => r.id).slice(1)).toEqual(second.rows.map((r) => r.id));
+		expect(names(await list('size=25'))[0]).toBe('Gus');
+		// The same again by name, ascending, through a renamed contact.
+		const byName = await list('sort=name&dir=asc&size=25&page=2');
+		await client`update contacts set name = 'Zoe Zephyr' where id = ${set.dev.contactId}`;
+		const renamed = await list('sort=name&dir=asc&size=25&page=2');
+		expect(renamed.rows.map((r) => r.id)).toEqual(
+			(await client`select id from leads order by sort_name, number offset 25 limit 25`).map(
+				(r) => r.id
+			)
+		);
+		expect(renamed.rows).not.toEqual(byName.rows);
+		expect(names(renamed).at(-1)).toBe('Zoe');
+	});
+
+	it('reads a deep page from the start an earlier answer found while no lead has changed', async () => {
+		for (let i = 0; i < 30; i++) await makeLead({ createdAt: ago(100 + i) });
+		const q = parseLeadQuery(new URLSearchParams('size=25&page=2')).data!;
+		const answer = (start: PageStart | null) => {
+			const s = listSql(q, ctxOf(owner), false, null, { start });
+			return client.unsafe(s.text, s.params as never[]);
+		};
+		const run = async (start: PageStart | null) =>
+			(await answer(start)).filter((r) => r.id != null);
+		const byOffset = await run(null);
+		expect(byOffset).toHaveLength(9);
+		// A start one row into the page is followed as given: the page was sought, not skipped to.
+		const start = {
+			snapshot: (await client`select pg_current_snapshot()::text as s`)[0].s as string,
+			key: byOffset[1]._key as string,
+			number: byOffset[1].number as number,
+			inclusive: true
+		};
+		const sought = await run(start);
+		expect(sought.map((r) => r.id)).toEqual(byOffset.slice(1).map((r) => r.id));
+		expect(await run({ ...start, inclusive: false })).toHaveLength(7);
+		expect((await answer(start))[0]._sought).toBe(true);
+		// Once a lead has changed, the start is not trusted: no rows, and the caller is told so.
+		await changeStage(owner.id, set.dev.id, { version: set.dev.version, stage: 'contacted' });
+		const stale = await answer(start);
+		expect(stale[0]._sought).toBe(false);
+		expect(stale.filter((r) => r.id != null)).toEqual([]);
 	});
 });
 

@@ -6,7 +6,7 @@ import { DomainError } from '../platform/errors';
 import { and, asc, eq, inArray, isNull, sql } from 'drizzle-orm';
 import { STAGES, type LeadQuery, type Stage } from '$lib/schema/leads';
 import { searchParts, type LeadList, type ListContext } from './list-sql';
-import { KeptFacets, runList, type RunStatement } from './kept-facets';
+import { KeptFacets, PREPARED, runList, type RunStatement } from './kept-facets';
 import { inZone } from '$lib/firm-time';
 import { client, db, type Tx } from '../platform/db';
 import {
@@ -31,8 +31,7 @@ type Param = Parameters<typeof client.unsafe>[1];
 /** Facets counted exactly, kept per view while no lead changes (see listSql). */
 const keptFacets = new KeptFacets();
 
-const runStatement: RunStatement = (s) =>
-	client.unsafe(s.text, s.params as Param, { prepare: true });
+const runStatement: RunStatement = (s) => client.unsafe(s.text, s.params as Param, PREPARED);
 
 export async function listLeads(q: LeadQuery, ctx: ListContext): Promise<LeadList> {
 	const run = (asTyped: boolean) => runList(q, ctx, keptFacets, runStatement, asTyped);

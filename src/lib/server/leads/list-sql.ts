@@ -1,6 +1,6 @@
 // The SQL of the leads list, with no SvelteKit imports: the app runs it, and so does the
 // benchmark's bare node:http baseline (scripts/bench/leads.ts), so both measure the same queries
-// (both prepared: `{ prepare: true }`) and shape the answer with the same function (assembleList).
+// (both prepared: `{ prepare: true }`) and shape the answer the same way (runList, kept-facets.ts).
 //
 // One statement per page (migration 0010_leads_list_speed):
 // - the page's 25 lead ids come first, from the covering index of the sort (index-only, so
@@ -17,8 +17,15 @@
 //   snapshot back, and the statement counts again only if a transaction it could not see has
 //   since changed leads (`lead_list_changes`). Otherwise it reads only the page: for a search,
 //   the GIN scan then takes the stage too (the `~stage:` lexemes of search_words), so it reads
-//   the page's stages only, not every match.
+//   the page's stages only, not every match. A search's matches are kept too (up to
+//   KEPT_MATCHES), and so are the starts of deep pages: see listSql's `known`.
 import { BUDGETS, STAGES, type LeadQuery, type Stage } from '../../schema/leads';
+
+/**
+ * The most matches of a search kept with its facets (lead number and stage, 5 bytes each in the
+ * app): more are not kept, and the view's next pages are then searched again (through the index).
+ */
+export const KEPT_MATCHES = 10_000;
 
 /** Days are the firm's days: the time zone comes from the settings row, inside the query. */
 const FIRM_TZ = `(select time_zone from settings where id = 1)`;
@@ -69,6 +76,28 @@ export const SORT_SQL: Record<LeadQuery['sort'], string> = {
 	budget: `coalesce(array_position(array[${BUDGETS.map((b) => `'${b.replace(/'/g, "''")}'`).join(',')}]::text[], l.budget), ${BUDGETS.length + 1})`,
 	last_touch: 'l.last_touch_at'
 };
+
+/** The type of each sort key, for a key passed back as text (PageStart). */
+const KEY_TYPE: Record<LeadQuery['sort'], string> = {
+	received: 'timestamptz',
+	name: 'text',
+	town: 'text',
+	stage: 'lead_stage',
+	budget: 'int',
+	last_touch: 'timestamptz'
+};
+
+/**
+ * Where a page of a view begins, found by an earlier answer in `snapshot`: at the row whose sort
+ * key (as text, exact to the microsecond) and number are `key` and `number` (`inclusive`), or just
+ * after it (the last row of the page before).
+ */
+export interface PageStart {
+	snapshot: string;
+	key: string;
+	number: number;
+	inclusive: boolean;
+}
 
 const ROW_COLUMNS = `l.id, l.number, l.created_at as "createdAt", l.stage, l.services, l.budget,
 		l.priority, l.source, l.first_reply_at as "firstReplyAt", l.last_touch_at as "lastTouchAt",
@@ -210,7 +239,7 @@ function countedFacets(q: LeadQuery, ctx: ListContext, p: Params): string | null
  * Whether the stage facets of a view are counted exactly (service, dates or search filter it)
  * rather than summed from `lead_counts`.
  */
-const countsExactly = (q: LeadQuery) =>
+export const countsExactly = (q: LeadQuery) =>
 	q.service.length > 0 || !!q.from || !!q.to || searchTerms(q.q).length > 0;
 
 /**
@@ -228,24 +257,36 @@ function recountSql(p: Params, kept: string | null): string {
 
 /**
  * The one statement of a list page: a row per lead of the page, each carrying the stage facets
- * (`_facets`) and its sort key (`_k`); a single row of nulls with the facets when the page is empty.
- * Facets count every stage under the other filters, so the stage chips show what a click gives.
+ * (`_facets`) and its sort key (`_k`, and `_key` as text); a single row of nulls with the facets
+ * when the page is empty. Facets count every stage under the other filters, so the stage chips
+ * show what a click gives.
  *
  * `kept` is the snapshot (`_snapshot` of an earlier answer of the same view, see facetsKey) in
  * which the caller counted the facets it still holds. When no lead has changed since, the
  * statement leaves the facets out (`_counted` false, `_facets` empty) and reads only the page.
+ * `known.start` (unsearched views only, see pagesKey) is where an earlier answer found the page to
+ * begin: while no lead has changed since, the page is read from there instead of by offset;
+ * otherwise the answer has no rows and `_sought` false, and the page must be asked by offset.
+ * A search's counting answer also lists every match in the view's order (`_matches`: lead number
+ * and stage, up to KEPT_MATCHES); `known.page`, the numbers of the page's leads picked from that
+ * list, is then read instead of searching again while no lead has changed.
  */
 export function listSql(
 	q: LeadQuery,
 	ctx: ListContext,
 	asTyped = false,
-	kept: string | null = null
+	kept: string | null = null,
+	known: { start?: PageStart | null; page?: number[] | null } = {}
 ): Statement {
 	const p = new Params();
 	const dir = q.dir === 'asc' ? 'asc' : 'desc';
-	// Parameters, not literals: the statement's text stays the same from page to page, so one
-	// prepared statement (and its plan) serves every page of a view.
-	const paging = `limit ${p.add(q.size)}::int offset ${p.add((q.page - 1) * q.size)}::int`;
+	// The size is a literal (one of a few), the offset a parameter of deeper pages only: with a
+	// parameter in LIMIT or OFFSET the planner prices a generic plan as if a tenth of the rows were
+	// read, so it plans every request again (custom plans); this way one prepared statement per
+	// view's first page (and one for its deeper pages) keeps its generic plan.
+	const limit = `limit ${Math.trunc(q.size)}`;
+	const paging = () =>
+		q.page > 1 ? `${limit} offset ${p.add((q.page - 1) * q.size)}::int` : limit;
 	const key = SORT_SQL[q.sort];
 	const exact = countsExactly(q);
 	// `c` is evaluated once (an InitPlan); `(select recount from c)` in a WHERE is a one-time
@@ -256,23 +297,39 @@ export function listSql(
 		const matches = filterClauses(q, ctx, p, true, asTyped);
 		matches.push('(select recount from c)');
 		const stage = q.stage.length ? `where ${stageClause(q, p, 'm')}` : '';
-		// The page alone, when the facets are kept: the stage filter joins the tsquery of a word
-		// search, so the GIN scan yields the page's stages only.
-		const alone = filterClauses(q, ctx, p, true, asTyped, true);
-		if (q.stage.length && !searchParts(q.q, asTyped).words) alone.push(stageClause(q, p, 'l'));
-		alone.push('not (select recount from c)');
+		let alone: string;
+		if (known.page) {
+			// The page's leads by number, when the matches are kept with the facets (runList).
+			alone = `select l.id, ${key} as k, l.number from leads l
+			where l.number = any(${p.add(known.page)}::int[]) and not (select recount from c)`;
+		} else {
+			// The page alone, when the facets are kept: the stage filter joins the tsquery of a
+			// word search, so the GIN scan yields the page's stages only.
+			const clauses = filterClauses(q, ctx, p, true, asTyped, true);
+			if (q.stage.length && !searchParts(q.q, asTyped).words) clauses.push(stageClause(q, p, 'l'));
+			clauses.push('not (select recount from c)');
+			alone = `select l.id, ${key} as k, l.number from leads l ${where(clauses)}
+			order by k ${dir}, number ${dir} ${paging()}`;
+		}
+		// Every match in the view's order, when there are few enough to keep: the next pages and
+		// stage chips of the view then read only their leads, by number. One int per match, the
+		// lead number times 8 plus its stage (1 to 7, in STAGES order): half the time of pairs.
+		// The list is made (an InitPlan, run only when its CASE branch is) only under the limit.
+		const stageIndex = `case stage ${STAGES.map((st, i) => `when '${st}' then ${i + 1}`).join(' ')} end`;
 		ctes = `${recount}
 	m as materialized (
 		select l.id, l.stage, l.number, ${key} as k from leads l ${where(matches)}
 	),
 	f as (select stage, count(*)::int as n from m group by stage),
+	mx as (
+		select case when (select sum(n) from f) <= ${KEPT_MATCHES} then (
+			select array_agg(number * 8 + ${stageIndex} order by k ${dir}, number ${dir}) from m
+		) end as matches
+	),
 	pg as (
-		select id, k, number from (
-			select id, k, number from m ${stage}
-			union all
-			select l.id, ${key}, l.number from leads l ${where(alone)}
-		) x
-		order by k ${dir}, number ${dir} ${paging}
+		(select id, k, number from m ${stage} order by k ${dir}, number ${dir} ${paging()})
+		union all
+		(${alone})
 	)`;
 	} else {
 		let facets = countedFacets(q, ctx, p);
@@ -283,87 +340,43 @@ export function listSql(
 		}
 		const clauses = filterClauses(q, ctx, p);
 		if (q.stage.length) clauses.unshift(stageClause(q, p, 'l'));
-		ctes = `${recount}
+		const order = `order by ${key} ${dir}, l.number ${dir}`;
+		const page = `select l.id, ${key} as k, l.number from leads l`;
+		const start = known.start;
+		if (start) {
+			// A deep page whose start an earlier answer found: while no lead has changed since, it
+			// is the `size` rows from that key on (a seek in the sort's index), not `offset` rows
+			// skipped. Otherwise no rows, and `_sought` false: the caller asks again by offset.
+			// (An offset branch here would make PostgreSQL plan every execution again, see above.)
+			const op = (dir === 'desc' ? '<' : '>') + (start.inclusive ? '=' : '');
+			const bound = `(${key}, l.number) ${op} (${p.add(start.key)}::${KEY_TYPE[q.sort]}, ${p.add(start.number)}::int)`;
+			const sought = [...clauses, bound, 'not (select stale from s)'];
+			ctes = `${recount}
+	s as materialized (select ${recountSql(p, start.snapshot)} as stale),
 	f as (${facets}),
-	pg as (
-		select l.id, ${key} as k, l.number from leads l ${where(clauses)}
-		order by ${key} ${dir}, l.number ${dir} ${paging}
-	)`;
+	pg as (${page} ${where(sought)} ${order} ${limit})`;
+		} else {
+			ctes = `${recount}
+	f as (${facets}),
+	pg as (${page} ${where(clauses)} ${order} ${paging()})`;
+		}
 	}
 	const counted = exact ? '(select recount from c)' : 'true';
+	// The matches (a list of thousands) on the first row only, not on every row of the page.
+	const matchList = searchTerms(q.q).length ? '(select matches from mx)' : 'null::int[]';
 	const text = `with ${ctes},
 	fx as (
 		select coalesce(json_object_agg(stage, n), '{}'::json) as "_facets",
-			${counted} as "_counted", pg_current_snapshot()::text as "_snapshot"
+			${counted} as "_counted", pg_current_snapshot()::text as "_snapshot",
+			${matchList} as "_matches",
+			${known.start && !searchTerms(q.q).length ? 'not (select stale from s)' : 'null::bool'} as "_sought"
 		from f
 	),
-	r as (select pg.k as "_k", ${ROW_COLUMNS} from pg join leads l on l.id = pg.id ${ROW_JOINS})
-	select fx."_facets", fx."_counted", fx."_snapshot", r.* from fx left join r on true
+	r as (select pg.k as "_k", pg.k::text as "_key", ${ROW_COLUMNS} from pg join leads l on l.id = pg.id ${ROW_JOINS})
+	select fx."_facets", fx."_counted", fx."_snapshot", fx."_sought",
+		case when row_number() over w = 1 then fx."_matches" end as "_matches", r.*
+	from fx left join r on true
+	window w as (order by r."_k" ${dir}, r.number ${dir})
 	order by r."_k" ${dir}, r.number ${dir}`;
 	return { text, params: p.values };
-}
-
-/**
- * The key under which the facets of a view may be kept between its pages and stage chips: every
- * filter but stage (and sort and paging, which do not change the counts). Null when the facets
- * come from `lead_counts` anyway, or depend on the firm's time zone (dates), which a change of
- * the settings could move without touching a lead.
- */
-export function facetsKey(q: LeadQuery, ctx: ListContext, asTyped = false): string | null {
-	if (!countsExactly(q) || q.from || q.to) return null;
-	return JSON.stringify([
-		[...q.service].sort(),
-		[...q.budget].sort(),
-		q.assignee === 'mine' ? ctx.userId : (q.assignee ?? null),
-		q.awaiting,
-		searchTerms(q.q),
-		asTyped
-	]);
-}
-
-const iso = (v: unknown) => new Date(v as string).toISOString();
-
-/** A result row of listSql as the API's row (times as ISO strings). */
-export function leadRow(r: Record<string, unknown>): LeadRow {
-	return {
-		id: r.id as string,
-		number: r.number as number,
-		createdAt: iso(r.createdAt),
-		stage: r.stage as Stage,
-		services: r.services as string[],
-		budget: r.budget as string,
-		priority: r.priority as string,
-		source: r.source as string,
-		firstReplyAt: r.firstReplyAt ? iso(r.firstReplyAt) : null,
-		lastTouchAt: iso(r.lastTouchAt),
-		closeReason: (r.closeReason as string | null) ?? null,
-		assigneeId: (r.assigneeId as string | null) ?? null,
-		assigneeName: (r.assigneeName as string | null) ?? null,
-		name: r.name as string,
-		email: (r.email as string | null) ?? null,
-		phone: (r.phone as string | null) ?? null,
-		town: (r.town as string | null) ?? null
-	};
-}
-
-/**
- * The API's answer from the rows of listSql: the page, the facets per stage (`keptFacets` when
- * the statement left them out) and the total.
- */
-export function assembleList(
-	q: LeadQuery,
-	result: readonly Record<string, unknown>[],
-	keptFacets?: Record<Stage, number>
-): LeadList {
-	const facets = Object.fromEntries(STAGES.map((st) => [st, 0])) as Record<Stage, number>;
-	const counted = (keptFacets ?? result[0]?._facets ?? {}) as Partial<Record<Stage, number>>;
-	for (const st of STAGES) facets[st] = counted[st] ?? 0;
-	const inView: readonly Stage[] = q.stage.length ? q.stage : STAGES;
-	return {
-		rows: result.filter((r) => r.id != null).map(leadRow),
-		total: inView.reduce<number>((sum, st) => sum + facets[st], 0),
-		page: q.page,
-		size: q.size,
-		facets
-	};
 }
