@@ -1,9 +1,7 @@
 // The demo care plan and season settings for Copperleaf Water & Stone (invented figures), so the
 // Care section has something to offer. Safe to run twice.
 import { carePlans, careSeasonSettings } from '../../src/lib/server/platform/db/schema';
-import type { scriptDb } from '../lib/db';
-
-type Db = ReturnType<typeof scriptDb>['db'];
+import type { Db } from './shared';
 
 export async function seedCare(db: Db): Promise<void> {
 	await db

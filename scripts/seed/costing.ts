@@ -4,14 +4,8 @@
 // stone supplier's invoice, a compact loader hired for a day and the deposit received. Safe to
 // run twice: nothing is written when the demo homeowner already exists.
 import { eq } from 'drizzle-orm';
-import { estimate as runEngine } from '../../src/lib/estimating';
 import { demoCatalog, demoDesign } from '../../src/lib/estimating/demo';
 import { catalogSchema } from '../../src/lib/estimating/schema';
-import {
-	defaultChoices,
-	priceWithOverrides,
-	totalsForChoices
-} from '../../src/lib/estimating/overrides';
 import {
 	contacts,
 	estimateAcceptances,
@@ -24,15 +18,12 @@ import {
 	materialUsage,
 	payments,
 	properties,
-	settings,
 	timeEntries,
 	users
 } from '../../src/lib/server/platform/db/schema';
-import { newId, newToken, sha256 } from '../../src/lib/server/platform/crypto';
-import type { scriptDb } from '../lib/db';
+import { newId } from '../../src/lib/server/platform/crypto';
 import { jobsDomain } from './jobs';
-
-type Db = ReturnType<typeof scriptDb>['db'];
+import { acceptanceRow, estimateRow, firmDay, firmTimeZone, priceDesign, type Db } from './shared';
 
 export const DEMO_COSTED_JOB = {
 	name: 'Odile Brackenridge',
@@ -55,15 +46,6 @@ const PACE: Record<string, number> = {
 };
 const STONES = 0.9;
 
-function firmDay(timeZone: string, offset: number): string {
-	return new Intl.DateTimeFormat('en-CA', {
-		timeZone,
-		year: 'numeric',
-		month: '2-digit',
-		day: '2-digit'
-	}).format(new Date(Date.now() + offset * 86_400_000));
-}
-
 export async function seedCosting(db: Db): Promise<void> {
 	const d = DEMO_COSTED_JOB;
 	const [existing] = await db.select().from(contacts).where(eq(contacts.email, d.email)).limit(1);
@@ -73,16 +55,11 @@ export async function seedCosting(db: Db): Promise<void> {
 		.from(users);
 	const owner = staff.find((u) => u.role === 'owner');
 	const rosa = staff.find((u) => u.email === 'rosa@copperleaf.example');
-	const [firm] = await db.select({ timeZone: settings.timeZone }).from(settings).limit(1);
-	const timeZone = firm?.timeZone ?? 'America/Denver';
+	const timeZone = await firmTimeZone(db);
 	const catalog = catalogSchema.parse(demoCatalog());
 	const design = { ...demoDesign(), name: d.title };
-	const engine = runEngine(design, catalog);
-	if (!engine.ok) throw new Error('the demo design no longer estimates');
-	const priced = priceWithOverrides(engine, design, catalog, []);
-	const choices = defaultChoices(priced.pricing);
-	const totals = totalsForChoices(priced.pricing, choices, priced.depositPercent);
-	const json = <T>(v: T) => JSON.parse(JSON.stringify(v)) as Record<string, unknown>;
+	const quote = priceDesign(design, catalog, 'the demo design no longer estimates');
+	const { totals } = quote;
 	const { convertAcceptedEstimate } = await jobsDomain();
 	const { ensureJobTasks } = await import('../../src/lib/server/costing/tasks');
 	const at = new Date(Date.now() - 60 * 86_400_000);
@@ -117,36 +94,23 @@ export async function seedCosting(db: Db): Promise<void> {
 			consentAt: at
 		});
 		const estimateId = newId();
-		await tx.insert(estimates).values({
-			id: estimateId,
-			leadId,
-			number: 1,
-			status: 'accepted',
-			design: json(design),
-			result: json({ engine, priced }),
-			catalog: json(catalog),
-			scope: 'Three basalt columns over a hidden gravel basin beside the kitchen garden',
-			totalCents: priced.pricing.totalCents,
-			taxCents: totals.taxCents,
-			depositCents: priced.pricing.depositCents,
-			tokenHash: sha256(newToken()),
-			sentAt: at,
-			expiresAt: new Date(at.getTime() + 30 * 86_400_000)
-		});
-		await tx.insert(estimateAcceptances).values({
-			id: newId(),
-			estimateId,
-			estimateNumber: 1,
-			typedName: d.name,
-			acceptedAt: new Date(at.getTime() + 3 * 86_400_000),
-			ipAddress: '192.0.2.61',
-			userAgent: 'Demo phone browser',
-			revision: 1,
-			optionsChosen: choices,
-			totalCents: totals.totalCents,
-			depositCents: totals.depositCents,
-			result: json({ choices, totals, pricing: priced.pricing, lines: priced.lines })
-		});
+		await tx.insert(estimates).values(
+			estimateRow(quote, {
+				id: estimateId,
+				leadId,
+				status: 'accepted',
+				scope: 'Three basalt columns over a hidden gravel basin beside the kitchen garden',
+				sentAt: at
+			})
+		);
+		await tx.insert(estimateAcceptances).values(
+			acceptanceRow(quote, {
+				estimateId,
+				typedName: d.name,
+				acceptedAt: new Date(at.getTime() + 3 * 86_400_000),
+				ipAddress: '192.0.2.61'
+			})
+		);
 		const { jobId } = await convertAcceptedEstimate(
 			estimateId,
 			tx as unknown as Parameters<typeof convertAcceptedEstimate>[1],

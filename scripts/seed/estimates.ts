@@ -5,17 +5,11 @@
 // the inquiry asked for, sized from the (invented) visit notes below and priced from the demo price
 // list. Safe to run twice: a lead that already has an estimate is left alone.
 import { eq } from 'drizzle-orm';
-import { estimate as runEngine } from '../../src/lib/estimating';
 import { demoCatalog } from '../../src/lib/estimating/demo';
 import { starterDesign } from '../../src/lib/estimating/prefill';
 import { catalogSchema, type Design, type ParsedCatalog } from '../../src/lib/estimating/schema';
 import { starterLabel } from '../../src/lib/estimating/starter-features';
 import { starterDrainage } from '../../src/lib/estimating/starter-yard';
-import {
-	defaultChoices,
-	priceWithOverrides,
-	totalsForChoices
-} from '../../src/lib/estimating/overrides';
 import {
 	activities,
 	contacts,
@@ -24,10 +18,8 @@ import {
 	properties,
 	users
 } from '../../src/lib/server/platform/db/schema';
-import { newId, newToken, sha256 } from '../../src/lib/server/platform/crypto';
-import type { scriptDb } from '../lib/db';
-
-type Db = ReturnType<typeof scriptDb>['db'];
+import { newId } from '../../src/lib/server/platform/crypto';
+import { estimateRow, inquiryActivity, priceDesign, type Db } from './shared';
 
 export const DEMO_POND_LEAD = {
 	name: 'Hollis Wrenfield',
@@ -124,13 +116,7 @@ async function demoLead(db: Db, d: DemoLead, salesId: string | null): Promise<st
 		createdAt: at,
 		updatedAt: at
 	});
-	await db.insert(activities).values({
-		leadId,
-		kind: 'inquiry',
-		body: d.message,
-		data: { services: d.services, budget: d.budget, timeframe: d.timeframe, source: 'website' },
-		createdAt: at
-	});
+	await db.insert(activities).values(inquiryActivity(leadId, d, at));
 	return leadId;
 }
 
@@ -158,37 +144,27 @@ async function sendStarter(
 		services
 	);
 	shape?.(design, catalog);
-	const engine = runEngine(design, catalog);
-	if (!engine.ok) throw new Error(`the demo ${services.join('+')} design does not estimate`);
-	const priced = priceWithOverrides(engine, design, catalog, []);
-	const totals = totalsForChoices(
-		priced.pricing,
-		defaultChoices(priced.pricing),
-		priced.depositPercent
+	const quote = priceDesign(
+		design,
+		catalog,
+		`the demo ${services.join('+')} design does not estimate`
 	);
-	const json = <T>(v: T) => JSON.parse(JSON.stringify(v)) as Record<string, unknown>;
 	const sentAt = new Date(Date.now() - 2 * 86_400_000);
 	await db.transaction(async (tx) => {
 		const estimateId = newId();
-		await tx.insert(estimates).values({
-			id: estimateId,
-			leadId,
-			number: 1,
-			status: 'sent',
-			design: json(design),
-			result: json({ engine, priced }),
-			catalog: json(catalog),
-			scope: `${design.name}: ${(design.features ?? []).map((f) => f.name).join(', ')}, as walked on the site visit.`,
-			totalCents: priced.pricing.totalCents,
-			taxCents: totals.taxCents,
-			depositCents: priced.pricing.depositCents,
-			createdBy: salesId,
-			updatedBy: salesId,
-			sentBy: salesId,
-			tokenHash: sha256(newToken()),
-			sentAt,
-			expiresAt: new Date(sentAt.getTime() + 30 * 86_400_000)
-		});
+		await tx.insert(estimates).values(
+			estimateRow(
+				quote,
+				{
+					id: estimateId,
+					leadId,
+					status: 'sent',
+					scope: `${design.name}: ${(design.features ?? []).map((f) => f.name).join(', ')}, as walked on the site visit.`,
+					sentAt
+				},
+				salesId
+			)
+		);
 		await tx
 			.update(leads)
 			.set({ stage: 'estimate_sent', lastTouchAt: sentAt })
@@ -198,7 +174,7 @@ async function sendStarter(
 			kind: 'estimate.sent',
 			actorId: salesId,
 			body: `Estimate v1 sent to ${homeowner}`,
-			data: { estimateId, number: 1, totalCents: priced.pricing.totalCents },
+			data: { estimateId, number: 1, totalCents: quote.priced.pricing.totalCents },
 			createdAt: sentAt
 		});
 	});

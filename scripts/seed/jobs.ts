@@ -5,14 +5,8 @@
 // nothing is written when the demo lead already has an estimate.
 import { register } from 'node:module';
 import { eq } from 'drizzle-orm';
-import { estimate as runEngine } from '../../src/lib/estimating';
 import { demoCatalog, demoDesign } from '../../src/lib/estimating/demo';
 import { catalogSchema } from '../../src/lib/estimating/schema';
-import {
-	defaultChoices,
-	priceWithOverrides,
-	totalsForChoices
-} from '../../src/lib/estimating/overrides';
 import {
 	activities,
 	contacts,
@@ -21,28 +15,15 @@ import {
 	jobDays,
 	jobs,
 	leads,
-	settings,
 	users
 } from '../../src/lib/server/platform/db/schema';
-import { newId, newToken, sha256 } from '../../src/lib/server/platform/crypto';
-import type { scriptDb } from '../lib/db';
-
-type Db = ReturnType<typeof scriptDb>['db'];
+import { newId } from '../../src/lib/server/platform/crypto';
+import { acceptanceRow, estimateRow, firmDay, firmTimeZone, priceDesign, type Db } from './shared';
 
 export const DEMO_JOB_LEAD_EMAIL = 'felix.marchbank@example.test';
 export const DEMO_JOB_TITLE = 'Basalt columns beside the deck';
 export const DEMO_JOB_SCOPE =
 	'Three basalt columns bubbling over a hidden gravel basin beside the deck, with a pebble topping';
-
-/** yyyy-mm-dd in the firm's time zone, `offset` days from now. */
-function firmDay(timeZone: string, offset: number): string {
-	return new Intl.DateTimeFormat('en-CA', {
-		timeZone,
-		year: 'numeric',
-		month: '2-digit',
-		day: '2-digit'
-	}).format(new Date(Date.now() + offset * 86_400_000));
-}
 
 /**
  * The jobs domain lives in the app and reads `building` from SvelteKit's `$app/environment`;
@@ -91,58 +72,37 @@ export async function seedJobs(db: Db): Promise<void> {
 	const sales = staff.find((u) => u.role === 'sales');
 	const owner = staff.find((u) => u.role === 'owner');
 	const rosa = staff.find((u) => u.email === 'rosa@copperleaf.example');
-	const [firm] = await db.select({ timeZone: settings.timeZone }).from(settings).limit(1);
-	const timeZone = firm?.timeZone ?? 'America/Denver';
+	const timeZone = await firmTimeZone(db);
 
 	// The same catalog the demo price list rows were written from (seedPriceList parses it too).
 	const catalog = catalogSchema.parse(demoCatalog());
 	// The design's name becomes the job's title.
 	const design = { ...demoDesign(), name: DEMO_JOB_TITLE };
-	const engine = runEngine(design, catalog);
-	if (!engine.ok) throw new Error('the demo design no longer estimates');
-	const priced = priceWithOverrides(engine, design, catalog, []);
-	const choices = defaultChoices(priced.pricing);
-	const totals = totalsForChoices(priced.pricing, choices, priced.depositPercent);
-	const json = <T>(v: T) => JSON.parse(JSON.stringify(v)) as Record<string, unknown>;
+	const quote = priceDesign(design, catalog, 'the demo design no longer estimates');
+	const { choices, totals } = quote;
 	const { convertAcceptedEstimate, jobRef } = await jobsDomain();
 
 	const sentAt = new Date(Date.now() - 6 * 86_400_000);
 	const acceptedAt = new Date(Date.now() - 2 * 86_400_000);
 	await db.transaction(async (tx) => {
 		const estimateId = newId();
-		await tx.insert(estimates).values({
-			id: estimateId,
-			leadId: lead.id,
-			number: 1,
-			status: 'accepted',
-			design: json(design),
-			result: json({ engine, priced }),
-			catalog: json(catalog),
-			scope: DEMO_JOB_SCOPE,
-			totalCents: priced.pricing.totalCents,
-			taxCents: totals.taxCents,
-			depositCents: priced.pricing.depositCents,
-			createdBy: sales?.id ?? null,
-			updatedBy: sales?.id ?? null,
-			sentBy: sales?.id ?? null,
-			tokenHash: sha256(newToken()),
-			sentAt,
-			expiresAt: new Date(sentAt.getTime() + 30 * 86_400_000)
-		});
-		await tx.insert(estimateAcceptances).values({
-			id: newId(),
-			estimateId,
-			estimateNumber: 1,
-			typedName: lead.contactName,
-			acceptedAt,
-			ipAddress: '192.0.2.44',
-			userAgent: 'Demo phone browser',
-			revision: 1,
-			optionsChosen: choices,
-			totalCents: totals.totalCents,
-			depositCents: totals.depositCents,
-			result: json({ choices, totals, pricing: priced.pricing, lines: priced.lines })
-		});
+		await tx
+			.insert(estimates)
+			.values(
+				estimateRow(
+					quote,
+					{ id: estimateId, leadId: lead.id, status: 'accepted', scope: DEMO_JOB_SCOPE, sentAt },
+					sales?.id ?? null
+				)
+			);
+		await tx.insert(estimateAcceptances).values(
+			acceptanceRow(quote, {
+				estimateId,
+				typedName: lead.contactName,
+				acceptedAt,
+				ipAddress: '192.0.2.44'
+			})
+		);
 		await tx.insert(activities).values({
 			leadId: lead.id,
 			kind: 'estimate.accepted',

@@ -16,6 +16,7 @@ import {
 } from '../../src/lib/server/platform/db/schema';
 import { newId } from '../../src/lib/server/platform/crypto';
 import { scriptDb } from '../lib/db';
+import { inquiryActivity } from './shared';
 
 interface DemoLead {
 	name: string;
@@ -310,20 +311,11 @@ export async function seedLeads(url: string, options: SeedLeadsOptions = {}): Pr
 				createdAt: at,
 				updatedAt: at
 			});
-			await db.insert(activities).values({
-				leadId,
-				kind: 'inquiry',
-				body: d.message,
-				data: {
-					services: d.services,
-					budget: d.budget,
-					timeframe: d.timeframe,
-					photos: d.photos?.length ?? 0,
-					ref: d.ref ?? null,
-					source: 'website'
-				},
-				createdAt: at
-			});
+			await db
+				.insert(activities)
+				.values(
+					inquiryActivity(leadId, d, at, { photos: d.photos?.length ?? 0, ref: d.ref ?? null })
+				);
 			if (touched) {
 				await db.insert(activities).values({
 					leadId,

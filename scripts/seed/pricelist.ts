@@ -8,7 +8,7 @@ import {
 	priceListItems,
 	pumpModels
 } from '../../src/lib/server/platform/db/schema';
-import type { scriptDb } from '../lib/db';
+import type { Db } from './shared';
 
 export const DEMO_TERMS = [
 	'Prices hold for 30 days from the date this estimate was sent.',
@@ -16,8 +16,6 @@ export const DEMO_TERMS = [
 	'Underground utilities are located through 811 before any digging; rock or buried debris found while digging may change the price, and we agree any change with you first.',
 	'Pump and lighting circuits are connected to a ground-fault protected outdoor outlet installed by a licensed electrician (not part of this estimate unless listed).'
 ].join('\n\n');
-
-type Db = ReturnType<typeof scriptDb>['db'];
 
 export async function seedPriceList(db: Db): Promise<void> {
 	const catalog = catalogSchema.parse(demoCatalog());

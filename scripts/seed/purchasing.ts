@@ -9,9 +9,7 @@ import {
 	suppliers
 } from '../../src/lib/server/platform/db/schema';
 import { newId } from '../../src/lib/server/platform/crypto';
-import type { scriptDb } from '../lib/db';
-
-type Db = ReturnType<typeof scriptDb>['db'];
+import type { Db } from './shared';
 
 export const DEMO_SUPPLIERS = {
 	quarry: {

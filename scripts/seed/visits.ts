@@ -19,9 +19,7 @@ import {
 	users
 } from '../../src/lib/server/platform/db/schema';
 import { newId, newToken, sha256 } from '../../src/lib/server/platform/crypto';
-import type { scriptDb } from '../lib/db';
-
-type Db = ReturnType<typeof scriptDb>['db'];
+import type { Db } from './shared';
 
 const WEEKDAY_HOURS = { start: '08:00', end: '17:00' };
 

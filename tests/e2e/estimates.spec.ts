@@ -114,15 +114,26 @@ test('build, send, accept on a phone, sold in the office', async ({ page, browse
 	expect(mail.text).toContain(formatCents(saved.total_cents));
 	const link = linkIn(mail, /^\/estimate\/[A-Za-z0-9_-]+$/);
 
-	// The homeowner, on a phone.
+	// The homeowner, on a phone set to a zone far from the firm's. The link's last day is the
+	// firm's calendar day: 03:00 UTC on June 1 is still May 31 in the firm's zone (Denver) while it
+	// is already June 1 on the phone (Auckland). The expected text comes from the platform's own
+	// formatter (ECMA-402 Intl.DateTimeFormat, en-US, dateStyle long) in the firm's zone.
+	const lastMoment = new Date('2099-06-01T03:00:00Z');
+	await sql`update estimates set expires_at = ${lastMoment} where id = ${saved.id}`;
+	const [{ time_zone: firmZone }] = await sql`select time_zone from settings limit 1`;
+	const lastDay = (timeZone: string) =>
+		new Intl.DateTimeFormat('en-US', { dateStyle: 'long', timeZone }).format(lastMoment);
+	expect(lastDay(firmZone)).not.toBe(lastDay('Pacific/Auckland'));
 	const phone = await browser.newContext({
 		viewport: { width: 375, height: 740 },
 		isMobile: true,
-		hasTouch: true
+		hasTouch: true,
+		timezoneId: 'Pacific/Auckland'
 	});
 	const home = await phone.newPage();
 	await home.goto(link);
 	await expect(home.getByRole('heading', { name: /Your estimate/ })).toBeVisible();
+	await expect(home.getByText(`The link works until ${lastDay(firmZone)}.`)).toBeVisible();
 	await expect(home.getByTestId('homeowner-total')).toHaveText(formatCents(saved.total_cents));
 	// Mobile first: nothing runs wider than the phone.
 	expect(await home.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(375);

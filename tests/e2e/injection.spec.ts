@@ -444,11 +444,11 @@ test('punch list items, change orders and a testimonial keep the strings and sho
 	const co = new URLSearchParams({
 		title: evil('cotitle').slice(0, 120),
 		note: evil('conote'),
-		description: evil('coline').slice(0, 200),
-		category: 'other',
-		unit: 'each',
-		quantity: '1',
-		unitPrice: '120.00'
+		'lines.0.description': evil('coline').slice(0, 200),
+		'lines.0.category': 'other',
+		'lines.0.unit': 'each',
+		'lines.0.quantity': '1',
+		'lines.0.unitPrice': '120.00'
 	});
 	expect(await act(owner, `${path}?/changeOrder`, Object.fromEntries(co))).toMatchObject({
 		type: 'success'

@@ -242,7 +242,7 @@ describe('a job', () => {
 					data?: {
 						message?: string;
 						errors?: Record<string, string>;
-						values?: { title: string; lines: Record<string, string>[] };
+						values?: Record<string, string>;
 					};
 				};
 			} catch (e) {
@@ -255,16 +255,16 @@ describe('a job', () => {
 		const draft = new FormData();
 		draft.set('title', 'Two more uplights');
 		draft.set('note', '');
-		for (const [description, quantity, unitPrice] of [
+		for (const [i, [description, quantity, unitPrice]] of [
 			['', '', ''],
 			['Uplight by the maple', 'two', '149.50'],
 			['Stone step', '1', 'lots']
-		]) {
-			draft.append('description', description);
-			draft.append('category', 'lighting');
-			draft.append('unit', 'each');
-			draft.append('quantity', quantity);
-			draft.append('unitPrice', unitPrice);
+		].entries()) {
+			draft.set(`lines.${i}.description`, description);
+			draft.set(`lines.${i}.category`, 'lighting');
+			draft.set(`lines.${i}.unit`, 'each');
+			draft.set(`lines.${i}.quantity`, quantity);
+			draft.set(`lines.${i}.unitPrice`, unitPrice);
 		}
 		const refused = await post('changeOrder', jobId, draft);
 		expect(refused.status).toBe(400);
@@ -272,9 +272,14 @@ describe('a job', () => {
 			'lines.1.quantity': 'Enter a quantity such as 2 or -1',
 			'lines.2.unitPrice': 'Enter a price such as 120.50'
 		});
+		expect(refused.data?.message).toBe('Not saved: check the fields marked.');
 		expect(refused.data?.values?.title).toBe('Two more uplights');
-		expect(refused.data?.values?.lines.map((l) => l.quantity)).toEqual(['', 'two', '1']);
-		expect(refused.data?.values?.lines[2].unitPrice).toBe('lots');
+		expect([0, 1, 2].map((i) => refused.data?.values?.[`lines.${i}.quantity`])).toEqual([
+			'',
+			'two',
+			'1'
+		]);
+		expect(refused.data?.values?.['lines.2.unitPrice']).toBe('lots');
 		expect(await db.select().from(changeOrders)).toHaveLength(0);
 
 		const coId = await createChangeOrder(

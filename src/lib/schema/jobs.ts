@@ -1,5 +1,6 @@
 // Shared input schemas of the jobs domain (office forms, crew forms, homeowner token pages).
 import { z } from 'zod';
+import { parseCents } from '$lib/money';
 import { isDate } from '$lib/scheduling/zone';
 
 const isoDay = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date such as 2027-05-14');
@@ -54,6 +55,59 @@ export const changeOrderSchema = z.object({
 	lines: z.array(changeOrderLineSchema).min(1, 'Add at least one line').max(30)
 });
 export type ChangeOrderInput = z.input<typeof changeOrderSchema>;
+
+/**
+ * One row of the office's draft form as typed (`lines.N.description`, `lines.N.quantity`, …).
+ * A row left empty (no description, no quantity) is no line: it becomes null. Any other row is
+ * read as a change order line, its messages keyed by the row's own inputs, so they show beside
+ * them: `lines.2.unitPrice`, not the schema's `unitPriceCents`.
+ */
+const draftRowSchema = z
+	.object({
+		description: z.string().default(''),
+		category: z.string().default(''),
+		unit: z.string().default(''),
+		quantity: z.string().default(''),
+		unitPrice: z.string().default('')
+	})
+	.transform((row, ctx) => {
+		if (!row.description.trim() && !row.quantity.trim()) return null;
+		const price = row.unitPrice.trim();
+		const line = changeOrderLineSchema.safeParse({
+			description: row.description,
+			category: row.category || 'other',
+			unit: row.unit || 'each',
+			quantity: row.quantity,
+			// Not an amount (letters, a minus, three decimals) reaches the line schema as NaN, which
+			// it refuses with its own message.
+			unitPriceCents: price === '' ? 0 : (parseCents(price, { wholeDigits: 9 }) ?? Number.NaN)
+		});
+		if (line.success) return line.data;
+		for (const issue of line.error.issues) {
+			const [key] = issue.path;
+			ctx.addIssue({
+				code: 'custom',
+				message: issue.message,
+				path: [key === 'unitPriceCents' ? 'unitPrice' : String(key)]
+			});
+		}
+		return z.NEVER;
+	});
+
+/** The office's change order draft form: its rows as typed, the empty ones left out. */
+export const changeOrderDraftSchema = z
+	.object({
+		title: changeOrderSchema.shape.title,
+		note: changeOrderSchema.shape.note,
+		lines: z
+			.array(draftRowSchema)
+			.refine((rows) => rows.some((l) => l !== null), 'Add at least one line')
+			.refine((rows) => rows.filter((l) => l !== null).length <= 30, 'At most 30 lines')
+	})
+	.transform((draft) => ({
+		...draft,
+		lines: draft.lines.filter((l): l is NonNullable<typeof l> => l !== null)
+	}));
 
 export const sendChangeOrderSchema = z.object({
 	changeOrderId: z

@@ -28,6 +28,10 @@ export function choicesOf(
 	return kept.map((i) => ({ value: i.sku, label: i.name }));
 }
 
+/** The price list's pump models as a select's choices, each with its draw. */
+export const pumpChoices = (catalog: ParsedCatalog) =>
+	catalog.pumps.map((m) => ({ value: m.id, label: `${m.name} (${m.watts} W)` }));
+
 /** For the feature at `index` of the design's list: its error-path prefix and its ids' prefix. */
 export const featureKeys = (index: number) => ({ p: `design.features.${index}`, id: `f${index}` });
 

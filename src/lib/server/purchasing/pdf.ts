@@ -3,6 +3,7 @@
 // note, each line with its quantity, cost and extension, and the total.
 import { PDFDocument, StandardFonts, rgb, type PDFFont, type PDFPage } from 'pdf-lib';
 import { formatCents } from '$lib/money';
+import { formatQuantity } from '$lib/quantity';
 
 export interface OrderDocument {
 	firm: { name: string; phone: string; email: string };
@@ -42,8 +43,6 @@ export function winAnsi(text: string): string {
 		})
 		.join('');
 }
-
-const qty = (q: number) => (Number.isInteger(q) ? String(q) : q.toFixed(2).replace(/0$/, ''));
 
 export async function purchaseOrderPdf(doc: OrderDocument): Promise<Uint8Array> {
 	const pdf = await PDFDocument.create();
@@ -94,7 +93,7 @@ export async function purchaseOrderPdf(doc: OrderDocument): Promise<Uint8Array> 
 			header();
 		}
 		write(page, `${l.sku}  ${l.description}`.slice(0, 58), 50);
-		right(page, qty(l.quantity), 380);
+		right(page, formatQuantity(l.quantity), 380);
 		write(page, l.unit, 390);
 		right(page, formatCents(l.unitCostCents), 490);
 		right(page, formatCents(l.extendedCents), 562);

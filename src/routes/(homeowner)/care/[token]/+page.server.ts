@@ -1,13 +1,13 @@
-import { error, fail, redirect } from '@sveltejs/kit';
+import { error, fail } from '@sveltejs/kit';
 import { signUpSchema } from '$lib/schema/care';
 import { careLink } from '$lib/server/care/links';
 import { domainAction } from '$lib/server/http/domain';
 import { clientAddress } from '$lib/server/care/http';
 import { cancelPlan, homeownerCare, signUp } from '$lib/server/care/subscriptions';
 import { startPlanCheckout } from '$lib/server/care/plan-checkout';
-import { CareError } from '$lib/server/care/db';
 import type { Actions, PageServerLoad } from './$types';
 import { parseForm } from '$lib/server/platform/forms';
+import { toCheckout } from '../checkout';
 
 const NOT_FOUND = 'This link does not open a care plan. Ask us for a new one.';
 
@@ -26,21 +26,8 @@ export const load: PageServerLoad = async ({ params, url }) => {
 	};
 };
 
-async function checkout(propertyId: string, token: string) {
-	let url: string;
-	try {
-		url = await startPlanCheckout(propertyId, token);
-	} catch (e) {
-		if (e instanceof CareError) return fail(409, { form: 'pay', message: e.message });
-		console.error('[care] checkout', e);
-		return fail(503, {
-			form: 'pay',
-			message:
-				'The payment service did not answer. Nothing was charged; please try again in a minute.'
-		});
-	}
-	redirect(303, url);
-}
+const checkout = (propertyId: string, token: string) =>
+	toCheckout(() => startPlanCheckout(propertyId, token), 'checkout');
 
 export const actions: Actions = {
 	signUp: async (event) => {

@@ -1,13 +1,10 @@
-import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
-import { fieldErrors } from '$lib/schema/auth';
 import {
-	changeOrderSchema,
+	changeOrderDraftSchema,
 	punchSchema,
 	scheduleSchema,
 	sendChangeOrderSchema
 } from '$lib/schema/jobs';
-import { parseCents } from '$lib/money';
 import { JOB_STAGES_BY_HAND } from '$lib/stages';
 import { requireRole } from '$lib/server/auth/access';
 import {
@@ -61,53 +58,20 @@ export const load: PageServerLoad = async (event) => {
 const idSchema = z.object({ itemId: z.string().min(1), on: z.enum(['1', '0']) });
 const stageSchema = z.object({ to: z.enum(JOB_STAGES_BY_HAND) });
 
-/** Every line row of the draft form as typed, in form order (the form refills from these). */
-function typedLines(data: FormData) {
-	const field = (name: string, i: number) => String(data.getAll(name)[i] ?? '');
-	return data.getAll('description').map((description, i) => ({
-		description: String(description),
-		category: field('category', i) || 'other',
-		unit: field('unit', i) || 'each',
-		quantity: field('quantity', i),
-		unitPrice: field('unitPrice', i)
-	}));
-}
-type TypedLine = ReturnType<typeof typedLines>[number];
-
-/** A zod path inside the parsed lines back to the form's own row and input name. */
-function formPath(key: string, rows: number[]): string {
-	const m = /^lines\.(\d+)\.(\w+)$/.exec(key);
-	if (!m) return key;
-	const input = m[2] === 'unitPriceCents' ? 'unitPrice' : m[2];
-	return `lines.${rows[Number(m[1])]}.${input}`;
-}
-
-function parseDraft(data: FormData) {
-	const typed = typedLines(data);
-	const rows = typed.flatMap((l, i) => (l.description.trim() || l.quantity.trim() ? [i] : []));
-	const parsed = changeOrderSchema.safeParse({
-		title: data.get('title') ?? '',
-		note: data.get('note') ?? '',
-		lines: rows.map((i) => lineInput(typed[i]))
-	});
-	const values = { title: String(data.get('title') ?? ''), lines: typed };
-	if (parsed.success) return { ok: true as const, draft: parsed.data };
-	const errors: Record<string, string> = {};
-	for (const [key, message] of Object.entries(fieldErrors(parsed.error))) {
-		errors[formPath(key, rows)] ??= message;
+/**
+ * The draft form's fields as the schema reads them: its rows `lines.N.input` as an array in row
+ * order, so each message comes back keyed by the input it is about (`lines.1.quantity`).
+ */
+function draftInput(form: FormData) {
+	const lines: Record<string, string>[] = [];
+	for (const [key, value] of form) {
+		const m = /^lines\.(\d{1,2})\.(\w+)$/.exec(key);
+		if (m && typeof value === 'string') (lines[Number(m[1])] ??= {})[m[2]] = value;
 	}
-	return { ok: false as const, values, errors };
-}
-
-function lineInput(l: TypedLine) {
 	return {
-		description: l.description,
-		category: l.category,
-		unit: l.unit,
-		quantity: l.quantity,
-		// Not an amount (letters, a minus, three decimals) reaches the schema as NaN, which it refuses.
-		unitPriceCents:
-			l.unitPrice.trim() === '' ? 0 : (parseCents(l.unitPrice, { wholeDigits: 9 }) ?? Number.NaN)
+		title: String(form.get('title') ?? ''),
+		note: String(form.get('note') ?? ''),
+		lines: Array.from(lines, (row) => row ?? {})
 	};
 }
 
@@ -187,17 +151,14 @@ export const actions: Actions = {
 	},
 	changeOrder: async (event) => {
 		const user = requireRole(event, 'owner', 'sales');
-		const result = parseDraft(await event.request.formData());
-		if (!result.ok) {
-			return fail(400, {
-				form: 'changeOrder',
-				values: result.values,
-				errors: result.errors,
-				message: 'Not saved: check the fields marked.'
-			});
-		}
+		const parsed = await parseForm(event.request, changeOrderDraftSchema, {
+			extra: { form: 'changeOrder' },
+			read: draftInput,
+			message: 'Not saved: check the fields marked.'
+		});
+		if (!parsed.ok) return parsed.failure;
 		return domainAction(async () => {
-			await createChangeOrder(event.params.id, result.draft, user);
+			await createChangeOrder(event.params.id, parsed.data, user);
 			return { form: 'changeOrder', saved: true };
 		}, 'changeOrder');
 	},

@@ -1,6 +1,5 @@
-import { error, fail, redirect } from '@sveltejs/kit';
+import { error } from '@sveltejs/kit';
 import { z } from 'zod';
-import { CareError } from '$lib/server/care/db';
 import { domainAction } from '$lib/server/http/domain';
 import { serviceVisitPhotoLinks } from '$lib/server/care/photos';
 import {
@@ -11,6 +10,7 @@ import {
 } from '$lib/server/care/service';
 import type { Actions, PageServerLoad } from './$types';
 import { parseForm } from '$lib/server/platform/forms';
+import { toCheckout } from '../../checkout';
 
 const NOT_FOUND = 'This link does not open a visit. Ask us for a new one.';
 
@@ -52,18 +52,6 @@ export const actions: Actions = {
 	},
 	pay: async ({ params }) => {
 		const v = await visitOf(params.token);
-		let url: string;
-		try {
-			url = await startVisitCheckout(v, params.token);
-		} catch (e) {
-			if (e instanceof CareError) return fail(409, { form: 'pay', message: e.message });
-			console.error('[care] visit checkout', e);
-			return fail(503, {
-				form: 'pay',
-				message:
-					'The payment service did not answer. Nothing was charged; please try again in a minute.'
-			});
-		}
-		redirect(303, url);
+		return toCheckout(() => startVisitCheckout(v, params.token), 'visit checkout');
 	}
 };
