@@ -363,7 +363,10 @@ export function listSql(
 	}
 	const counted = exact ? '(select recount from c)' : 'true';
 	// The matches (a list of thousands) on the first row only, not on every row of the page.
-	const matchList = searchTerms(q.q).length ? '(select matches from mx)' : 'null::int[]';
+	// Not for dates: their views are not kept (see facetsKey), so neither is the list (`mx`, when
+	// not referenced, is not run).
+	const keepsMatches = searchTerms(q.q).length > 0 && !q.from && !q.to;
+	const matchList = keepsMatches ? '(select matches from mx)' : 'null::int[]';
 	const text = `with ${ctes},
 	fx as (
 		select coalesce(json_object_agg(stage, n), '{}'::json) as "_facets",
