@@ -364,6 +364,34 @@ describe('GET /api/leads: search', () => {
 		expect(names(await list('q=quarrymail patio'))).toEqual([]);
 	});
 
+	it('pages a searched view and its stage chips in the same order as a fresh search', async () => {
+		for (let i = 0; i < 30; i++) {
+			await makeLead({
+				message: 'A fountain by the patio',
+				stage: i % 3 ? 'new' : 'contacted',
+				createdAt: ago(100 + i)
+			});
+		}
+		const ids = async (where: string, order = 'created_at desc, number desc') =>
+			(
+				await client.unsafe(
+					`select id from leads where search_text like '%patio%' ${where} order by ${order}`
+				)
+			).map((r) => r.id);
+		expect((await list('q=patio')).total).toBe(31);
+		// The next requests of the view read their pages from the matches the first one kept.
+		const page2 = await list('q=patio&page=2');
+		expect(page2.rows.map((r) => r.id)).toEqual((await ids('')).slice(25));
+		const contacted = await list('q=patio&stage=contacted');
+		expect(contacted.rows.map((r) => r.id)).toEqual(await ids(`and stage = 'contacted'`));
+		expect(contacted.total).toBe(10);
+		const byName = await list('q=patio&sort=name&dir=asc&stage=new');
+		await list('q=patio&sort=name&dir=asc&stage=new&page=2');
+		expect(byName.rows.map((r) => r.id)).toEqual(
+			(await ids(`and stage = 'new'`, 'sort_name, number')).slice(0, 21)
+		);
+	});
+
 	it('answers words from the full-text index and fragments from the trigram index', async () => {
 		const plan = async (search: string) => {
 			const q = parseLeadQuery(new URLSearchParams(search));
