@@ -93,6 +93,8 @@ test('the owner filters, searches, sorts and pages; the URL keeps the view', asy
 	await page.goBack();
 	await expect(page).not.toHaveURL(/page=2/);
 	await expect(page.getByText('Page 1 of 2')).toBeVisible();
+	// The pager follows the URL at once; the rows once page 1 has loaded (page 2 had 3).
+	await expect(rows).toHaveCount(25);
 
 	// Keyboard: focus the first row, move down with the arrow key, open with Enter.
 	await rows.first().focus();
