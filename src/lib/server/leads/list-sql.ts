@@ -26,6 +26,9 @@ import { BUDGETS, STAGES, type LeadQuery, type Stage } from '../../schema/leads'
  * app): more are not kept, and the view's next pages are then searched again (through the index).
  */
 export const KEPT_MATCHES = 10_000;
+// A kept match packs its stage into three bits (lead number times 8 plus 1 to 7): more stages
+// would read as the wrong stage, so they need another packing first.
+if (STAGES.length > 7) throw new Error('The kept search matches hold at most 7 lead stages');
 
 /** Days are the firm's days: the time zone comes from the settings row, inside the query. */
 const FIRM_TZ = `(select time_zone from settings where id = 1)`;
