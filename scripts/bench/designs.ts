@@ -3,7 +3,7 @@
  * the three-outlet demo, a twelve-outlet design with lighting and a wall, and a whole yard: a pond,
  * a three-fall pondless stream, the three-column fountain, lights and a wall.
  */
-import { demoCatalog, demoDesign, demoFountain } from '../../src/lib/estimating/demo';
+import { demoCatalog, demoDesign, demoFountain } from '../seed/demo-catalog';
 import type { Design } from '../../src/lib/estimating/schema';
 import { starterPond, starterStream } from '../../src/lib/estimating/starter-features';
 

@@ -4,7 +4,7 @@
 // off and prices the design on every change: that is the figure the goal is measured on. The figure
 // with the price list validated again on every call (as a save on the server does) is shown beside it.
 import { estimate, prepareCatalog, type Design } from '../../src/lib/estimating/index';
-import { demoCatalog, demoDesign } from '../../src/lib/estimating/demo';
+import { demoCatalog, demoDesign } from '../seed/demo-catalog';
 import { twelveOutletDesign, yardDesign } from './designs';
 import { medianMs, writeResult } from './lib';
 

@@ -4,7 +4,7 @@
 // stone supplier's invoice, a compact loader hired for a day and the deposit received. Safe to
 // run twice: nothing is written when the demo homeowner already exists.
 import { eq } from 'drizzle-orm';
-import { demoCatalog, demoDesign } from '../../src/lib/estimating/demo';
+import { demoCatalog, demoDesign } from './demo-catalog';
 import { catalogSchema } from '../../src/lib/estimating/schema';
 import {
 	contacts,

@@ -5,7 +5,7 @@
 // the inquiry asked for, sized from the (invented) visit notes below and priced from the demo price
 // list. Safe to run twice: a lead that already has an estimate is left alone.
 import { eq } from 'drizzle-orm';
-import { demoCatalog } from '../../src/lib/estimating/demo';
+import { demoCatalog } from './demo-catalog';
 import { starterDesign } from '../../src/lib/estimating/prefill';
 import { catalogSchema, type Design, type ParsedCatalog } from '../../src/lib/estimating/schema';
 import { starterLabel } from '../../src/lib/estimating/starter-features';

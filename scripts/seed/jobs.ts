@@ -5,7 +5,7 @@
 // nothing is written when the demo lead already has an estimate.
 import { register } from 'node:module';
 import { eq } from 'drizzle-orm';
-import { demoCatalog, demoDesign } from '../../src/lib/estimating/demo';
+import { demoCatalog, demoDesign } from './demo-catalog';
 import { catalogSchema } from '../../src/lib/estimating/schema';
 import {
 	activities,

@@ -1,6 +1,6 @@
 // The invented demo price list: items, pump curves, a labor rate and the engine settings from the
 // engine's demo catalog (made up for Copperleaf Water & Stone). Safe to run twice.
-import { demoCatalog } from '../../src/lib/estimating/demo';
+import { demoCatalog } from './demo-catalog';
 import { catalogSchema } from '../../src/lib/estimating/schema';
 import {
 	estimatingSettings,

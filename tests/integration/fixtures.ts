@@ -101,7 +101,7 @@ export async function makeEstimate(
 	const schema = await import('$lib/server/platform/db/schema');
 	const { newId } = await import('$lib/server/platform/crypto');
 	const { estimate } = await import('$lib/estimating');
-	const { demoCatalog, demoDesign } = await import('$lib/estimating/demo');
+	const { demoCatalog, demoDesign } = await import('../../scripts/seed/demo-catalog');
 	const design = demoDesign();
 	const catalog = demoCatalog();
 	const result = estimate(design, catalog);

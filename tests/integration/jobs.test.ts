@@ -28,7 +28,7 @@ import { deliverOutboxMessage } from '$lib/server/platform/outbox';
 import type { SessionUser } from '$lib/server/auth/sessions';
 import { resetDatabase } from '../support/database';
 import { allMail, clearMail, linkIn, waitForMail } from '../support/mailbox';
-import { demoDesign } from '$lib/estimating/demo';
+import { demoDesign } from '../../scripts/seed/demo-catalog';
 import { makeEstimate, makeUser, seedFirm } from './fixtures';
 import { actions as jobPageActions } from '../../src/routes/office/jobs/[id]/+page.server';
 import { load as jobsListLoad } from '../../src/routes/office/jobs/+page.server';

@@ -12,7 +12,7 @@ import {
 	siteVisits
 } from '$lib/server/platform/db/schema';
 import { estimate as runEngine } from '$lib/estimating';
-import { demoDesign } from '$lib/estimating/demo';
+import { demoDesign } from '../../scripts/seed/demo-catalog';
 import { exportPriceList, importPriceList, loadCatalog } from '$lib/server/pricelist/catalog';
 import { createEstimate } from '$lib/server/estimates/versions';
 import { getEstimate } from '$lib/server/estimates/records';

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { estimate } from '$lib/estimating';
 import { yardDesign } from '../../../scripts/bench/designs';
-import { demoCatalog, demoDesign } from '$lib/estimating/demo';
+import { demoCatalog, demoDesign } from '../../../scripts/seed/demo-catalog';
 import { starterDesign } from '$lib/estimating/prefill';
 import { catalogSchema, type Design } from '$lib/estimating/schema';
 import { learnedRatios, proposedRate, rateKeyOf, rateValue, withRate, RATE_KEYS } from './rates';

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { demoCatalog, demoDesign } from './demo';
+import { demoCatalog, demoDesign } from '../../../scripts/seed/demo-catalog';
 import { siteWork, type SiteWorkInput } from './equipment';
 import { estimate } from './index';
 import { digTasks, planMachines, rateTask, type Dig } from './labor';

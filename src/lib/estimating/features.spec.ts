@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import fixture from '../../../tests/fixtures/accepted-v1.json';
 import { yardDesign } from '../../../scripts/bench/designs';
-import { demoCatalog, demoDesign, demoFountain } from './demo';
+import { demoCatalog, demoDesign, demoFountain } from '../../../scripts/seed/demo-catalog';
 import { estimate, type EstimateSuccess } from './index';
 import { defaultChoices, priceWithOverrides, totalsForChoices } from './overrides';
 import type { Design, FeatureInput } from './schema';

@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { fountainIn } from '../../../tests/support/fountain';
 import { describe, expect, it } from 'vitest';
-import { demoCatalog, demoDesign } from './demo';
+import { demoCatalog, demoDesign } from '../../../scripts/seed/demo-catalog';
 import { estimate, prepareCatalog, type Design, type EstimateSuccess } from './index';
 import { twelveOutletDesign, yardDesign } from '../../../scripts/bench/designs';
 import { sizesFor, PIPE_MATERIALS } from './pipes';

@@ -11,7 +11,7 @@ import {
 	type LaborParts
 } from './labor';
 import { LABOR_RATES, SOILS } from './labor-rates';
-import { demoCatalog, demoDesign } from './demo';
+import { demoCatalog, demoDesign } from '../../../scripts/seed/demo-catalog';
 import { estimate, type EstimateSuccess } from './index';
 import { fountainIn } from '../../../tests/support/fountain';
 import { designSchema, settingsSchema, siteSchema, type Design } from './schema';

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { demoCatalog, demoDesign } from './demo';
+import { demoCatalog, demoDesign } from '../../../scripts/seed/demo-catalog';
 import { estimate, prepareCatalog, type EstimateSuccess } from './index';
 import {
 	cleanChoices,

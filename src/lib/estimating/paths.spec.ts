@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { BASE_COMPACTION_FACTOR, BEDDING_COMPACTION_FACTOR, compactionFactor } from './earthwork';
 import { SOILS } from './labor-rates';
 import { analysePath, jointLengthPerArea, pathTasks } from './paths';
-import { demoCatalog } from './demo';
+import { demoCatalog } from '../../../scripts/seed/demo-catalog';
 import { catalogSchema, featureSchema, settingsSchema, type PathFeature } from './schema';
 import { starterPath } from './starter-yard';
 import { fromSI } from './units';

@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { analysePlanting, cellAreaM2, plantingTasks, plantsFor } from './planting';
 import { featureSchema, settingsSchema, type PlantingFeature } from './schema';
 import { starterPlanting } from './starter-yard';
-import { demoCatalog } from './demo';
+import { demoCatalog } from '../../../scripts/seed/demo-catalog';
 import { catalogSchema } from './schema';
 import { fromSI } from './units';
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { demoCatalog } from './demo';
+import { demoCatalog } from '../../../scripts/seed/demo-catalog';
 import { estimate } from './index';
 import { analysePond, linerSizeFt, pondErrors, pondGallons, pondPlan } from './pond';
 import { catalogSchema, featureSchema, settingsSchema, type Pond } from './schema';

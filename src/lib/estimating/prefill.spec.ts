@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { fountainIn } from '../../../tests/support/fountain';
 import { estimate } from './index';
-import { demoCatalog, demoDesign } from './demo';
+import { demoCatalog, demoDesign } from '../../../scripts/seed/demo-catalog';
 import { settingsSchema, type Design } from './schema';
 import { narrowAccessLabor, scopeFromNotes, starterDesign } from './prefill';
 

@@ -5,7 +5,7 @@
  * topping alternate, an optional low wall and three lights. It names price-list items by SKU; the
  * starter swaps in the firm's own items (`STANDARD_ITEM_UNITS` says how each named item is sold, so
  * a firm's item sold the same way is preferred). Sizes are starting points the salesperson
- * changes (common practice, no source). It is not demo data: the demo (demo.ts) prices it.
+ * changes (common practice, no source). It is not demo data: the demo (scripts/seed/demo-catalog.ts) prices it.
  */
 import type { Design, FeatureInput, ItemUnit } from './schema';
 

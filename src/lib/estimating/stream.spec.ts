@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { demoCatalog } from './demo';
+import { demoCatalog } from '../../../scripts/seed/demo-catalog';
 import { estimate, type EstimateSuccess } from './index';
 import { catalogSchema, featureSchema, settingsSchema, type Stream } from './schema';
 import { streamErrors, streamFlowM3s, streamLinerFt } from './stream';

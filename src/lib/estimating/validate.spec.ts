@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { fountainIn } from '../../../tests/support/fountain';
-import { demoCatalog, demoDesign } from './demo';
+import { demoCatalog, demoDesign } from '../../../scripts/seed/demo-catalog';
 import { catalogSchema, designSchema } from './schema';
 import { crossCheck } from './validate';
 

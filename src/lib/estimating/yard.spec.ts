@@ -1,7 +1,7 @@
 // Whole estimates with the yard features: a path and planting with no water at all, a dry creek
 // with its boulders, and lighting alone.
 import { describe, expect, it } from 'vitest';
-import { demoCatalog, demoDesign } from './demo';
+import { demoCatalog, demoDesign } from '../../../scripts/seed/demo-catalog';
 import { estimate, type EstimateSuccess } from './index';
 import { catalogSchema, type Design } from './schema';
 import { starterDrainage, starterPath, starterPlanting } from './starter-yard';

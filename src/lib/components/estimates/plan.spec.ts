@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { fountainIn } from '../../../../tests/support/fountain';
 import { designSchema, estimate } from '$lib/estimating';
-import { demoDesign } from '$lib/estimating/demo';
+import { demoDesign } from '../../../../scripts/seed/demo-catalog';
 import { includedBuckets } from '$lib/estimating/pricing';
 import { yardDesign } from '../../../../scripts/bench/designs';
 import { boxOf } from './geometry';

@@ -3,8 +3,8 @@
  * tests only (nothing that ships imports it): the demo design is the firm's standard feature
  * (standard-feature.ts), priced from the demo price list below. Prices and pump curves are made up.
  */
-import type { Catalog, CatalogItem, ItemUnit } from './schema';
-import { standardDesign, standardFountain } from './standard-feature';
+import type { Catalog, CatalogItem, ItemUnit } from '../../src/lib/estimating/schema';
+import { standardDesign, standardFountain } from '../../src/lib/estimating/standard-feature';
 
 /** The demo's three-column fountain: the standard one. */
 export const demoFountain = standardFountain;
