@@ -3,10 +3,13 @@
 // or CR that hides one) gets a leading apostrophe, so opening the export runs nothing.
 
 const FORMULA_START = /^[=+\-@\t\r]/;
+/** A formula start or a character that needs quotes: most values have neither, and are their cell. */
+const NEEDS_RULES = /^[=+\-@\t\r]|[",\r\n]/;
 
 export function csvCell(value: unknown): string {
 	if (value === null || value === undefined) return '';
 	let text = value instanceof Date ? value.toISOString() : String(value);
+	if (!NEEDS_RULES.test(text)) return text;
 	if (FORMULA_START.test(text)) text = `'${text}`;
 	return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
 }

@@ -22,8 +22,9 @@ export const SERVICE_LABELS: Record<string, string> = {
 	'water-feature': 'Water feature'
 };
 
+/** A key's label, or the key in words; only the map's own keys count ("constructor" is no label). */
 export const label = (map: Record<string, string>, key: string | null | undefined) =>
-	key ? (map[key] ?? key.replaceAll('_', ' ')) : '';
+	key ? (Object.hasOwn(map, key) ? map[key] : key.replaceAll('_', ' ')) : '';
 
 export const SORTS = ['received', 'name', 'town', 'stage', 'budget', 'last_touch'] as const;
 export type SortKey = (typeof SORTS)[number];

@@ -3,7 +3,7 @@
 import { Buffer } from 'node:buffer';
 import { csvCell } from '$lib/csv';
 import { whenWriter } from '$lib/firm-time';
-import { BUDGET_LABELS, SERVICE_LABELS, STAGE_LABELS } from '$lib/schema/leads';
+import { BUDGET_LABELS, label, SERVICE_LABELS, STAGE_LABELS } from '$lib/schema/leads';
 
 /** A row of exportSql: the values of EXPORT_COLUMNS, times in whole minutes since 1970. */
 export type ExportRow = [
@@ -34,13 +34,6 @@ function grown(bytes: Buffer, used: number, more: number) {
 	return larger;
 }
 
-/** Formula starts and the characters that need quotes: a text without them is its own cell. */
-const NEEDS_RULES = /^[=+\-@\t\r]|[",\r\n]/;
-
-/** `csvCell` of a text, through one regular expression for the values that need no rule. */
-const textCell = (value: string | null) =>
-	value === null ? '' : NEEDS_RULES.test(value) ? csvCell(value) : value;
-
 /**
  * The cells of values that repeat from row to row (labels, assignees, sources), each made once.
  * At most `max` are kept, so a column of distinct values costs no more than making each.
@@ -57,12 +50,6 @@ function repeatedCells<K>(cellOf: (key: K) => string, max = 1000): (key: K) => s
 	};
 }
 
-/** A key's label as `label()` in $lib/schema/leads writes it, from a map of own keys only. */
-function labeller(labels: Record<string, string>): (key: string | null) => string {
-	const map = new Map(Object.entries(labels));
-	return (key) => (key ? (map.get(key) ?? key.replaceAll('_', ' ')) : '');
-}
-
 /**
  * Writes rows of exportSql as CSV lines, as `csvLine` writes the cells the office shows: times
  * in the firm's zone ("Dec 3, 5:14 PM"), labels instead of keys, formulas neutralised. Made for
@@ -74,23 +61,27 @@ export function exportWriter(timeZone: string): (rows: readonly ExportRow[]) => 
 	const when = whenWriter(timeZone);
 	// A time's text always holds a comma, so it is always quoted, and never starts a formula.
 	const time = (minutes: number | null) => (minutes === null ? '' : `"${when(minutes * 60_000)}"`);
-	const labelCell = (labels: Record<string, string>) => {
-		const label = labeller(labels);
-		return repeatedCells((key: string | null) => textCell(label(key)));
-	};
-	const service = labeller(SERVICE_LABELS);
+	const labelCell = (labels: Record<string, string>) =>
+		repeatedCells((key: string | null) => csvCell(label(labels, key)));
 	// Keyed by the keys joined with NUL, which no PostgreSQL text can hold.
 	const servicesCell = repeatedCells((keys: string) =>
-		textCell(keys ? keys.split('\0').map(service).join('; ') : '')
+		csvCell(
+			keys
+				? keys
+						.split('\0')
+						.map((key) => label(SERVICE_LABELS, key))
+						.join('; ')
+				: ''
+		)
 	);
 	const budget = labelCell(BUDGET_LABELS);
 	const stage = labelCell(STAGE_LABELS);
-	const repeated = repeatedCells(textCell);
+	const repeated = repeatedCells(csvCell);
 	return (rows) => {
 		let bytes: Buffer = Buffer.allocUnsafe(rows.length * BYTES_PER_ROW);
 		let at = 0;
 		for (const r of rows) {
-			const line = `R-${r[0]},${time(r[1])},${textCell(r[2])},${textCell(r[3])},${textCell(r[4])},${textCell(r[5])},${servicesCell(r[6].join('\0'))},${budget(r[7])},${stage(r[8])},${repeated(r[9])},${repeated(r[10])},${repeated(r[11])},${repeated(r[12])},${time(r[13])},${time(r[14])}\r\n`;
+			const line = `R-${r[0]},${time(r[1])},${csvCell(r[2])},${csvCell(r[3])},${csvCell(r[4])},${csvCell(r[5])},${servicesCell(r[6].join('\0'))},${budget(r[7])},${stage(r[8])},${repeated(r[9])},${repeated(r[10])},${repeated(r[11])},${repeated(r[12])},${time(r[13])},${time(r[14])}\r\n`;
 			// A UTF-16 unit takes at most 3 bytes in UTF-8.
 			if (bytes.length - at < line.length * 3) bytes = grown(bytes, at, line.length * 3);
 			at += bytes.write(line, at);

@@ -55,17 +55,14 @@ export async function leadsCsvStream(
 	};
 	const first = await pending;
 	if (!first.done) ask();
-	const encoder = new TextEncoder();
 	return new ReadableStream<Uint8Array>(
 		{
 			start(controller) {
-				const head = csvLine(EXPORT_COLUMNS);
+				controller.enqueue(new TextEncoder().encode(csvLine(EXPORT_COLUMNS)));
 				if (first.done) {
 					finished = true;
-					controller.enqueue(encoder.encode(head));
 					controller.close();
 				} else {
-					controller.enqueue(encoder.encode(head));
 					controller.enqueue(write(first.value.map(only)));
 				}
 			},
