@@ -115,9 +115,9 @@ const WHOLE_MINUTE_OFFSETS_FROM = Date.UTC(1973, 0, 1);
 /**
  * The `when` style ("May 14, 9:30 AM") for many instants in one zone, as `inZone` writes it but
  * about twenty times faster: the zone's offset is asked of Intl once per UTC day, and the text is
- * made from the day's text and the minute's, each made once. A day whose offset differs at its first and last millisecond holds a
- * change of offset (daylight saving), and its instants go through Intl itself. For exports of
- * many rows; a page of 25 has no need for it.
+ * made from the day's text and the minute's, each made once. A day whose offset differs at its
+ * first and last millisecond holds a change of offset (daylight saving), and its instants go
+ * through Intl itself. For exports of many rows; a page of 25 has no need for it.
  */
 export function whenWriter(timeZone: string): (ms: number) => string {
 	const offsets = new Map<number, number | null>();

@@ -164,6 +164,14 @@ export async function runList(
 	return list;
 }
 
+/** The filters of a view other than stage, search and dates, as parts of a key. */
+const filtersBesideStage = (q: LeadQuery, ctx: ListContext) => [
+	[...q.service].sort(),
+	[...q.budget].sort(),
+	q.assignee === 'mine' ? ctx.userId : (q.assignee ?? null),
+	q.awaiting
+];
+
 /**
  * The key under which the facets of a view may be kept between its pages and stage chips: every
  * filter but stage (and sort and paging, which do not change the counts). Null when the facets
@@ -172,14 +180,7 @@ export async function runList(
  */
 export function facetsKey(q: LeadQuery, ctx: ListContext, asTyped = false): string | null {
 	if (!countsExactly(q) || q.from || q.to) return null;
-	return JSON.stringify([
-		[...q.service].sort(),
-		[...q.budget].sort(),
-		q.assignee === 'mine' ? ctx.userId : (q.assignee ?? null),
-		q.awaiting,
-		searchTerms(q.q),
-		asTyped
-	]);
+	return JSON.stringify([...filtersBesideStage(q, ctx), searchTerms(q.q), asTyped]);
 }
 
 /**
@@ -191,10 +192,7 @@ export function pagesKey(q: LeadQuery, ctx: ListContext): string | null {
 	if (searchTerms(q.q).length || q.from || q.to) return null;
 	return JSON.stringify([
 		[...q.stage].sort(),
-		[...q.service].sort(),
-		[...q.budget].sort(),
-		q.assignee === 'mine' ? ctx.userId : (q.assignee ?? null),
-		q.awaiting,
+		...filtersBesideStage(q, ctx),
 		q.sort,
 		q.dir,
 		q.size
