@@ -177,7 +177,9 @@ export const stageClause = (q: LeadQuery, p: Params, alias: string) =>
 
 /**
  * The filters other than stage, on leads `l`. With `stageInWords`, a word search also takes the
- * stage filter into its tsquery (the caller then adds no stage clause when `words` is set).
+ * stage filter into its tsquery (the caller then adds no stage clause when `words` is set). With
+ * `wordsIf`, a word search looks its words up only when that SQL condition holds (otherwise its
+ * tsquery is null, and the GIN index is not read at all).
  */
 export function filterClauses(
 	q: LeadQuery,
@@ -185,7 +187,8 @@ export function filterClauses(
 	p: Params,
 	search = true,
 	asTyped = false,
-	stageInWords = false
+	stageInWords = false,
+	wordsIf: string | null = null
 ): string[] {
 	const clauses: string[] = [];
 	const words = search ? searchParts(q.q, asTyped).words : null;
@@ -214,7 +217,10 @@ export function filterClauses(
 				parts.push(`${p.add(serviceStageQuery(q.service, q.stage))}::tsquery`);
 			} else if (q.service.length) parts.push(`${p.add(serviceQuery(q.service))}::tsquery`);
 			else if (stages) parts.push(`${p.add(stageQuery(q.stage))}::tsquery`);
-			clauses.push(`l.search_words @@ (select ${parts.join(' && ')})`);
+			const tsquery = parts.join(' && ');
+			clauses.push(
+				`l.search_words @@ (select ${wordsIf ? `case when ${wordsIf} then ${tsquery} end` : tsquery})`
+			);
 		}
 		for (const term of searchParts(q.q, asTyped).fragments) {
 			clauses.push(`l.search_text like ${p.add(`%${escapeLike(term)}%`)}`);
@@ -295,15 +301,28 @@ export function listSql(
 	// `c` is evaluated once (an InitPlan); `(select recount from c)` in a WHERE is a one-time
 	// filter, so the branch it turns off is never run.
 	const recount = exact ? `c as materialized (select ${recountSql(p, kept)} as recount),` : '';
+	// A search's matches are listed for the caller to keep, except under dates: their views are
+	// not kept (see facetsKey), so neither is the list.
+	const keepsMatches = searchTerms(q.q).length > 0 && !q.from && !q.to;
 	let ctes: string;
+	// How the page's rows are found again in `r`: by id from a sort's covering index, by number
+	// from a search's list of matches.
+	let joinOn = 'l.id = pg.id';
+	// The stage facets as JSON (`{stage: n}`, stages with no lead left out) and where they come from.
+	let facetsJson = `coalesce(json_object_agg(stage, n), '{}'::json)`;
+	let facetsFrom = 'f';
 	if (searchTerms(q.q).length) {
-		const matches = filterClauses(q, ctx, p, true, asTyped);
-		matches.push('(select recount from c)');
-		const stage = q.stage.length ? `where ${stageClause(q, p, 'm')}` : '';
+		joinOn = 'l.number = pg.number';
+		// Counting only when the kept facets are stale (`c`): inside the tsquery of a word search
+		// (no extra plan node for every match to pass through), else as a one-time filter.
+		const counting = '(select recount from c)';
+		const hasWords = !!searchParts(q.q, asTyped).words;
+		const matches = filterClauses(q, ctx, p, true, asTyped, false, hasWords ? counting : null);
+		if (!hasWords) matches.push(counting);
 		let alone: string;
 		if (known.page) {
 			// The page's leads by number, when the matches are kept with the facets (runList).
-			alone = `select l.id, ${key} as k, l.number from leads l
+			alone = `select l.number from leads l
 			where l.number = any(${p.add(known.page)}::int[]) and not (select recount from c)`;
 		} else {
 			// The page alone, when the facets are kept: the stage filter joins the tsquery of a
@@ -311,29 +330,40 @@ export function listSql(
 			const clauses = filterClauses(q, ctx, p, true, asTyped, true);
 			if (q.stage.length && !searchParts(q.q, asTyped).words) clauses.push(stageClause(q, p, 'l'));
 			clauses.push('not (select recount from c)');
-			alone = `select l.id, ${key} as k, l.number from leads l ${where(clauses)}
-			order by k ${dir}, number ${dir} ${paging()}`;
+			alone = `select l.number from leads l ${where(clauses)}
+			order by ${key} ${dir}, l.number ${dir} ${paging()}`;
 		}
-		// Every match in the view's order, when there are few enough to keep: the next pages and
-		// stage chips of the view then read only their leads, by number. One int per match, the
-		// lead number times 8 plus its stage (1 to 7, in STAGES order): half the time of pairs.
-		// The list is made (an InitPlan, run only when its CASE branch is) only under the limit.
-		const stageIndex = `case stage ${STAGES.map((st, i) => `when '${st}' then ${i + 1}`).join(' ')} end`;
+		// Counting, one pass over the matches in the view's order (`m`, sorted once) into one
+		// aggregate row (`a`): the count of each stage; every match (one int per match, the lead
+		// number times 8 plus its stage, 1 to 7 in STAGES order), kept by the caller when there are
+		// few enough; and the numbers of the page's leads (the matches in the view's stages, sliced).
+		// The aggregates take their input in the order of `m` (no ORDER BY of their own, which would
+		// sort again for each). The page's rows are then read by number.
+		const stageIndex = `case m.stage ${STAGES.map((st, i) => `when '${st}' then ${i + 1}`).join(' ')} end`;
+		const inView = q.stage.length ? ` filter (where ${stageClause(q, p, 'm')})` : '';
+		const from = q.page > 1 ? `${p.add((q.page - 1) * q.size)}::int` : '0';
+		const counts = STAGES.map(
+			(st) => `'${st}', nullif(count(*) filter (where m.stage = '${st}'), 0)`
+		).join(', ');
+		const list = keepsMatches
+			? `case when count(*) <= ${KEPT_MATCHES} then array_agg(m.number * 8 + ${stageIndex}) end`
+			: 'null::int[]';
 		ctes = `${recount}
-	m as materialized (
-		select l.id, l.stage, l.number, ${key} as k from leads l ${where(matches)}
-	),
-	f as (select stage, count(*)::int as n from m group by stage),
-	mx as (
-		select case when (select sum(n) from f) <= ${KEPT_MATCHES} then (
-			select array_agg(number * 8 + ${stageIndex} order by k ${dir}, number ${dir}) from m
-		) end as matches
+	a as materialized (
+		select json_strip_nulls(json_build_object(${counts})) as facets, ${list} as matches,
+			(array_agg(m.number)${inView})[${from} + 1 : ${from} + ${Math.trunc(q.size)}] as page
+		from (
+			select l.number, l.stage from leads l ${where(matches)}
+			order by ${key} ${dir}, l.number ${dir}
+		) m
 	),
 	pg as (
-		(select id, k, number from m ${stage} order by k ${dir}, number ${dir} ${paging()})
+		(select u.number from a, unnest(a.page) u(number) where (select recount from c))
 		union all
 		(${alone})
 	)`;
+		facetsJson = `(select facets from a)`;
+		facetsFrom = 'c';
 	} else {
 		let facets = countedFacets(q, ctx, p);
 		if (!facets) {
@@ -365,24 +395,23 @@ export function listSql(
 		}
 	}
 	const counted = exact ? '(select recount from c)' : 'true';
-	// The matches (a list of thousands) on the first row only, not on every row of the page.
-	// Not for dates: their views are not kept (see facetsKey), so neither is the list (`mx`, when
-	// not referenced, is not run).
-	const keepsMatches = searchTerms(q.q).length > 0 && !q.from && !q.to;
-	const matchList = keepsMatches ? '(select matches from mx)' : 'null::int[]';
+	// The matches (a list of thousands) on the first row only, added after the rows are sorted so
+	// that the sort does not carry them.
+	const matchList = keepsMatches ? '(select matches from a)' : 'null::int[]';
 	const text = `with ${ctes},
 	fx as (
-		select coalesce(json_object_agg(stage, n), '{}'::json) as "_facets",
+		select ${facetsJson} as "_facets",
 			${counted} as "_counted", pg_current_snapshot()::text as "_snapshot",
-			${matchList} as "_matches",
 			${known.start && !searchTerms(q.q).length ? 'not (select stale from s)' : 'null::bool'} as "_sought"
-		from f
+		from ${facetsFrom}
 	),
-	r as (select pg.k as "_k", pg.k::text as "_key", ${ROW_COLUMNS} from pg join leads l on l.id = pg.id ${ROW_JOINS})
-	select fx."_facets", fx."_counted", fx."_snapshot", fx."_sought",
-		case when row_number() over w = 1 then fx."_matches" end as "_matches", r.*
-	from fx left join r on true
-	window w as (order by r."_k" ${dir}, r.number ${dir})
-	order by r."_k" ${dir}, r.number ${dir}`;
+	r as (select ${key} as "_k", (${key})::text as "_key", ${ROW_COLUMNS} from pg join leads l on ${joinOn} ${ROW_JOINS})
+	select q.*, case when q."_first" then ${matchList} end as "_matches" from (
+		select fx."_facets", fx."_counted", fx."_snapshot", fx."_sought",
+			row_number() over w = 1 as "_first", r.*
+		from fx left join r on true
+		window w as (order by r."_k" ${dir}, r.number ${dir})
+		order by r."_k" ${dir}, r.number ${dir}
+	) q`;
 	return { text, params: p.values };
 }
