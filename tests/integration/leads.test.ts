@@ -289,6 +289,62 @@ describe('GET /api/leads: stage counts kept by triggers', () => {
 		expect(after[0]._matches).toEqual([set.ada.number * 8 + 2, fen.number * 8 + 1]);
 	});
 
+	it("answer a searched view's first request for a deeper page or a stage chip as a fresh query does, also after a stage change", async () => {
+		for (let i = 0; i < 60; i++) {
+			await makeLead({
+				name: `Fay Number${i}`,
+				phone: `(555) 020-${String(1000 + i)}`,
+				message: 'A fountain by the patio',
+				stage: i % 4 ? 'new' : 'contacted',
+				createdAt: ago(100 + (i % 7))
+			});
+		}
+		// What a plain query gives: the matches in the view's stages in the view's order, and the
+		// count of every stage.
+		const expected = async (match: string, stage: string, offset: number) => {
+			const rows = await client.unsafe(
+				`select id from leads where ${match} and stage = '${stage}'
+				order by created_at desc, number desc limit 25 offset ${offset}`
+			);
+			const counts = await client.unsafe(
+				`select stage, count(*)::int as n from leads where ${match} group by stage`
+			);
+			return {
+				ids: rows.map((r) => r.id),
+				facets: Object.fromEntries(counts.map((r) => [r.stage, r.n]))
+			};
+		};
+		// A word (full-text) and a phone fragment (trigram), each asked afresh (no kept facets).
+		const views = [
+			{ search: 'q=patio', match: `search_text like '%patio%'` },
+			{ search: 'q=020-10', match: `search_text like '%020-10%'` }
+		];
+		const fresh = async (search: string) => {
+			const q = parseLeadQuery(new URLSearchParams(search)).data!;
+			const s = listSql(q, ctxOf(owner));
+			return client.unsafe(s.text, s.params as never[]);
+		};
+		const check = async () => {
+			for (const { search, match } of views) {
+				for (const [stage, page] of [
+					['new', 2],
+					['contacted', 1]
+				] as const) {
+					const got = await fresh(`${search}&stage=${stage}&page=${page}`);
+					const want = await expected(match, stage, (page - 1) * 25);
+					expect(got.filter((r) => r.id != null).map((r) => r.id)).toEqual(want.ids);
+					expect(got[0]._facets).toEqual(want.facets);
+				}
+			}
+		};
+		await check();
+		const [lead] = await client`
+			select l.id, l.version from leads l join contacts c on c.id = l.contact_id
+			where c.name = 'Fay Number1'`;
+		await changeStage(owner.id, lead.id, { version: lead.version, stage: 'contacted' });
+		await check();
+	});
+
 	it('sort by a renamed contact and a moved property at once (sort keys kept by triggers)', async () => {
 		await client`update contacts set name = 'Zora Brookstone' where id = ${set.ada.contactId}`;
 		await client`update properties set town = 'Yellow Pine' where id = ${set.ada.propertyId}`;
