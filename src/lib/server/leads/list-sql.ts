@@ -8,10 +8,11 @@
 //   properties and users;
 // - the stage facets come from the trigger-kept `lead_counts` when only stage, assignee, budget
 //   or "awaiting" filter the list, and are counted exactly (through the indexes) otherwise;
-// - a search first collects its matches once (a materialised CTE, so the planner cannot turn it
-//   into a walk of the newest leads): words through the full-text GIN index of search_words, other
-//   fragments through the trigram index of search_text (searchParts); both the page and the
-//   facets are taken from that set;
+// - a search reads its matches once (words through the full-text GIN index of search_words, other
+//   fragments through the trigram index of search_text, see searchParts), sorted in the view's
+//   order, into one aggregate row (a materialised CTE, so the planner cannot turn it into a walk
+//   of the newest leads): the count of each stage, the list of matches the caller keeps, and the
+//   numbers of the page's leads, whose rows are then read by number;
 // - facets counted exactly (service, dates, search) are kept by the caller with the snapshot they
 //   were counted in (KeptFacets): the next page or stage chip of the same view passes that
 //   snapshot back, and the statement counts again only if a transaction it could not see has
