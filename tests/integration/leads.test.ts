@@ -13,7 +13,7 @@ import {
 	logActivity,
 	todaySummary
 } from '$lib/server/leads/leads';
-import type { PageStart } from '$lib/server/leads/list-sql';
+import { KEPT_MATCHES, type PageStart } from '$lib/server/leads/list-sql';
 import { sendLeadMail } from '$lib/server/leads/mail';
 import { deliverOutboxMessage } from '$lib/server/platform/outbox';
 import type { SessionUser } from '$lib/server/auth/sessions';
@@ -343,6 +343,40 @@ describe('GET /api/leads: stage counts kept by triggers', () => {
 			where c.name = 'Fay Number1'`;
 		await changeStage(owner.id, lead.id, { version: lead.version, stage: 'contacted' });
 		await check();
+	});
+
+	it('answer a search with more matches than are kept: rows and counts as a fresh query, page after page', async () => {
+		const n = KEPT_MATCHES + 30;
+		await client`
+			insert into contacts (id, name)
+			select 'bulk-contact-' || g, 'Bulk Person ' || g from generate_series(1, ${n}) g`;
+		await client`
+			insert into leads (id, contact_id, stage, services, message, created_at, last_touch_at)
+			select 'bulk-lead-' || g, 'bulk-contact-' || g,
+				(case when g % 3 = 0 then 'contacted' else 'new' end)::lead_stage, '{water-feature}',
+				'A fountain by the lagoon', now() - (g % 97) * interval '1 hour', now()
+			from generate_series(1, ${n}) g`;
+		const want = async (stage: string, offset: number) =>
+			(
+				await client.unsafe(
+					`select id from leads where search_text like '%lagoon%' and stage = '${stage}'
+					order by created_at desc, number desc limit 25 offset ${offset}`
+				)
+			).map((r) => r.id);
+		const q = parseLeadQuery(new URLSearchParams('q=lagoon&stage=contacted&page=3')).data!;
+		const s = listSql(q, ctxOf(owner));
+		const fresh = await client.unsafe(s.text, s.params as never[]);
+		expect(fresh.map((r) => r.id)).toEqual(await want('contacted', 50));
+		// Too many to keep: no list of matches, so the next pages search again.
+		expect(fresh[0]._matches).toBeNull();
+		const contacted = Math.floor(n / 3);
+		expect(fresh[0]._facets).toEqual({ new: n - contacted, contacted });
+		const next = await list('q=lagoon&stage=new&page=2');
+		expect(next.rows.map((r) => r.id)).toEqual(await want('new', 25));
+		expect(next.total).toBe(n - contacted);
+		const again = await list('q=lagoon&stage=new&page=3');
+		expect(again.rows.map((r) => r.id)).toEqual(await want('new', 50));
+		expect(again.facets).toEqual(next.facets);
 	});
 
 	it('sort by a renamed contact and a moved property at once (sort keys kept by triggers)', async () => {

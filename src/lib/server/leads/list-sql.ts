@@ -8,11 +8,11 @@
 //   properties and users;
 // - the stage facets come from the trigger-kept `lead_counts` when only stage, assignee, budget
 //   or "awaiting" filter the list, and are counted exactly (through the indexes) otherwise;
-// - a search reads its matches once (words through the full-text GIN index of search_words, other
-//   fragments through the trigram index of search_text, see searchParts), sorted in the view's
-//   order, into one aggregate row (a materialised CTE, so the planner cannot turn it into a walk
-//   of the newest leads): the count of each stage, the list of matches the caller keeps, and the
-//   numbers of the page's leads, whose rows are then read by number;
+// - a search first collects its matches once (a materialised CTE, so the planner cannot turn it
+//   into a walk of the newest leads): words through the full-text GIN index of search_words, other
+//   fragments through the trigram index of search_text (searchParts); one pass counts each stage,
+//   and, when there are few enough to keep, one sorted pass lists them for the caller and names
+//   the page's leads, whose rows are then read by number;
 // - facets counted exactly (service, dates, search) are kept by the caller with the snapshot they
 //   were counted in (KeptFacets): the next page or stage chip of the same view passes that
 //   snapshot back, and the statement counts again only if a transaction it could not see has
@@ -334,32 +334,46 @@ export function listSql(
 			alone = `select l.number from leads l ${where(clauses)}
 			order by ${key} ${dir}, l.number ${dir} ${paging()}`;
 		}
-		// Counting, one pass over the matches in the view's order (`m`, sorted once) into one
-		// aggregate row (`a`): the count of each stage; every match (one int per match, the lead
-		// number times 8 plus its stage, 1 to 7 in STAGES order), kept by the caller when there are
-		// few enough; and the numbers of the page's leads (the matches in the view's stages, sliced).
-		// The aggregates take their input in the order of `m` (no ORDER BY of their own, which would
-		// sort again for each). The page's rows are then read by number.
-		const stageIndex = `case m.stage ${STAGES.map((st, i) => `when '${st}' then ${i + 1}`).join(' ')} end`;
-		const inView = q.stage.length ? ` filter (where ${stageClause(q, p, 'm')})` : '';
-		const from = q.page > 1 ? `${p.add((q.page - 1) * q.size)}::int` : '0';
+		// Counting: the matches once (`m`, materialised), the count of each stage in one pass (`a`).
+		// When they are few enough to keep (KEPT_MATCHES), one more pass takes them in the view's
+		// order (sorted once) into `x`: every match (one int per match, the lead number times 8 plus
+		// its stage, 1 to 7 in STAGES order), and the numbers of the page's leads (the matches in the
+		// view's stages, sliced). Its aggregates take their input in that order (no ORDER BY of
+		// their own, which would sort again for each). More matches are not sorted: the page is
+		// then the top of those in the view's stages. The page's rows are then read by number.
+		const size = Math.trunc(q.size);
+		const order = `order by m.k ${dir}, m.number ${dir}`;
+		const stageIndex = `case s.stage ${STAGES.map((st, i) => `when '${st}' then ${i + 1}`).join(' ')} end`;
 		const counts = STAGES.map(
 			(st) => `'${st}', nullif(count(*) filter (where m.stage = '${st}'), 0)`
 		).join(', ');
-		const list = keepsMatches
-			? `case when count(*) <= ${KEPT_MATCHES} then array_agg(m.number * 8 + ${stageIndex}) end`
-			: 'null::int[]';
+		const few = `(select n from a) <= ${KEPT_MATCHES}`;
+		const top = [
+			...(q.stage.length ? [stageClause(q, p, 'm')] : []),
+			...(keepsMatches ? [`not ${few}`] : [])
+		];
+		let kept = '';
+		let fromKept = '';
+		if (keepsMatches) {
+			const inView = q.stage.length ? ` filter (where ${stageClause(q, p, 's')})` : '';
+			const from = q.page > 1 ? `${p.add((q.page - 1) * q.size)}::int` : '0';
+			kept = `
+	x as materialized (
+		select array_agg(s.number * 8 + ${stageIndex}) as matches,
+			(array_agg(s.number)${inView})[${from} + 1 : ${from} + ${size}] as page
+		from (select m.number, m.stage from m where ${few} ${order}) s
+	),`;
+			fromKept = `(select u.number from x, unnest(x.page) u(number))
+		union all`;
+		}
 		ctes = `${recount}
+	m as materialized (select l.number, l.stage, ${key} as k from leads l ${where(matches)}),
 	a as materialized (
-		select json_strip_nulls(json_build_object(${counts})) as facets, ${list} as matches,
-			(array_agg(m.number)${inView})[${from} + 1 : ${from} + ${Math.trunc(q.size)}] as page
-		from (
-			select l.number, l.stage from leads l ${where(matches)}
-			order by ${key} ${dir}, l.number ${dir}
-		) m
-	),
+		select json_strip_nulls(json_build_object(${counts})) as facets, count(*) as n from m
+	),${kept}
 	pg as (
-		(select u.number from a, unnest(a.page) u(number) where (select recount from c))
+		${fromKept}
+		(select m.number from m ${where(top)} ${order} ${paging()})
 		union all
 		(${alone})
 	)`;
@@ -398,7 +412,7 @@ export function listSql(
 	const counted = exact ? '(select recount from c)' : 'true';
 	// The matches (a list of thousands) on the first row only, added after the rows are sorted so
 	// that the sort does not carry them.
-	const matchList = keepsMatches ? '(select matches from a)' : 'null::int[]';
+	const matchList = keepsMatches ? '(select matches from x)' : 'null::int[]';
 	const text = `with ${ctes},
 	fx as (
 		select ${facetsJson} as "_facets",
