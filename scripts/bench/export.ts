@@ -73,6 +73,8 @@ const mb = (bytes: number) => Number((bytes / MB).toFixed(1));
 
 interface Run {
 	seconds: number;
+	/** Until the first chunk after the header row's: the query's work before its first row. */
+	firstByteSeconds: number;
 	bytes: number;
 	rows: number;
 	mbPerSecond: number;
@@ -142,7 +144,9 @@ async function measure(buildDir: string, leads: number): Promise<Run[]> {
 			let tail = '';
 			// A digest of the file, so that two builds can be seen to write the same bytes.
 			const digest = createHash('sha256');
+			let firstByte = 0;
 			for await (const chunk of res.body as unknown as AsyncIterable<Uint8Array>) {
+				if (!bytes) firstByte = (performance.now() - started) / 1000;
 				bytes += chunk.length;
 				digest.update(chunk);
 				for (let j = 0; j < chunk.length; j++) if (chunk[j] === 10) lineEnds++;
@@ -157,6 +161,7 @@ async function measure(buildDir: string, leads: number): Promise<Run[]> {
 			const after = memoryOf(pid).rss;
 			runs.push({
 				seconds: Number(seconds.toFixed(2)),
+				firstByteSeconds: Number(firstByte.toFixed(2)),
 				bytes,
 				rows: lineEnds - 1, // the header's line break; fields with line breaks are quoted and rare
 				mbPerSecond: Number((bytes / MB / seconds).toFixed(1)),
@@ -170,7 +175,8 @@ async function measure(buildDir: string, leads: number): Promise<Run[]> {
 			const r = runs.at(-1)!;
 			console.log(
 				`  run ${i + 1}: ${r.rows.toLocaleString('en-US')} rows of ${leads.toLocaleString('en-US')}, ` +
-					`${(bytes / MB).toFixed(1)} MB in ${r.seconds} s = ${r.mbPerSecond} MB/s; ` +
+					`${(bytes / MB).toFixed(1)} MB in ${r.seconds} s = ${r.mbPerSecond} MB/s ` +
+					`(first bytes after ${r.firstByteSeconds} s); ` +
 					`RSS before ${r.rssBeforeMB} MB, peak ${r.peakRssMB} MB (+${r.riseMB} MB), ` +
 					`after ${r.rssAfterMB} MB; load average ${r.loadAverage}; sha256 ${r.sha256.slice(0, 12)}`
 			);
