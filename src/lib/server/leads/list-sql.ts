@@ -10,9 +10,8 @@
 //   or "awaiting" filter the list, and are counted exactly (through the indexes) otherwise;
 // - a search first collects its matches once (a materialised CTE, so the planner cannot turn it
 //   into a walk of the newest leads): words through the full-text GIN index of search_words, other
-//   fragments through the trigram index of search_text (searchParts); one pass counts each stage,
-//   and, when there are few enough to keep, one sorted pass lists them for the caller and names
-//   the page's leads, whose rows are then read by number;
+//   fragments through the trigram index of search_text (searchParts); both the page and the
+//   facets are taken from that set;
 // - facets counted exactly (service, dates, search) are kept by the caller with the snapshot they
 //   were counted in (KeptFacets): the next page or stage chip of the same view passes that
 //   snapshot back, and the statement counts again only if a transaction it could not see has
@@ -178,9 +177,7 @@ export const stageClause = (q: LeadQuery, p: Params, alias: string) =>
 
 /**
  * The filters other than stage, on leads `l`. With `stageInWords`, a word search also takes the
- * stage filter into its tsquery (the caller then adds no stage clause when `words` is set). With
- * `wordsIf`, a word search looks its words up only when that SQL condition holds (otherwise its
- * tsquery is null, and the GIN index is not read at all).
+ * stage filter into its tsquery (the caller then adds no stage clause when `words` is set).
  */
 export function filterClauses(
 	q: LeadQuery,
@@ -188,8 +185,7 @@ export function filterClauses(
 	p: Params,
 	search = true,
 	asTyped = false,
-	stageInWords = false,
-	wordsIf: string | null = null
+	stageInWords = false
 ): string[] {
 	const clauses: string[] = [];
 	const words = search ? searchParts(q.q, asTyped).words : null;
@@ -218,10 +214,7 @@ export function filterClauses(
 				parts.push(`${p.add(serviceStageQuery(q.service, q.stage))}::tsquery`);
 			} else if (q.service.length) parts.push(`${p.add(serviceQuery(q.service))}::tsquery`);
 			else if (stages) parts.push(`${p.add(stageQuery(q.stage))}::tsquery`);
-			const tsquery = parts.join(' && ');
-			clauses.push(
-				`l.search_words @@ (select ${wordsIf ? `case when ${wordsIf} then ${tsquery} end` : tsquery})`
-			);
+			clauses.push(`l.search_words @@ (select ${parts.join(' && ')})`);
 		}
 		for (const term of searchParts(q.q, asTyped).fragments) {
 			clauses.push(`l.search_text like ${p.add(`%${escapeLike(term)}%`)}`);
@@ -302,28 +295,15 @@ export function listSql(
 	// `c` is evaluated once (an InitPlan); `(select recount from c)` in a WHERE is a one-time
 	// filter, so the branch it turns off is never run.
 	const recount = exact ? `c as materialized (select ${recountSql(p, kept)} as recount),` : '';
-	// A search's matches are listed for the caller to keep, except under dates: their views are
-	// not kept (see facetsKey), so neither is the list.
-	const keepsMatches = searchTerms(q.q).length > 0 && !q.from && !q.to;
 	let ctes: string;
-	// How the page's rows are found again in `r`: by id from a sort's covering index, by number
-	// from a search's list of matches.
-	let joinOn = 'l.id = pg.id';
-	// The stage facets as JSON (`{stage: n}`, stages with no lead left out) and where they come from.
-	let facetsJson = `coalesce(json_object_agg(stage, n), '{}'::json)`;
-	let facetsFrom = 'f';
 	if (searchTerms(q.q).length) {
-		joinOn = 'l.number = pg.number';
-		// Counting only when the kept facets are stale (`c`): inside the tsquery of a word search
-		// (no extra plan node for every match to pass through), else as a one-time filter.
-		const counting = '(select recount from c)';
-		const hasWords = !!searchParts(q.q, asTyped).words;
-		const matches = filterClauses(q, ctx, p, true, asTyped, false, hasWords ? counting : null);
-		if (!hasWords) matches.push(counting);
+		const matches = filterClauses(q, ctx, p, true, asTyped);
+		matches.push('(select recount from c)');
+		const stage = q.stage.length ? `where ${stageClause(q, p, 'm')}` : '';
 		let alone: string;
 		if (known.page) {
 			// The page's leads by number, when the matches are kept with the facets (runList).
-			alone = `select l.number from leads l
+			alone = `select l.id, ${key} as k, l.number from leads l
 			where l.number = any(${p.add(known.page)}::int[]) and not (select recount from c)`;
 		} else {
 			// The page alone, when the facets are kept: the stage filter joins the tsquery of a
@@ -331,54 +311,29 @@ export function listSql(
 			const clauses = filterClauses(q, ctx, p, true, asTyped, true);
 			if (q.stage.length && !searchParts(q.q, asTyped).words) clauses.push(stageClause(q, p, 'l'));
 			clauses.push('not (select recount from c)');
-			alone = `select l.number from leads l ${where(clauses)}
-			order by ${key} ${dir}, l.number ${dir} ${paging()}`;
+			alone = `select l.id, ${key} as k, l.number from leads l ${where(clauses)}
+			order by k ${dir}, number ${dir} ${paging()}`;
 		}
-		// Counting: the matches once (`m`, materialised), the count of each stage in one pass (`a`).
-		// When they are few enough to keep (KEPT_MATCHES), one more pass takes them in the view's
-		// order (sorted once) into `x`: every match (one int per match, the lead number times 8 plus
-		// its stage, 1 to 7 in STAGES order), and the numbers of the page's leads (the matches in the
-		// view's stages, sliced). Its aggregates take their input in that order (no ORDER BY of
-		// their own, which would sort again for each). More matches are not sorted: the page is
-		// then the top of those in the view's stages. The page's rows are then read by number.
-		const size = Math.trunc(q.size);
-		const order = `order by m.k ${dir}, m.number ${dir}`;
-		const stageIndex = `case s.stage ${STAGES.map((st, i) => `when '${st}' then ${i + 1}`).join(' ')} end`;
-		const counts = STAGES.map(
-			(st) => `'${st}', nullif(count(*) filter (where m.stage = '${st}'), 0)`
-		).join(', ');
-		const few = `(select n from a) <= ${KEPT_MATCHES}`;
-		const top = [
-			...(q.stage.length ? [stageClause(q, p, 'm')] : []),
-			...(keepsMatches ? [`not ${few}`] : [])
-		];
-		let kept = '';
-		let fromKept = '';
-		if (keepsMatches) {
-			const inView = q.stage.length ? ` filter (where ${stageClause(q, p, 's')})` : '';
-			const from = q.page > 1 ? `${p.add((q.page - 1) * q.size)}::int` : '0';
-			kept = `
-	x as materialized (
-		select array_agg(s.number * 8 + ${stageIndex}) as matches,
-			(array_agg(s.number)${inView})[${from} + 1 : ${from} + ${size}] as page
-		from (select m.number, m.stage from m where ${few} ${order}) s
-	),`;
-			fromKept = `(select u.number from x, unnest(x.page) u(number))
-		union all`;
-		}
+		// Every match in the view's order, when there are few enough to keep: the next pages and
+		// stage chips of the view then read only their leads, by number. One int per match, the
+		// lead number times 8 plus its stage (1 to 7, in STAGES order): half the time of pairs.
+		// The list is made (an InitPlan, run only when its CASE branch is) only under the limit.
+		const stageIndex = `case stage ${STAGES.map((st, i) => `when '${st}' then ${i + 1}`).join(' ')} end`;
 		ctes = `${recount}
-	m as materialized (select l.number, l.stage, ${key} as k from leads l ${where(matches)}),
-	a as materialized (
-		select json_strip_nulls(json_build_object(${counts})) as facets, count(*) as n from m
-	),${kept}
+	m as materialized (
+		select l.id, l.stage, l.number, ${key} as k from leads l ${where(matches)}
+	),
+	f as (select stage, count(*)::int as n from m group by stage),
+	mx as (
+		select case when (select sum(n) from f) <= ${KEPT_MATCHES} then (
+			select array_agg(number * 8 + ${stageIndex} order by k ${dir}, number ${dir}) from m
+		) end as matches
+	),
 	pg as (
-		${fromKept}
-		(select m.number from m ${where(top)} ${order} ${paging()})
+		(select id, k, number from m ${stage} order by k ${dir}, number ${dir} ${paging()})
 		union all
 		(${alone})
 	)`;
-		facetsJson = `(select facets from a)`;
-		facetsFrom = 'c';
 	} else {
 		let facets = countedFacets(q, ctx, p);
 		if (!facets) {
@@ -410,23 +365,24 @@ export function listSql(
 		}
 	}
 	const counted = exact ? '(select recount from c)' : 'true';
-	// The matches (a list of thousands) on the first row only, added after the rows are sorted so
-	// that the sort does not carry them.
-	const matchList = keepsMatches ? '(select matches from x)' : 'null::int[]';
+	// The matches (a list of thousands) on the first row only, not on every row of the page.
+	// Not for dates: their views are not kept (see facetsKey), so neither is the list (`mx`, when
+	// not referenced, is not run).
+	const keepsMatches = searchTerms(q.q).length > 0 && !q.from && !q.to;
+	const matchList = keepsMatches ? '(select matches from mx)' : 'null::int[]';
 	const text = `with ${ctes},
 	fx as (
-		select ${facetsJson} as "_facets",
+		select coalesce(json_object_agg(stage, n), '{}'::json) as "_facets",
 			${counted} as "_counted", pg_current_snapshot()::text as "_snapshot",
+			${matchList} as "_matches",
 			${known.start && !searchTerms(q.q).length ? 'not (select stale from s)' : 'null::bool'} as "_sought"
-		from ${facetsFrom}
+		from f
 	),
-	r as (select ${key} as "_k", (${key})::text as "_key", ${ROW_COLUMNS} from pg join leads l on ${joinOn} ${ROW_JOINS})
-	select q.*, case when q."_first" then ${matchList} end as "_matches" from (
-		select fx."_facets", fx."_counted", fx."_snapshot", fx."_sought",
-			row_number() over w = 1 as "_first", r.*
-		from fx left join r on true
-		window w as (order by r."_k" ${dir}, r.number ${dir})
-		order by r."_k" ${dir}, r.number ${dir}
-	) q`;
+	r as (select pg.k as "_k", pg.k::text as "_key", ${ROW_COLUMNS} from pg join leads l on l.id = pg.id ${ROW_JOINS})
+	select fx."_facets", fx."_counted", fx."_snapshot", fx."_sought",
+		case when row_number() over w = 1 then fx."_matches" end as "_matches", r.*
+	from fx left join r on true
+	window w as (order by r."_k" ${dir}, r.number ${dir})
+	order by r."_k" ${dir}, r.number ${dir}`;
 	return { text, params: p.values };
 }
