@@ -7,8 +7,11 @@
  * Needs the services running (`npm run services`) and a database with the bulk leads
  * (`npm run seed:bulk -- 100000`). Uses the dev database unless DATABASE_URL is set; builds the
  * app into BUILD_DIR (default `build`) when the sources changed (BENCH_SKIP_BUILD=1: never);
- * serves it on BENCH_APP_PORT (default 3412). EXPORT_RUNS (default 2) downloads one after the
- * other in the same app. The app starts as `npm run serve` starts it; EXPORT_NODE_OPTIONS starts it
+ * serves it on BENCH_APP_PORT (default 3412). EXPORT_RUNS (default 3) downloads one after the
+ * other in the same app. The first is the cold one: its PostgreSQL connection has never read the
+ * tables (a new backend's first pass over them ran ~0.4 s slower here, in psql too) and the app
+ * loads the route's code; it is reported, and the memory goal counts it, but the rate goal is
+ * judged on the warm downloads after it (on the only one when EXPORT_RUNS is 1). The app starts as `npm run serve` starts it; EXPORT_NODE_OPTIONS starts it
  * with those Node flags instead (empty: Node's defaults). `--compare DIR` first measures another build
  * (say, one of an older commit) in the same run, for a side-by-side figure; only the build of
  * this checkout decides the exit code. Each download prints the start of its SHA-256, so two
@@ -26,7 +29,7 @@ import { appLaunch, writeResult } from './lib';
 
 const url = process.env.DATABASE_URL ?? databaseUrl('dev');
 const APP_PORT = Number(process.env.BENCH_APP_PORT ?? 3412);
-const RUNS = Number(process.env.EXPORT_RUNS ?? 2);
+const RUNS = Number(process.env.EXPORT_RUNS ?? 3);
 const launch = appLaunch('EXPORT');
 const GOAL_RISE_MB = 50;
 const GOAL_RATE_MBPS = 20;
@@ -174,7 +177,7 @@ async function measure(buildDir: string, leads: number): Promise<Run[]> {
 			});
 			const r = runs.at(-1)!;
 			console.log(
-				`  run ${i + 1}: ${r.rows.toLocaleString('en-US')} rows of ${leads.toLocaleString('en-US')}, ` +
+				`  run ${i + 1}${i === 0 && RUNS > 1 ? ' (cold)' : ''}: ${r.rows.toLocaleString('en-US')} rows of ${leads.toLocaleString('en-US')}, ` +
 					`${(bytes / MB).toFixed(1)} MB in ${r.seconds} s = ${r.mbPerSecond} MB/s ` +
 					`(first bytes after ${r.firstByteSeconds} s); ` +
 					`RSS before ${r.rssBeforeMB} MB, peak ${r.peakRssMB} MB (+${r.riseMB} MB), ` +
@@ -214,11 +217,12 @@ if (compareDir) {
 console.log(`${buildDir} (this checkout):`);
 const runs = await measure(buildDir, n);
 const worstRise = Math.max(...runs.map((r) => r.riseMB));
-const slowest = Math.min(...runs.map((r) => r.mbPerSecond));
+const warm = runs.length > 1 ? runs.slice(1) : runs;
+const slowest = Math.min(...warm.map((r) => r.mbPerSecond));
 const rowsOk = runs.every((r) => r.rows === n);
 console.log(
 	`\ngoals: peak rise < ${GOAL_RISE_MB} MB ${worstRise < GOAL_RISE_MB ? 'met' : 'MISSED'} (+${worstRise} MB); ` +
-		`≥ ${GOAL_RATE_MBPS} MB/s ${slowest >= GOAL_RATE_MBPS ? 'met' : 'MISSED'} (${slowest} MB/s)` +
+		`≥ ${GOAL_RATE_MBPS} MB/s ${slowest >= GOAL_RATE_MBPS ? 'met' : 'MISSED'} (${slowest} MB/s, slowest warm download)` +
 		(rowsOk ? '' : `; rows counted ${runs.map((r) => r.rows).join(', ')} of ${n}: check the file!`)
 );
 console.log(
