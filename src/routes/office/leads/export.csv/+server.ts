@@ -8,7 +8,7 @@ import type { RequestHandler } from './$types';
 
 /**
  * The current filtered view (every page of it), as CSV, times in the firm's time zone, streamed
- * from the database in batches (see leads-export.ts).
+ * from the database in batches (see $lib/server/leads/export.ts).
  */
 export const GET: RequestHandler = async (event) => {
 	const user = requireRole(event, 'owner', 'sales');
