@@ -90,4 +90,27 @@ describe('the export’s CSV lines', () => {
 			rows.map(expectedLine).join('')
 		);
 	});
+
+	it('reads rows as PostgreSQL writes them, every JSON escape decoded', () => {
+		// json_build_array puts a space after each comma; control characters, quotes and
+		// backslashes come escaped, a lone surrogate too.
+		const spaced = (r: ExportRow) =>
+			`[${r.map((v) => (Array.isArray(v) ? `[${v.map((x) => JSON.stringify(x)).join(', ')}]` : JSON.stringify(v))).join(', ')}]`;
+		const rows = [
+			row({ 2: '\tTabbed', 3: 'a\\b@x.example', 4: 'bell\u0007, "ring"', 5: '\rCR town' }),
+			row({
+				2: '-5 apples',
+				5: 'Back\bspace\fform',
+				6: ['pond', 'a "quoted", key'],
+				10: 'Zoë "Z"'
+			}),
+			row({ 2: 'lone \ud800 half', 5: null, 12: 'web, ads' })
+		];
+		const written = Buffer.from(exportWriter(ZONE)(rows.map(spaced)));
+		// As bytes: a lone surrogate is written as U+FFFD, as Buffer writes any string.
+		expect(written).toEqual(Buffer.from(rows.map(expectedLine).join(''), 'utf8'));
+		expect(written.toString('utf8')).toContain(
+			`'\tTabbed,a\\b@x.example,"bell\u0007, ""ring""","'\rCR town"`
+		);
+	});
 });
