@@ -11,11 +11,12 @@
  * other in the same app. The first is the cold one: its PostgreSQL connection has never read the
  * tables (a new backend's first pass over them ran ~0.4 s slower here, in psql too) and the app
  * loads the route's code; it is reported, and the memory goal counts it, but the rate goal is
- * judged on the warm downloads after it (on the only one when EXPORT_RUNS is 1). The app starts as `npm run serve` starts it; EXPORT_NODE_OPTIONS starts it
- * with those Node flags instead (empty: Node's defaults). `--compare DIR` first measures another build
- * (say, one of an older commit) in the same run, for a side-by-side figure; only the build of
- * this checkout decides the exit code. Each download prints the start of its SHA-256, so two
- * builds can be seen to write the same file.
+ * judged on the warm downloads after it (on the only one when EXPORT_RUNS is 1). The app starts
+ * as `npm run serve` starts it; EXPORT_NODE_OPTIONS starts it with those Node flags instead
+ * (empty: Node's defaults). `--compare DIR` first measures another build (say, one of an older
+ * commit) in the same run, for a side-by-side figure; only the build of this checkout decides the
+ * exit code. Each download prints the start of its SHA-256, so two builds can be seen to write
+ * the same file.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { createHash } from 'node:crypto';
@@ -76,7 +77,7 @@ const mb = (bytes: number) => Number((bytes / MB).toFixed(1));
 
 interface Run {
 	seconds: number;
-	/** Until the first chunk after the header row's: the query's work before its first row. */
+	/** Until the first chunk: the header row leaves with the first batch, after the query's work. */
 	firstByteSeconds: number;
 	bytes: number;
 	rows: number;
@@ -86,6 +87,7 @@ interface Run {
 	riseMB: number;
 	rssAfterMB: number;
 	loadAverage: string;
+	sha256: string;
 }
 
 async function measure(buildDir: string, leads: number): Promise<Run[]> {

@@ -3,15 +3,16 @@
 // or CR that hides one) gets a leading apostrophe, so opening the export runs nothing.
 
 const FORMULA_START = /^[=+\-@\t\r]/;
+const NEEDS_QUOTES = /[",\r\n]/;
 /** A formula start or a character that needs quotes: most values have neither, and are their cell. */
-const NEEDS_RULES = /^[=+\-@\t\r]|[",\r\n]/;
+const NEEDS_RULES = new RegExp(`${FORMULA_START.source}|${NEEDS_QUOTES.source}`);
 
 export function csvCell(value: unknown): string {
 	if (value === null || value === undefined) return '';
 	let text = value instanceof Date ? value.toISOString() : String(value);
 	if (!NEEDS_RULES.test(text)) return text;
 	if (FORMULA_START.test(text)) text = `'${text}`;
-	return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
+	return NEEDS_QUOTES.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
 }
 
 export function csvLine(cells: readonly unknown[]): string {
