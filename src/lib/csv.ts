@@ -2,8 +2,9 @@
 // in CRLF. A cell that a spreadsheet would run as a formula (starting with =, +, -, @, or a tab
 // or CR that hides one) gets a leading apostrophe, so opening the export runs nothing.
 
-const FORMULA_START = /^[=+\-@\t\r]/;
-const NEEDS_QUOTES = /[",\r\n]/;
+// Their sources are also PostgreSQL regular expressions of the same meaning (csv-sql.ts).
+export const FORMULA_START = /^[=+\-@\t\r]/;
+export const NEEDS_QUOTES = /[",\r\n]/;
 /** A formula start or a character that needs quotes: most values have neither, and are their cell. */
 const NEEDS_RULES = new RegExp(`${FORMULA_START.source}|${NEEDS_QUOTES.source}`);
 

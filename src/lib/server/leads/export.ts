@@ -13,7 +13,7 @@ import { csvLine } from '$lib/csv';
 import type { LeadQuery } from '$lib/schema/leads';
 import { client } from '../platform/db';
 import { EXPORT_COLUMNS, exportSql } from './export-sql';
-import { exportWriter } from './export-lines';
+import { exportWriter, type ExportRow } from './export-lines';
 import type { ListContext } from './list-sql';
 
 /**
@@ -22,10 +22,8 @@ import type { ListContext } from './list-sql';
  */
 export const EXPORT_BATCH_ROWS = 500;
 
-/** A batch of the cursor: one column per row, the JSON text of the row's values. */
-type Batch = [string][];
+type Batch = ExportRow[];
 type Param = Parameters<typeof client.unsafe>[1];
-const only = ([row]: [string]) => row;
 
 /**
  * Starts the export of a filtered view and waits for its first batch, so that a query that
@@ -63,7 +61,7 @@ export async function leadsCsvStream(
 					finished = true;
 					controller.close();
 				} else {
-					controller.enqueue(write(first.value.map(only)));
+					controller.enqueue(write(first.value));
 				}
 			},
 			async pull(controller) {
@@ -83,7 +81,7 @@ export async function leadsCsvStream(
 					return;
 				}
 				ask();
-				controller.enqueue(write(next.value.map(only)));
+				controller.enqueue(write(next.value));
 			},
 			async cancel() {
 				if (finished) return;
