@@ -211,8 +211,9 @@ const runningExport = (b: { busy: boolean; query: string }) =>
 	b.busy && b.query.startsWith('/* leads export */');
 
 /**
- * The route's stream in batches of 500 rows: after the first chunk is read, one batch waits in
- * the stream and one is on its way, so most of the 4,345 rows are still in the database.
+ * The route's stream in batches of 500 rows: after the first chunk (the header) is read, at most
+ * two batches wait in the stream and one is on its way, so most of the 4,345 rows are still in
+ * the database.
  */
 const smallBatches = () =>
 	leadsCsvStream(parseLeadQuery(new URLSearchParams()).data!, { userId: owner.id }, TIME_ZONE, 500);
@@ -298,6 +299,36 @@ describe('the streamed leads CSV export', () => {
 			).toBe(true);
 			const again = await csvGet(event('/office/leads/export.csv?stage=sold', owner));
 			expect(parseCsv(await again.text()).length).toBeGreaterThan(1);
+		} finally {
+			await reader.cancel().catch(() => undefined);
+			await check.end();
+		}
+	});
+
+	it('holds the query back while the client reads nothing, then sends every row', async () => {
+		await bulkLeads(LEADS, owner.id);
+		const check = postgres(process.env.DATABASE_URL!, {
+			max: 1,
+			onnotice: () => {},
+			connection: { application_name: 'export-test-check' }
+		});
+		const reader = (await smallBatches()).getReader();
+		try {
+			expect((await reader.read()).done).toBe(false);
+			// Unread, the query would have sent all 4,345 rows within a fraction of this.
+			await new Promise((r) => setTimeout(r, 1000));
+			expect((await poolBackends(check)).some(runningExport)).toBe(true);
+			let text = '';
+			const decoder = new TextDecoder();
+			for (;;) {
+				const { done, value } = await reader.read();
+				if (done) break;
+				text += decoder.decode(value, { stream: true });
+			}
+			expect(parseCsv(text)).toHaveLength(LEADS);
+			expect(await waitUntil(async () => !(await poolBackends(check)).some(runningExport))).toBe(
+				true
+			);
 		} finally {
 			await reader.cancel().catch(() => undefined);
 			await check.end();
