@@ -218,6 +218,29 @@ const runningExport = (b: { busy: boolean; query: string }) =>
 const smallBatches = () =>
 	leadsCsvStream(parseLeadQuery(new URLSearchParams()).data!, { userId: owner.id }, TIME_ZONE, 500);
 
+/**
+ * An export of LEADS rows in small batches whose first chunk (the header) was read, with a
+ * connection of its own to watch the app's pool from; both closed afterwards.
+ */
+async function withOpenExport(
+	run: (reader: ReadableStreamDefaultReader<Uint8Array>, check: postgres.Sql) => Promise<void>
+) {
+	await bulkLeads(LEADS, owner.id);
+	const check = postgres(process.env.DATABASE_URL!, {
+		max: 1,
+		onnotice: () => {},
+		connection: { application_name: 'export-test-check' }
+	});
+	const reader = (await smallBatches()).getReader();
+	try {
+		expect((await reader.read()).done).toBe(false);
+		await run(reader, check);
+	} finally {
+		await reader.cancel().catch(() => undefined);
+		await check.end();
+	}
+}
+
 async function waitUntil(what: () => Promise<boolean>, ms = 5000) {
 	const end = Date.now() + ms;
 	while (Date.now() < end) {
@@ -277,16 +300,7 @@ describe('the streamed leads CSV export', () => {
 	});
 
 	it('stops the query and gives the connection back when the client goes away', async () => {
-		await bulkLeads(LEADS, owner.id);
-		const check = postgres(process.env.DATABASE_URL!, {
-			max: 1,
-			onnotice: () => {},
-			connection: { application_name: 'export-test-check' }
-		});
-		const reader = (await smallBatches()).getReader();
-		try {
-			const first = await reader.read();
-			expect(first.done).toBe(false);
+		await withOpenExport(async (reader, check) => {
 			// The export's query is still open on one of the pool's connections…
 			expect((await poolBackends(check)).some(runningExport)).toBe(true);
 			await reader.cancel();
@@ -299,22 +313,11 @@ describe('the streamed leads CSV export', () => {
 			).toBe(true);
 			const again = await csvGet(event('/office/leads/export.csv?stage=sold', owner));
 			expect(parseCsv(await again.text()).length).toBeGreaterThan(1);
-		} finally {
-			await reader.cancel().catch(() => undefined);
-			await check.end();
-		}
+		});
 	});
 
 	it('holds the query back while the client reads nothing, then sends every row', async () => {
-		await bulkLeads(LEADS, owner.id);
-		const check = postgres(process.env.DATABASE_URL!, {
-			max: 1,
-			onnotice: () => {},
-			connection: { application_name: 'export-test-check' }
-		});
-		const reader = (await smallBatches()).getReader();
-		try {
-			expect((await reader.read()).done).toBe(false);
+		await withOpenExport(async (reader, check) => {
 			// Unread, the query would have sent all 4,345 rows within a fraction of this.
 			await new Promise((r) => setTimeout(r, 1000));
 			expect((await poolBackends(check)).some(runningExport)).toBe(true);
@@ -326,25 +329,13 @@ describe('the streamed leads CSV export', () => {
 				text += decoder.decode(value, { stream: true });
 			}
 			expect(parseCsv(text)).toHaveLength(LEADS);
-			expect(await waitUntil(async () => !(await poolBackends(check)).some(runningExport))).toBe(
-				true
-			);
-		} finally {
-			await reader.cancel().catch(() => undefined);
-			await check.end();
-		}
+			const ended = async () => !(await poolBackends(check)).some(runningExport);
+			expect(await waitUntil(ended)).toBe(true);
+		});
 	});
 
 	it('fails the download, never a short valid file, when the connection dies mid-export', async () => {
-		await bulkLeads(LEADS, owner.id);
-		const check = postgres(process.env.DATABASE_URL!, {
-			max: 1,
-			onnotice: () => {},
-			connection: { application_name: 'export-test-check' }
-		});
-		const reader = (await smallBatches()).getReader();
-		try {
-			expect((await reader.read()).done).toBe(false);
+		await withOpenExport(async (reader, check) => {
 			const exporting = (await poolBackends(check)).filter(runningExport);
 			expect(exporting).toHaveLength(1);
 			await check`select pg_terminate_backend(${exporting[0].pid})`;
@@ -355,9 +346,6 @@ describe('the streamed leads CSV export', () => {
 				failed = error;
 			}
 			expect(failed).toBeInstanceOf(Error);
-		} finally {
-			await reader.cancel().catch(() => undefined);
-			await check.end();
-		}
+		});
 	});
 });
