@@ -348,4 +348,24 @@ describe('the streamed leads CSV export', () => {
 			expect(failed).toBeInstanceOf(Error);
 		});
 	});
+
+	it('fails the download when the connection dies while the export waits for its reader', async () => {
+		// A database restart during a slow download: the cursor is parked, waiting for room.
+		await withOpenExport(async (reader, check) => {
+			await new Promise((r) => setTimeout(r, 300));
+			const [exporting] = (await poolBackends(check)).filter(runningExport);
+			await check`select pg_terminate_backend(${exporting.pid})`;
+			const gone = async () => !(await poolBackends(check)).some((b) => b.pid === exporting.pid);
+			expect(await waitUntil(gone)).toBe(true);
+			await new Promise((r) => setTimeout(r, 200));
+			await expect(
+				(async () => {
+					for (;;) if ((await reader.read()).done) break;
+				})()
+			).rejects.toThrow();
+			// The server process is still up and exports again.
+			const again = await csvGet(event('/office/leads/export.csv?stage=sold', owner));
+			expect(parseCsv(await again.text()).length).toBeGreaterThan(1);
+		});
+	});
 });

@@ -4,9 +4,10 @@
 // - PostgreSQL makes the next batch while the app writes the last one: the cursor's callback
 //   returns at once, asking for the next batch, and the batch it was given is written after that
 //   request has left.
-// - Back-pressure: the stream holds at most two batches' bytes. When it is full, the callback
-//   waits for the reader to take one before asking for the next batch, so a slow client holds the
-//   query back instead of filling the app's memory.
+// - Back-pressure: the stream holds at most two chunks (the header, then batches), and the app at
+//   most three batches in all, with the one on its way. When the stream is full, the callback
+//   waits for the reader to take a chunk before asking for the next batch, so a slow client holds
+//   the query back instead of filling the app's memory.
 // - A client that goes away cancels the stream; the cursor is then closed, which ends the query
 //   and gives its connection back to the pool.
 // - An error after the first byte errors the stream: the server then breaks the connection before
@@ -106,9 +107,15 @@ export async function leadsCsvStream(
 		.unsafe(s.text, s.params as Param)
 		.values()
 		.cursor(batchRows, onBatch as (rows: unknown[]) => void);
+	// Once the query has settled, the cursor must not be woken: answering CLOSE to a connection
+	// that died would make postgres.js write to a socket it has already dropped.
+	const settled = (end: () => void) => {
+		room = null;
+		finish(end);
+	};
 	query.then(
-		() => writes.then(() => finish(() => controller.close())),
-		(error: unknown) => finish(() => controller.error(error))
+		() => writes.then(() => settled(() => controller.close())),
+		(error: unknown) => settled(() => controller.error(error))
 	);
 	await Promise.race([started, query]);
 	return stream;
