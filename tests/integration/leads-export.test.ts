@@ -213,15 +213,19 @@ const runningExport = (b: { busy: boolean; query: string }) =>
  * two batches wait in the stream and one is on its way, so most of the 4,345 rows are still in
  * the database.
  */
-const smallBatches = () =>
-	leadsCsvStream(parseLeadQuery(new URLSearchParams()).data!, { userId: owner.id }, TIME_ZONE, 500);
+const smallBatches = (stallMs?: number) =>
+	leadsCsvStream(parseLeadQuery(new URLSearchParams()).data!, { userId: owner.id }, TIME_ZONE, {
+		batchRows: 500,
+		stallMs
+	});
 
 /**
  * An export of LEADS rows in small batches whose first chunk (the header) was read, with a
  * connection of its own to watch the app's pool from; both closed afterwards.
  */
 async function withOpenExport(
-	run: (reader: ReadableStreamDefaultReader<Uint8Array>, check: postgres.Sql) => Promise<void>
+	run: (reader: ReadableStreamDefaultReader<Uint8Array>, check: postgres.Sql) => Promise<void>,
+	stallMs?: number
 ) {
 	await bulkLeads(LEADS, owner.id);
 	const check = postgres(process.env.DATABASE_URL!, {
@@ -229,7 +233,7 @@ async function withOpenExport(
 		onnotice: () => {},
 		connection: { application_name: 'export-test-check' }
 	});
-	const reader = (await smallBatches()).getReader();
+	const reader = (await smallBatches(stallMs)).getReader();
 	try {
 		expect((await reader.read()).done).toBe(false);
 		await run(reader, check);
@@ -333,6 +337,18 @@ describe('the streamed leads CSV export', () => {
 			const ended = async () => !(await poolBackends(check)).some(runningExport);
 			expect(await waitUntil(ended)).toBe(true);
 		});
+	});
+
+	it('gives the connection back when the client stays but stops reading', async () => {
+		await withOpenExport(async (reader, check) => {
+			const ended = async () => !(await poolBackends(check)).some(runningExport);
+			expect(await waitUntil(ended)).toBe(true);
+			await expect(
+				(async () => {
+					for (;;) if ((await reader.read()).done) break;
+				})()
+			).rejects.toThrow(/took nothing for 1 s/);
+		}, 1000);
 	});
 
 	it('fails the download, never a short valid file, when the connection dies mid-export', async () => {

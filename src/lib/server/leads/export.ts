@@ -9,7 +9,8 @@
 //   waits for the reader to take a chunk before asking for the next batch, so a slow client holds
 //   the query back instead of filling the app's memory.
 // - A client that goes away cancels the stream; the cursor is then closed, which ends the query
-//   and gives its connection back to the pool.
+//   and gives its connection back to the pool. So does a client that stays but reads nothing for
+//   a minute (its download fails).
 // - An error after the first byte errors the stream: the server then breaks the connection before
 //   the end of the chunked body, so the client sees a failed download, never a short valid file.
 //
@@ -26,6 +27,16 @@ import type { ListContext } from './list-sql';
 
 /** Rows per cursor batch: about 100 KB of CSV, one round trip per batch. */
 export const EXPORT_BATCH_ROWS = 500;
+
+/**
+ * How long the cursor waits for a reader that takes nothing before the export is given up: a
+ * client that stays connected but stopped reading would otherwise hold one of the pool's few
+ * connections (and its lock on the leads table) for as long as it stays.
+ */
+export const EXPORT_STALL_MS = 60_000;
+
+const stallError = (ms: number) =>
+	new Error(`The export was stopped: its reader took nothing for ${Math.round(ms / 1000)} s`);
 
 /** Chunks the stream holds before the cursor waits for the reader: the header, then batches. */
 const QUEUED_CHUNKS = 2;
@@ -51,13 +62,14 @@ export async function leadsCsvStream(
 	q: LeadQuery,
 	ctx: ListContext,
 	timeZone: string,
-	batchRows = EXPORT_BATCH_ROWS
+	{ batchRows = EXPORT_BATCH_ROWS, stallMs = EXPORT_STALL_MS } = {}
 ): Promise<ReadableStream<Uint8Array>> {
 	const s = exportSql(q, ctx);
 	const write = exportWriter(timeZone);
 	let controller!: ReadableStreamDefaultController<Uint8Array>;
 	let finished = false;
 	let room: (() => void) | null = null;
+	let stalled: ReturnType<typeof setTimeout> | undefined;
 	const finish = (end: () => void) => {
 		if (finished) return;
 		finished = true;
@@ -99,9 +111,13 @@ export async function leadsCsvStream(
 			.catch((error: unknown) => finish(() => controller.error(error)));
 		// Once the batches not yet written are in, is there room for the one asked for now?
 		if (unwritten < (controller.desiredSize ?? 0)) return undefined;
-		return new Promise<void>((resolve) => (room = resolve)).then(() =>
-			finished ? client.CLOSE : undefined
-		);
+		return new Promise<void>((resolve) => {
+			stalled = setTimeout(() => finish(() => controller.error(stallError(stallMs))), stallMs);
+			room = () => {
+				clearTimeout(stalled);
+				resolve();
+			};
+		}).then(() => (finished ? client.CLOSE : undefined));
 	};
 	const query = client
 		.unsafe(s.text, s.params as Param)
@@ -110,6 +126,7 @@ export async function leadsCsvStream(
 	// Once the query has settled, the cursor must not be woken: answering CLOSE to a connection
 	// that died would make postgres.js write to a socket it has already dropped.
 	const settled = (end: () => void) => {
+		clearTimeout(stalled);
 		room = null;
 		finish(end);
 	};
