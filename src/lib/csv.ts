@@ -6,7 +6,7 @@
 export const FORMULA_START = /^[=+\-@\t\r]/;
 export const NEEDS_QUOTES = /[",\r\n]/;
 /** A formula start or a character that needs quotes: most values have neither, and are their cell. */
-const NEEDS_RULES = new RegExp(`${FORMULA_START.source}|${NEEDS_QUOTES.source}`);
+export const NEEDS_RULES = new RegExp(`${FORMULA_START.source}|${NEEDS_QUOTES.source}`);
 
 export function csvCell(value: unknown): string {
 	if (value === null || value === undefined) return '';

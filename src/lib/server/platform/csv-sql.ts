@@ -1,7 +1,7 @@
 // csvCell ($lib/csv) as SQL, for exports whose cells PostgreSQL writes while the rows stream:
 // the same rules, from the same regular expressions (their sources mean the same in
 // PostgreSQL's regular expressions), so the two cannot drift apart.
-import { csvCell, FORMULA_START, NEEDS_QUOTES } from '$lib/csv';
+import { csvCell, FORMULA_START, NEEDS_QUOTES, NEEDS_RULES } from '$lib/csv';
 
 /** Adds a statement parameter and returns its placeholder (`$n`). */
 export type AddParam = (value: unknown) => string;
@@ -14,7 +14,7 @@ export class CsvCellsSql {
 
 	private get pattern() {
 		this.patterns ??= {
-			rules: this.add(`${FORMULA_START.source}|${NEEDS_QUOTES.source}`),
+			rules: this.add(NEEDS_RULES.source),
 			formula: this.add(FORMULA_START.source),
 			quotes: this.add(NEEDS_QUOTES.source)
 		};
