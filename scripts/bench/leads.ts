@@ -34,8 +34,8 @@ const POOL = 10;
 const APP_PORT = Number(process.env.BENCH_APP_PORT ?? 3410);
 const BASE_PORT = Number(process.env.BENCH_BASE_PORT ?? 3411);
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 10);
-// Without it the first case met a process fresh from start (cold JIT, statements not yet
-// prepared on every pooled connection) and the baseline a warm one: its ratio read up to ×1.65.
+// Both servers start just before the first case: the warm-up lets the JIT and each pooled
+// connection's prepared statements settle before anything is counted.
 const WARMUP_SECONDS = 2;
 const CONNECTIONS = 50;
 const FEW_CONNECTIONS = 10;
@@ -87,7 +87,6 @@ async function waitFor(target: string, child: ChildProcess) {
 	throw new Error(`${target} did not answer`);
 }
 
-/** Each run follows a warm-up at the same load, not counted (WARMUP_SECONDS). */
 function cannon(target: string, headers: Record<string, string>, connections = CONNECTIONS) {
 	return autocannon({
 		url: target,
